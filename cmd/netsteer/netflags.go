@@ -1,0 +1,73 @@
+package main
+
+import (
+	"fmt"
+	"time"
+
+	"github.com/spf13/pflag"
+
+	"github.com/netsteer/netsteer/io/netread"
+	"github.com/netsteer/netsteer/structural"
+)
+
+// netFlags are the options of every command that reads a network.
+type netFlags struct {
+	format       string
+	undirected   bool
+	selfDynamics bool
+}
+
+func (f *netFlags) register(fs *pflag.FlagSet) {
+	fs.StringVar(&f.format, "input-format", "", "network format: edges, mtx or dot (default: from the file extension)")
+	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
+	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
+}
+
+// options turns the flags into reader options.
+func (f *netFlags) options() (netread.Options, error) {
+	var opt netread.Options
+	if f.format != "" {
+		ff, err := netread.ParseFormat(f.format)
+		if err != nil {
+			return opt, fmt.Errorf("--input-format: %v", err)
+		}
+		opt.Format = ff
+	}
+	opt.Build = structural.BuildOptions{Undirected: f.undirected, SelfDynamics: f.selfDynamics}
+	return opt, nil
+}
+
+// load reads the network at path and reports how long it took.
+func (f *netFlags) load(path string, extra func(*netread.Options) error) (*structural.Network, time.Duration, error) {
+	opt, err := f.options()
+	if err != nil {
+		return nil, 0, err
+	}
+	if extra != nil {
+		if err := extra(&opt); err != nil {
+			return nil, 0, err
+		}
+	}
+	start := time.Now()
+	g, err := netread.ReadFile(path, opt)
+	return g, time.Since(start), err
+}
+
+// outFlags select the output format and file.
+type outFlags struct {
+	format string
+	output string
+}
+
+func (f *outFlags) register(fs *pflag.FlagSet) {
+	fs.StringVar(&f.format, "format", "text", "output format: text, json or csv")
+	fs.StringVarP(&f.output, "output", "o", "-", "write the result to this file (- for standard output)")
+}
+
+func (f *outFlags) check() error {
+	switch f.format {
+	case "text", "json", "csv":
+		return nil
+	}
+	return fmt.Errorf("--format %q: want text, json or csv", f.format)
+}

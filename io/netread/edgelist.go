@@ -1,0 +1,209 @@
+package netread
+
+import (
+	"bufio"
+	"io"
+	"math"
+	"strconv"
+
+	"github.com/netsteer/netsteer/structural"
+)
+
+// maxLineBytes bounds an edge-list line: two quoted names at the limit,
+// doubled quotes and a weight.
+const maxLineBytes = 4*MaxNameBytes + 256
+
+// readEdgeList parses "source target [weight]" lines into b.
+func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
+	lr := &lineReader{r: r, file: file, max: maxLineBytes}
+	var tok tokenizer
+	for {
+		line, err := lr.next()
+		if err == io.EOF {
+			return nil
+		}
+		if err != nil {
+			return err
+		}
+		fields, msg := tok.split(line)
+		if msg != "" {
+			return errorf(file, lr.line, "%s", msg)
+		}
+		switch len(fields) {
+		case 0:
+			continue
+		case 1:
+			return errorf(file, lr.line, "want \"source target [weight]\", found one field %q", clip(fields[0]))
+		case 2, 3:
+		default:
+			return errorf(file, lr.line, "want \"source target [weight]\", found %d fields", len(fields))
+		}
+		for _, f := range fields[:2] {
+			if len(f) == 0 {
+				return errorf(file, lr.line, "empty node name")
+			}
+			if len(f) > MaxNameBytes {
+				return errorf(file, lr.line, "node name of %d bytes; the limit is %d", len(f), MaxNameBytes)
+			}
+		}
+		u, err := b.Intern(fields[0])
+		if err != nil {
+			return errorf(file, lr.line, "%v", err)
+		}
+		v, err := b.Intern(fields[1])
+		if err != nil {
+			return errorf(file, lr.line, "%v", err)
+		}
+		if len(fields) == 3 {
+			w, err := strconv.ParseFloat(string(fields[2]), 64)
+			if err != nil || math.IsNaN(w) || math.IsInf(w, 0) {
+				return errorf(file, lr.line, "weight %q is not a finite number", clip(fields[2]))
+			}
+			if w == 0 {
+				return errorf(file, lr.line, "weight 0 is no coupling; leave the edge out")
+			}
+			if weights {
+				b.AddWeightedEdge(u, v, w)
+				continue
+			}
+		}
+		b.AddEdge(u, v)
+	}
+}
+
+// clip shortens a field for an error message.
+func clip(b []byte) string {
+	if len(b) > 40 {
+		return string(b[:40]) + "..."
+	}
+	return string(b)
+}
+
+// tokenizer splits edge-list lines. Fields are separated by white space or
+// one comma (with optional white space around it). A field that starts with
+// a double quote runs to the matching quote, "" standing for one quote
+// inside. A line whose first non-blank byte is '#' or '%' is a comment.
+type tokenizer struct {
+	fields    [][]byte
+	buf       []byte // unescaped quoted fields
+	unlimited bool   // allow any number of fields (design files)
+	spans     []span
+}
+
+// span locates one field: in buf when quoted, else in the line.
+type span struct {
+	quoted     bool
+	start, end int
+}
+
+func isSpace(c byte) bool { return c == ' ' || c == '\t' || c == '\v' || c == '\f' || c == '\r' }
+
+// split returns the fields of line, or an error message.
+func (t *tokenizer) split(line []byte) ([][]byte, string) {
+	t.fields = t.fields[:0]
+	t.buf = t.buf[:0]
+	i, n := 0, len(line)
+	for i < n && isSpace(line[i]) {
+		i++
+	}
+	if i == n || line[i] == '#' || line[i] == '%' {
+		return t.fields, ""
+	}
+	// Quoted fields are unescaped into buf; record offsets first, since buf
+	// may move while it grows.
+	limit := 3
+	if t.unlimited {
+		limit = int(^uint(0) >> 1)
+	}
+	spans := t.spans[:0]
+	for {
+		// At the start of a field.
+		var sp span
+		if i < n && line[i] == '"' {
+			i++
+			sp.quoted = true
+			sp.start = len(t.buf)
+			closed := false
+			for i < n {
+				c := line[i]
+				if c == '"' {
+					if i+1 < n && line[i+1] == '"' {
+						t.buf = append(t.buf, '"')
+						i += 2
+						continue
+					}
+					i++
+					closed = true
+					break
+				}
+				t.buf = append(t.buf, c)
+				i++
+			}
+			if !closed {
+				return nil, "unterminated quoted name"
+			}
+			sp.end = len(t.buf)
+			if i < n && !isSpace(line[i]) && line[i] != ',' {
+				return nil, "text right after a closing quote"
+			}
+		} else {
+			sp.start = i
+			for i < n && !isSpace(line[i]) && line[i] != ',' {
+				if line[i] == '"' {
+					return nil, "quote inside an unquoted name (quote the whole name and double inner quotes)"
+				}
+				i++
+			}
+			sp.end = i
+		}
+		if len(spans) == limit {
+			return nil, "want \"source target [weight]\", found more than 3 fields"
+		}
+		spans = append(spans, sp)
+		// Separator: white space, optionally one comma.
+		for i < n && isSpace(line[i]) {
+			i++
+		}
+		if i == n {
+			break
+		}
+		if line[i] == ',' {
+			i++
+			for i < n && isSpace(line[i]) {
+				i++
+			}
+			if i == n {
+				// A trailing comma leaves an empty last field.
+				if len(spans) == limit {
+					return nil, "want \"source target [weight]\", found more than 3 fields"
+				}
+				spans = append(spans, span{start: i, end: i})
+				break
+			}
+		}
+	}
+	t.spans = spans
+	for _, sp := range spans {
+		if sp.quoted {
+			t.fields = append(t.fields, t.buf[sp.start:sp.end])
+		} else {
+			t.fields = append(t.fields, line[sp.start:sp.end])
+		}
+	}
+	return t.fields, ""
+}
+
+// SplitFields splits one line the way edge lists are split (white space or
+// a comma between fields, double-quoted names, '#' and '%' comments), with
+// no limit on the number of fields. It returns an error message for a
+// malformed line.
+func SplitFields(line []byte) ([]string, string) {
+	var t tokenizer
+	t.unlimited = true
+	f, msg := t.split(line)
+	out := make([]string, len(f))
+	for i, b := range f {
+		out[i] = string(b)
+	}
+	return out, msg
+}

@@ -1,0 +1,220 @@
+package structural
+
+import (
+	"errors"
+	"fmt"
+
+	"github.com/netsteer/netsteer/matching"
+)
+
+// MaxStates is the largest number of states a Network can hold (int32
+// indices).
+const MaxStates = 1<<31 - 2
+
+// BuildOptions change how a Builder turns its edges into a Network.
+type BuildOptions struct {
+	// Undirected reads every edge u v as the two couplings u -> v and v -> u.
+	Undirected bool
+	// SelfDynamics adds a self-loop to every state (nodal dynamics).
+	SelfDynamics bool
+}
+
+// Builder collects named states and edges and builds a Network. The zero
+// value is not usable; call NewBuilder or NewIntBuilder.
+type Builder struct {
+	names    *Names
+	src, dst []int32
+	w        []float64
+	weighted bool
+}
+
+// NewBuilder returns a Builder whose states are named by Intern.
+func NewBuilder() *Builder { return &Builder{names: NewNames()} }
+
+// NewIntBuilder returns a Builder for n states named base..base+n-1.
+func NewIntBuilder(n, base int) *Builder { return &Builder{names: IntNames(n, base)} }
+
+// Grow reserves room for n more edges.
+func (b *Builder) Grow(n int) {
+	if n <= 0 {
+		return
+	}
+	if cap(b.src)-len(b.src) < n {
+		src := make([]int32, len(b.src), len(b.src)+n)
+		copy(src, b.src)
+		b.src = src
+		dst := make([]int32, len(b.dst), len(b.dst)+n)
+		copy(dst, b.dst)
+		b.dst = dst
+	}
+}
+
+// Intern returns the index of the named state, adding it when new.
+func (b *Builder) Intern(name []byte) (int32, error) {
+	if b.names.ints {
+		return -1, errors.New("structural: Intern on an integer-named builder")
+	}
+	if b.names.n >= MaxStates {
+		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
+	}
+	return b.names.Intern(name), nil
+}
+
+// States returns the number of states so far.
+func (b *Builder) States() int { return b.names.n }
+
+// Edges returns the number of edges added so far, repeats included.
+func (b *Builder) Edges() int { return len(b.src) }
+
+// AddEdge records u -> v.
+func (b *Builder) AddEdge(u, v int32) {
+	b.src = append(b.src, u)
+	b.dst = append(b.dst, v)
+	if b.weighted {
+		b.w = append(b.w, 1)
+	}
+}
+
+// AddWeightedEdge records u -> v with weight w. Once a weighted edge is
+// added, every edge carries a weight (1 for those added without).
+func (b *Builder) AddWeightedEdge(u, v int32, w float64) {
+	if !b.weighted {
+		b.weighted = true
+		b.w = make([]float64, len(b.src), cap(b.src))
+		for i := range b.w {
+			b.w[i] = 1
+		}
+	}
+	b.src = append(b.src, u)
+	b.dst = append(b.dst, v)
+	b.w = append(b.w, w)
+}
+
+// Build returns the Network. The Builder must not be used afterwards.
+func (b *Builder) Build(opt BuildOptions) (*Network, error) {
+	n := b.names.n
+	if n == 0 {
+		return nil, errors.New("structural: empty network")
+	}
+	src, dst, w := b.src, b.dst, b.w
+	b.src, b.dst, b.w = nil, nil, nil
+	if opt.Undirected {
+		m := len(src)
+		for i := 0; i < m; i++ {
+			if src[i] != dst[i] {
+				src = append(src, dst[i])
+				dst = append(dst, src[i])
+				if w != nil {
+					w = append(w, w[i])
+				}
+			}
+		}
+	}
+	preLoops := 0
+	if opt.SelfDynamics {
+		has := make([]bool, n)
+		for i, u := range src {
+			if u == dst[i] && !has[u] {
+				has[u] = true
+				preLoops++
+			}
+		}
+		for u := 0; u < n; u++ {
+			src = append(src, int32(u))
+			dst = append(dst, int32(u))
+			if w != nil {
+				w = append(w, 1)
+			}
+		}
+	}
+	if int64(len(src)) >= 1<<40 {
+		return nil, errors.New("structural: too many edges")
+	}
+	g := &Network{names: b.names}
+	// Counting sort by target: the in-rows, unsorted, with repeats.
+	inPtr := make([]int64, n+1)
+	for _, v := range dst {
+		inPtr[v+1]++
+	}
+	for v := 0; v < n; v++ {
+		inPtr[v+1] += inPtr[v]
+	}
+	outDeg := make([]int64, n+1)
+	inSrc := make([]int32, len(src))
+	var inW []float64
+	if w != nil {
+		inW = make([]float64, len(src))
+	}
+	pos := make([]int64, n)
+	copy(pos, inPtr[:n])
+	for i, v := range dst {
+		p := pos[v]
+		inSrc[p] = src[i]
+		if w != nil {
+			inW[p] = w[i]
+		}
+		pos[v]++
+		outDeg[src[i]+1]++
+	}
+	src, dst, w = nil, nil, nil
+	// Scatter by source in target order: out-rows come out sorted.
+	for u := 0; u < n; u++ {
+		outDeg[u+1] += outDeg[u]
+	}
+	outPtr := outDeg
+	outAdj := make([]int32, len(inSrc))
+	var outW []float64
+	if inW != nil {
+		outW = make([]float64, len(inSrc))
+	}
+	copy(pos, outPtr[:n])
+	for v := 0; v < n; v++ {
+		for k := inPtr[v]; k < inPtr[v+1]; k++ {
+			u := inSrc[k]
+			p := pos[u]
+			outAdj[p] = int32(v)
+			if outW != nil {
+				outW[p] = inW[k]
+			}
+			pos[u]++
+		}
+	}
+	inSrc, inW, inPtr, pos = nil, nil, nil, nil
+	// Merge repeats in place.
+	merged, loops := 0, 0
+	var q int64
+	for u := 0; u < n; u++ {
+		lo, hi := outPtr[u], outPtr[u+1]
+		outPtr[u] = q
+		for k := lo; k < hi; k++ {
+			if k > lo && outAdj[k] == outAdj[k-1] {
+				merged++
+				if outW != nil {
+					outW[q-1] += outW[k]
+				}
+				continue
+			}
+			if outAdj[k] == int32(u) {
+				loops++
+			}
+			outAdj[q] = outAdj[k]
+			if outW != nil {
+				outW[q] = outW[k]
+			}
+			q++
+		}
+	}
+	outPtr[n] = q
+	if int(q) < len(outAdj) {
+		outAdj = append([]int32(nil), outAdj[:q]...)
+		if outW != nil {
+			outW = append([]float64(nil), outW[:q]...)
+		}
+	}
+	g.Out = matching.CSR{Rows: n, Cols: n, Ptr: outPtr, Adj: outAdj}
+	g.OutW = outW
+	g.In = *matching.Transpose(&g.Out)
+	g.SelfLoops = loops
+	g.DuplicatesMerged = merged - preLoops
+	return g, nil
+}
