@@ -1,0 +1,171 @@
+package netwrite
+
+import (
+	"bytes"
+	"encoding/csv"
+	"fmt"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"testing"
+
+	"github.com/netsteer/netsteer/io/netread"
+	"github.com/netsteer/netsteer/structural"
+)
+
+func build(t *testing.T, edges [][2]string, isolated ...string) *structural.Network {
+	t.Helper()
+	b := structural.NewBuilder()
+	for _, e := range edges {
+		u, _ := b.Intern([]byte(e[0]))
+		v, _ := b.Intern([]byte(e[1]))
+		b.AddEdge(u, v)
+	}
+	for _, s := range isolated {
+		b.Intern([]byte(s))
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return g
+}
+
+func edgeSet(g *structural.Network) []string {
+	var out []string
+	for u := int32(0); int(u) < g.N(); u++ {
+		for _, v := range g.Out.Row(u) {
+			out = append(out, g.Name(u)+" -> "+g.Name(v))
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+func readNodeTable(t *testing.T, path string) []string {
+	t.Helper()
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) == 0 || len(recs[0]) != 1 || recs[0][0] != "node" {
+		t.Fatalf("node table header %v, want [node]", recs[:1])
+	}
+	var names []string
+	for _, r := range recs[1:] {
+		names = append(names, r[0])
+	}
+	return names
+}
+
+// Names that need quoting survive a round trip through the edge-list
+// reader, and the node table restores isolated states (same N and L).
+func TestEdgeListRoundTrip(t *testing.T) {
+	g := build(t, [][2]string{
+		{"pump 1", "valve,a"}, {`say "hi"`, "#tag"}, {"%x", "plain"}, {"plain", "pump 1"}, {"ünï", "ünï"},
+	}, "lonely", "also alone")
+	dir := t.TempDir()
+	for _, name := range []string{"net.edges", "net.edges.gz"} {
+		path := filepath.Join(dir, name)
+		wr, err := WriteFile(path, g, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if wr.NodeTable != filepath.Join(dir, "net.nodes.csv") {
+			t.Errorf("node table at %q", wr.NodeTable)
+		}
+		states := readNodeTable(t, wr.NodeTable)
+		h, err := netread.ReadFile(path, netread.Options{States: states})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if h.N() != g.N() || h.Edges() != g.Edges() {
+			t.Errorf("%s: read back N=%d L=%d, want N=%d L=%d", name, h.N(), h.Edges(), g.N(), g.Edges())
+		}
+		if got, want := fmt.Sprint(edgeSet(h)), fmt.Sprint(edgeSet(g)); got != want {
+			t.Errorf("%s: edges %s, want %s", name, got, want)
+		}
+	}
+}
+
+func TestWeightsRoundTrip(t *testing.T) {
+	b := structural.NewIntBuilder(3, 1)
+	b.AddWeightedEdge(0, 1, 2.5)
+	b.AddWeightedEdge(1, 2, -1e-3)
+	g, _ := b.Build(structural.BuildOptions{})
+	var buf bytes.Buffer
+	if err := WriteEdges(&buf, g); err != nil {
+		t.Fatal(err)
+	}
+	if got, want := buf.String(), "1 2 2.5\n2 3 -0.001\n"; got != want {
+		t.Errorf("got %q, want %q", got, want)
+	}
+}
+
+// Matrix Market: entry (i, j) is A[i][j] != 0, the edge j -> i (the
+// Matrix Market coordinate format, NIST; netsteer's reading convention),
+// and the size line carries N, isolated states included.
+func TestMatrixMarket(t *testing.T) {
+	b := structural.NewIntBuilder(5, 1)
+	b.AddEdge(0, 1)
+	b.AddEdge(3, 1)
+	g, _ := b.Build(structural.BuildOptions{})
+	var buf bytes.Buffer
+	if err := WriteMatrixMarket(&buf, g); err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.Split(strings.TrimSpace(buf.String()), "\n")
+	var data []string
+	for _, l := range lines {
+		if !strings.HasPrefix(l, "%") {
+			data = append(data, l)
+		}
+	}
+	if !strings.HasPrefix(lines[0], "%%MatrixMarket matrix coordinate pattern general") {
+		t.Errorf("banner %q", lines[0])
+	}
+	if got, want := strings.Join(data, "|"), "5 5 2|2 1|2 4"; got != want {
+		t.Errorf("got %q, want %q", got, want)
+	}
+}
+
+func TestEdgeWriter(t *testing.T) {
+	var buf bytes.Buffer
+	e := NewEdgeWriter(&buf, 1)
+	e.AddEdge(0, 4)
+	e.AddEdge(2, 1)
+	if err := e.Flush(); err != nil {
+		t.Fatal(err)
+	}
+	if buf.String() != "1 5\n3 2\n" || e.Edges() != 2 {
+		t.Errorf("got %q (%d edges)", buf.String(), e.Edges())
+	}
+	buf.Reset()
+	if err := WriteIntNodeTable(&buf, 3, 1); err != nil || buf.String() != "node\n1\n2\n3\n" {
+		t.Errorf("int node table %q, %v", buf.String(), err)
+	}
+}
+
+func TestNodeTablePath(t *testing.T) {
+	for in, want := range map[string]string{
+		"net.edges": "net.nodes.csv", "d/net.edges.gz": "d/net.nodes.csv", "net": "net.nodes.csv",
+		"a.b/net": "a.b/net.nodes.csv", "x.txt": "x.nodes.csv",
+	} {
+		if got := NodeTablePath(in); got != want {
+			t.Errorf("NodeTablePath(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+func TestLineBreakInName(t *testing.T) {
+	g := build(t, [][2]string{{"a\nb", "c"}})
+	if err := WriteEdges(&bytes.Buffer{}, g); err == nil {
+		t.Error("a name with a line break: got no error")
+	}
+}
