@@ -13,76 +13,90 @@ type Matching struct {
 // transpose of g (see Transpose) or nil, in which case it is computed.
 //
 // The matching is initialised by Karp–Sipser (degree-one reductions first,
-// then arbitrary edges) and completed by Pothen–Fan augmentation with
-// lookahead and fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2), 2011).
-// Each phase runs a depth-first search from every free row with a shared
-// visited mark, so a phase finds a maximal set of vertex-disjoint augmenting
-// paths; the algorithm stops after a phase that finds none. Searches are
-// iterative. Time is O(|E|) for the initialisation and O(|V||E|) in the worst
-// case for the augmentation, near-linear on the sparse networks met in
-// practice; memory is O(|V|) beyond the graph.
+// then the free edge to the column of fewest free neighbours) and completed
+// by depth-first augmentation in the manner of Pothen–Fan with lookahead and
+// fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2):13, 2011): each phase
+// searches from every free row with a visit mark shared by the phase, so a
+// phase finds vertex-disjoint augmenting paths, and phases alternate the
+// scan direction. A search that fails without meeting a column claimed by a
+// successful search of its phase proves that every column it visited leads
+// to no free column, now or after later augmentations; such columns are
+// marked dead and never entered again, and its root is dropped. The last
+// phase, which only proves maximality, therefore costs one pass over the
+// part of the graph still alive instead of a full phase per round.
+//
+// Every search is iterative. Time is O(|E|) for the initialisation and
+// O(|V||E|) in the worst case for the augmentation, near-linear on the
+// sparse networks met in practice; memory is about 24 bytes per row and
+// column beyond the graph.
 func Maximum(g, gt *CSR) *Matching {
 	if gt == nil {
 		gt = Transpose(g)
 	}
 	m := &Matching{RowMate: make([]int32, g.Rows), ColMate: make([]int32, g.Cols)}
-	for i := range m.RowMate {
-		m.RowMate[i] = -1
-	}
-	for i := range m.ColMate {
-		m.ColMate[i] = -1
-	}
 	m.Size = karpSipser(g, gt, m)
-	m.Size += augment(g, m)
+	m.Size += augment(g, gt, m)
 	return m
 }
 
-// karpSipser extends m greedily: a vertex with exactly one free neighbour is
-// matched to it (an optimal choice), and when none is left an arbitrary free
-// edge is taken. Degrees are kept current on both sides, so the whole pass is
-// linear in the graph size.
+// karpSipser fills m with a greedy matching: a vertex with exactly one free
+// neighbour is matched to it (an optimal choice), and when none is left the
+// next free row takes the free column with the fewest free neighbours.
+//
+// Each vertex keeps its state in one word, so a neighbour update touches one
+// cache line: st >= 0 is the mate, st < 0 a free vertex with -1-st free
+// incidences, and x the exclusive or of those incidences' indices, which is
+// the last free neighbour itself once one is left (repeated edges cancel in
+// pairs as they leave together).
 func karpSipser(g, gt *CSR, m *Matching) int {
 	nr, nc := g.Rows, g.Cols
-	// deg[0:nr] are row degrees, deg[nr:nr+nc] column degrees, counting
-	// only free neighbours.
-	deg := make([]int32, nr+nc)
-	queue := make([]int32, 0, 1024)
+	rs := make([]ksState, nr)
+	cs := make([]ksState, nc)
+	queue := make([]int32, 0, 1024) // degree-one vertices: rows r, columns as ^c
+	gp, ga, tp, ta := g.Ptr, g.Adj, gt.Ptr, gt.Adj
 	for r := 0; r < nr; r++ {
-		d := int32(g.Ptr[r+1] - g.Ptr[r])
-		deg[r] = d
+		x := int32(0)
+		for _, c := range ga[gp[r]:gp[r+1]] {
+			x ^= c
+		}
+		d := int32(gp[r+1] - gp[r])
+		rs[r] = ksState{-1 - d, x}
 		if d == 1 {
 			queue = append(queue, int32(r))
 		}
 	}
 	for c := 0; c < nc; c++ {
-		d := int32(gt.Ptr[c+1] - gt.Ptr[c])
-		deg[nr+c] = d
+		x := int32(0)
+		for _, r := range ta[tp[c]:tp[c+1]] {
+			x ^= r
+		}
+		d := int32(tp[c+1] - tp[c])
+		cs[c] = ksState{-1 - d, x}
 		if d == 1 {
-			queue = append(queue, int32(nr+c))
+			queue = append(queue, ^int32(c))
 		}
 	}
 	size := 0
-	// match pairs row r with column c and lowers the degrees of their
-	// neighbours, queueing those that reach one.
+	// match pairs row r with column c and removes them from the free
+	// neighbourhoods of their neighbours, queueing those left with one.
 	match := func(r, c int32) {
-		m.RowMate[r] = c
-		m.ColMate[c] = r
+		rs[r].st = c
+		cs[c].st = r
 		size++
-		deg[r] = 0
-		deg[int32(nr)+c] = 0
-		for _, c2 := range g.Adj[g.Ptr[r]:g.Ptr[r+1]] {
-			if m.ColMate[c2] < 0 {
-				k := int32(nr) + c2
-				deg[k]--
-				if deg[k] == 1 {
-					queue = append(queue, k)
+		for _, c2 := range ga[gp[r]:gp[r+1]] {
+			if s := &cs[c2]; s.st < 0 {
+				s.st++
+				s.x ^= r
+				if s.st == -2 {
+					queue = append(queue, ^c2)
 				}
 			}
 		}
-		for _, r2 := range gt.Adj[gt.Ptr[c]:gt.Ptr[c+1]] {
-			if m.RowMate[r2] < 0 {
-				deg[r2]--
-				if deg[r2] == 1 {
+		for _, r2 := range ta[tp[c]:tp[c+1]] {
+			if s := &rs[r2]; s.st < 0 {
+				s.st++
+				s.x ^= c
+				if s.st == -2 {
 					queue = append(queue, r2)
 				}
 			}
@@ -92,45 +106,28 @@ func karpSipser(g, gt *CSR, m *Matching) int {
 		for len(queue) > 0 {
 			v := queue[len(queue)-1]
 			queue = queue[:len(queue)-1]
-			if deg[v] != 1 {
-				continue
-			}
-			if int(v) < nr {
-				if m.RowMate[v] >= 0 {
-					continue
+			if v >= 0 {
+				if s := rs[v]; s.st == -2 {
+					match(v, s.x)
 				}
-				for _, c := range g.Adj[g.Ptr[v]:g.Ptr[v+1]] {
-					if m.ColMate[c] < 0 {
-						match(v, c)
-						break
-					}
-				}
-			} else {
-				c := v - int32(nr)
-				if m.ColMate[c] >= 0 {
-					continue
-				}
-				for _, r := range gt.Adj[gt.Ptr[c]:gt.Ptr[c+1]] {
-					if m.RowMate[r] < 0 {
-						match(r, c)
-						break
-					}
-				}
+			} else if s := cs[^v]; s.st == -2 {
+				match(s.x, ^v)
 			}
 		}
 	}
 	drain()
-	// Second stage: take the free edge of the free row with the fewest free
-	// neighbours, scanning rows in order; every choice is followed by the
-	// degree-one reductions it enables.
 	for r := int32(0); int(r) < nr; r++ {
-		if m.RowMate[r] >= 0 || deg[r] == 0 {
-			continue
+		if rs[r].st >= -1 {
+			continue // matched, or no free neighbour left
 		}
-		best, bestDeg := int32(-1), int32(1<<30)
-		for _, c := range g.Adj[g.Ptr[r]:g.Ptr[r+1]] {
-			if m.ColMate[c] < 0 && deg[int32(nr)+c] < bestDeg {
-				best, bestDeg = c, deg[int32(nr)+c]
+		best, bestSt := int32(-1), int32(0)
+		for _, c := range ga[gp[r]:gp[r+1]] {
+			// The largest negative state has the fewest free neighbours.
+			if st := cs[c].st; st < 0 && (best < 0 || st > bestSt) {
+				best, bestSt = c, st
+				if st == -2 {
+					break
+				}
 			}
 		}
 		if best >= 0 {
@@ -138,14 +135,40 @@ func karpSipser(g, gt *CSR, m *Matching) int {
 			drain()
 		}
 	}
+	for r := range rs {
+		m.RowMate[r] = max(rs[r].st, -1)
+	}
+	for c := range cs {
+		m.ColMate[c] = max(cs[c].st, -1)
+	}
 	return size
 }
 
-// augment completes m to a maximum matching by Pothen–Fan phases with
-// lookahead and fairness. It returns the number of augmentations.
-func augment(g *CSR, m *Matching) int {
-	nr := g.Rows
-	free := make([]int32, 0)
+// ksState is a vertex during Karp–Sipser; see karpSipser.
+type ksState struct{ st, x int32 }
+
+// colInfo keeps a column's mate and visit mark in one cache line.
+type colInfo struct {
+	mate int32 // row, or -1
+	mark int32 // 0 never visited, dead, or the search that last visited
+}
+
+// dead marks a column from which no alternating path reaches a free column.
+const dead = -1
+
+// rowInfo keeps a row's search offsets and mate together.
+type rowInfo struct {
+	look int32 // lookahead offset: columns before it are matched
+	next int32 // depth-first offset within the current visit
+	mate int32
+}
+
+// augment completes m to a maximum matching and returns the number of
+// augmentations. gt is not used yet; it is kept for searches from columns.
+func augment(g, gt *CSR, m *Matching) int {
+	_ = gt
+	nr, nc := g.Rows, g.Cols
+	free := make([]int32, 0, 1024)
 	for r := 0; r < nr; r++ {
 		if m.RowMate[r] < 0 && g.Ptr[r+1] > g.Ptr[r] {
 			free = append(free, int32(r))
@@ -154,92 +177,157 @@ func augment(g *CSR, m *Matching) int {
 	if len(free) == 0 {
 		return 0
 	}
-	visited := make([]int32, g.Cols) // phase stamp of the last visit
-	look := make([]int32, nr)        // lookahead offset into each row
-	next := make([]int32, nr)        // DFS offset into each row this phase
-	stackR := make([]int32, 0, 64)   // rows on the current alternating path
+	unmatchedCols := 0
+	for _, r := range m.ColMate {
+		if r < 0 {
+			unmatchedCols++
+		}
+	}
+	if unmatchedCols == 0 {
+		return 0
+	}
+	cols := make([]colInfo, nc)
+	for c, r := range m.ColMate {
+		cols[c].mate = r
+	}
+	rows := make([]rowInfo, nr)
+	for r, c := range m.RowMate {
+		rows[r].mate = c
+	}
+	ptr, adj := g.Ptr, g.Adj
+	stack := make([]int32, 0, 64)   // rows on the current alternating path
+	visited := make([]int32, 0, 64) // columns visited by the current search
 	added := 0
-	for phase := int32(1); ; phase++ {
-		forward := phase%2 == 1
+	search := int32(0)
+	// The first pass runs Kuhn-style: each search has its own visit mark,
+	// so every failure is clean and every root is tried once; successful
+	// searches may re-scan live columns, so once they have scanned more
+	// than budget edges the remaining roots go on in Pothen–Fan phases,
+	// whose cost per phase is bounded by one pass over the graph.
+	budget := 2*int64(len(adj)) + int64(nr)
+	var spent int64
+	kuhn := true
+	for phase := 0; len(free) > 0 && unmatchedCols > 0; phase++ {
+		forward := phase%2 == 0
+		phaseStart := search + 1
 		found := 0
+		k := 0 // free[:k] are the roots kept for the next phase
 		for _, root := range free {
-			if m.RowMate[root] >= 0 {
+			if rows[root].mate >= 0 {
 				continue
 			}
-			stackR = append(stackR[:0], root)
-			next[root] = 0
-			for len(stackR) > 0 {
-				r := stackR[len(stackR)-1]
-				lo, hi := g.Ptr[r], g.Ptr[r+1]
+			if unmatchedCols == 0 {
+				break
+			}
+			search++
+			cur := search
+			if kuhn {
+				if spent > budget {
+					kuhn = false
+				} else {
+					phaseStart = cur
+				}
+			}
+			touchedLive := false
+			var scans int64
+			visited = visited[:0]
+			stack = append(stack[:0], root)
+			rows[root].next = 0
+			success := false
+			for len(stack) > 0 {
+				r := stack[len(stack)-1]
+				ri := &rows[r]
+				lo, hi := ptr[r], ptr[r+1]
 				deg := int32(hi - lo)
 				// Lookahead: a free column adjacent to r ends the path.
 				endCol := int32(-1)
-				for look[r] < deg {
-					c := g.Adj[lo+int64(look[r])]
-					look[r]++
-					if m.ColMate[c] < 0 {
+				for ri.look < deg {
+					c := adj[lo+int64(ri.look)]
+					ri.look++
+					if cols[c].mate < 0 {
 						endCol = c
 						break
 					}
 				}
 				if endCol >= 0 {
-					// Augment: each row on the path takes the column
-					// that entered the next one; the last takes endCol.
 					c := endCol
-					for i := len(stackR) - 1; i >= 0; i-- {
-						rr := stackR[i]
-						prev := m.RowMate[rr]
-						m.RowMate[rr] = c
-						m.ColMate[c] = rr
+					for i := len(stack) - 1; i >= 0; i-- {
+						rr := stack[i]
+						prev := rows[rr].mate
+						rows[rr].mate = c
+						cols[c].mate = rr
 						c = prev
 					}
-					found++
+					success = true
 					break
 				}
-				// Descend to an unvisited matched column.
+				// Descend to an unvisited live column; all of r's columns
+				// are matched now (columns never lose their mates).
 				advanced := false
-				for next[r] < deg {
+				for ri.next < deg {
 					var c int32
 					if forward {
-						c = g.Adj[lo+int64(next[r])]
+						c = adj[lo+int64(ri.next)]
 					} else {
-						c = g.Adj[hi-1-int64(next[r])]
+						c = adj[hi-1-int64(ri.next)]
 					}
-					next[r]++
-					if visited[c] == phase {
+					ri.next++
+					scans++
+					ci := &cols[c]
+					mk := ci.mark
+					if mk == dead {
 						continue
 					}
-					visited[c] = phase
-					r2 := m.ColMate[c]
-					if r2 < 0 {
-						continue // columns only ever gain mates, so lookahead saw every free one
+					if mk >= phaseStart {
+						if mk != cur {
+							touchedLive = true
+						}
+						continue
 					}
-					next[r2] = 0
-					stackR = append(stackR, r2)
+					ci.mark = cur
+					visited = append(visited, c)
+					r2 := ci.mate
+					rows[r2].next = 0
+					stack = append(stack, r2)
 					advanced = true
 					break
 				}
 				if !advanced {
-					stackR = stackR[:len(stackR)-1]
+					stack = stack[:len(stack)-1]
 				}
 			}
-		}
-		if found == 0 {
-			break
-		}
-		added += found
-		// Drop matched rows from the free list.
-		k := 0
-		for _, r := range free {
-			if m.RowMate[r] < 0 {
-				free[k] = r
+			if success {
+				if kuhn {
+					spent += scans
+				}
+				found++
+				unmatchedCols--
+				continue
+			}
+			if touchedLive {
+				free[k] = root
 				k++
+				continue
+			}
+			// A clean failure: the visited columns and their rows form a
+			// closed alternating set with no free column; no later
+			// augmentation can enter it, so it is dead for good.
+			for _, c := range visited {
+				cols[c].mark = dead
 			}
 		}
 		free = free[:k]
-		if len(free) == 0 {
+		added += found
+		if found == 0 {
 			break
 		}
 	}
+	for c := range cols {
+		m.ColMate[c] = cols[c].mate
+	}
+	for r := range rows {
+		m.RowMate[r] = rows[r].mate
+	}
 	return added
 }
+
