@@ -330,4 +330,3 @@ func augment(g, gt *CSR, m *Matching) int {
 	}
 	return added
 }
-
