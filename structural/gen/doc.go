@@ -4,8 +4,8 @@
 // exponents, directed small-world rings, random regular networks, 2-D
 // lattices with chosen edge directions and leader-follower trees.
 //
-// Conventions. States are numbered 0..N-1 and an edge u -> v means that u
-// acts on v (A[v][u] != 0). Every model keeps all N states, isolated ones
+// Conventions. States are numbered 0..N-1 (and named 1..N in networks and
+// files) and an edge u -> v means that u acts on v (A[v][u] != 0). Every model keeps all N states, isolated ones
 // included. Generators emit each edge once to a Sink (a
 // *structural.Builder, or a file writer) and never emit a self-loop or a
 // repeated edge, so the number of edges emitted is the network's L. Mean

@@ -129,13 +129,14 @@ func (p Params) Generate(rng *rand.Rand, sink Sink) error {
 	return fmt.Errorf("gen: unknown model %q", p.Model)
 }
 
-// Network generates the network into a structural.Network whose states are
-// named 0..N-1.
+// Network generates the network into a structural.Network. State i is
+// named i+1 (1..N), as in Matrix Market files and the edge lists that
+// generate writes.
 func (p Params) Network(rng *rand.Rand) (*structural.Network, error) {
 	if err := p.Check(); err != nil {
 		return nil, err
 	}
-	b := structural.NewIntBuilder(p.Nodes, 0)
+	b := structural.NewIntBuilder(p.Nodes, 1)
 	if h := p.EdgeHint(); h > 0 && h <= maxEdges {
 		b.Grow(int(h))
 	}

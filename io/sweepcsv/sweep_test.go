@@ -1,0 +1,244 @@
+package sweepcsv
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/gen"
+)
+
+func TestParseValues(t *testing.T) {
+	for _, tc := range []struct {
+		spec    string
+		integer bool
+		want    string
+	}{
+		{"1:7:1", false, "[1 2 3 4 5 6 7]"},
+		{"0:0.3:0.05", false, "[0 0.05 0.1 0.15 0.2 0.25 0.3]"},
+		{"0.1:0.35:0.1", false, "[0.1 0.2 0.3]"},
+		{"5", true, "[5]"},
+		{"1000,2000,5000", true, "[1000 2000 5000]"},
+		{"2.5,inf", false, "[2.5 inf]"},
+	} {
+		got, err := ParseValues(tc.spec, true, tc.integer)
+		if err != nil || fmt.Sprint(got) != tc.want {
+			t.Errorf("ParseValues(%q) = %v, %v; want %s", tc.spec, got, err, tc.want)
+		}
+	}
+	for _, bad := range []string{"1:2", "3:1:1", "1:2:0", "x", "1.5"} {
+		if _, err := ParseValues(bad, true, true); err == nil {
+			t.Errorf("ParseValues(%q): got no error", bad)
+		}
+	}
+}
+
+func erPlan(t *testing.T, seed uint64) *Plan {
+	t.Helper()
+	axes, err := ModelAxes("er", map[string]string{"nodes": "3000", "mean_degree": "1:4:1"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return &Plan{Model: "er", Axes: axes, Replicates: 2, Seed: seed}
+}
+
+// withoutSeconds drops the wall-clock column, the one column that differs
+// between runs by design.
+func withoutSeconds(t *testing.T, path string) string {
+	t.Helper()
+	rows, err := ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range rows {
+		rows[i].Seconds = 0
+	}
+	var b bytes.Buffer
+	Write(&b, rows)
+	return b.String()
+}
+
+// Rows depend on the sweep seed and their coordinates only: the same seed
+// gives the same rows whatever the worker count; shards merged equal the
+// single run; a run killed part-way and resumed gives the same file.
+func TestReproducibleShardsResume(t *testing.T) {
+	dir := t.TempDir()
+	single := filepath.Join(dir, "single.csv")
+	if _, err := erPlan(t, 11).Run(context.Background(), RunOptions{Output: single, Workers: 1}); err != nil {
+		t.Fatal(err)
+	}
+	want := withoutSeconds(t, single)
+	if n := strings.Count(want, "\n"); n != 1+4*2 {
+		t.Fatalf("got %d lines, want header + 8 rows:\n%s", n, want)
+	}
+	again := filepath.Join(dir, "again.csv")
+	if _, err := erPlan(t, 11).Run(context.Background(), RunOptions{Output: again, Workers: 3}); err != nil {
+		t.Fatal(err)
+	}
+	if got := withoutSeconds(t, again); got != want {
+		t.Errorf("same seed, 3 workers:\n%s\nwant\n%s", got, want)
+	}
+	// Shards.
+	var parts []string
+	for i := 0; i < 3; i++ {
+		p := filepath.Join(dir, fmt.Sprintf("shard%d.csv", i))
+		res, err := erPlan(t, 11).Run(context.Background(), RunOptions{Output: p, Shard: Shard{i, 3}, Workers: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Share != []int{3, 3, 2}[i] {
+			t.Errorf("shard %d/3 has %d points", i, res.Share)
+		}
+		parts = append(parts, p)
+	}
+	merged, err := MergeFiles(parts...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mpath := filepath.Join(dir, "merged.csv")
+	if err := WriteFile(mpath, merged, nil); err != nil {
+		t.Fatal(err)
+	}
+	if got := withoutSeconds(t, mpath); got != want {
+		t.Errorf("merged shards:\n%s\nwant\n%s", got, want)
+	}
+	// Kill after three rows (the run writes what it has), then resume.
+	killed := filepath.Join(dir, "killed.csv")
+	ctx, cancel := context.WithCancel(context.Background())
+	res, err := erPlan(t, 11).Run(ctx, RunOptions{Output: killed, Workers: 1, Checkpoint: 1,
+		Progress: func(done, total int) {
+			if done == 3 {
+				cancel()
+			}
+		}})
+	if err == nil || res == nil || res.Computed != 3 {
+		t.Fatalf("cancelled run: %v, %+v", err, res)
+	}
+	if n := strings.Count(withoutSeconds(t, killed), "\n"); n != 4 {
+		t.Fatalf("killed run left %d lines, want header + 3 rows", n)
+	}
+	res, err = erPlan(t, 11).Run(context.Background(), RunOptions{Output: killed, Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Skipped != 3 || res.Computed != 5 {
+		t.Errorf("resume: skipped %d computed %d, want 3 and 5", res.Skipped, res.Computed)
+	}
+	if got := withoutSeconds(t, killed); got != want {
+		t.Errorf("resumed:\n%s\nwant\n%s", got, want)
+	}
+	// A rerun with another seed refuses to mix rows.
+	if _, err := erPlan(t, 12).Run(context.Background(), RunOptions{Output: killed}); err == nil {
+		t.Error("rerun with another seed into the same file: got no error")
+	}
+	// Merging files from different seeds is refused too.
+	other := filepath.Join(dir, "other.csv")
+	if _, err := erPlan(t, 12).Run(context.Background(), RunOptions{Output: other}); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := MergeFiles(single, other); err == nil {
+		t.Error("merging sweeps of different seeds: got no error")
+	}
+}
+
+// Measured ER rows lie near the cavity prediction (Liu, Slotine &
+// Barabási 2011, Fig. 3a); at N = 3000 the sampling sd of n_D is about
+// 0.006, so 0.03 is five of them.
+func TestERRowsNearPrediction(t *testing.T) {
+	res, err := erPlan(t, 5).Run(context.Background(), RunOptions{Output: "-", Stdout: &bytes.Buffer{}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range res.Rows {
+		if r.PredictionFrom != "model" || math.Abs(r.DriverFraction-r.PredictedFraction) > 0.03 {
+			t.Errorf("%s: measured %.4f, predicted %.4f (%s)", r.Key(), r.DriverFraction, r.PredictedFraction, r.PredictionFrom)
+		}
+		if r.Nodes != 3000 || r.Edges != int64(math.Round(r.MeanDegree*3000/2)) {
+			t.Errorf("%s: N=%d L=%d <k>=%v", r.Key(), r.Nodes, r.Edges, r.MeanDegree)
+		}
+	}
+}
+
+// A base sweep: dropout variants of a given network, predicted by the
+// degree-preserving expectation of each variant.
+func TestBaseSweep(t *testing.T) {
+	g, err := gen.Params{Model: "er", Nodes: 4000, MeanDegree: 6}.Network(gen.NewRand(1))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ax, err := TransformAxis("dropout=0:0.6:0.3")
+	if err != nil {
+		t.Fatal(err)
+	}
+	pl := &Plan{Base: g, BaseName: "plant.edges", Axes: []Axis{ax}, Replicates: 1, Seed: 3}
+	res, err := pl.Run(context.Background(), RunOptions{Output: "-", Stdout: &bytes.Buffer{}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Rows) != 3 {
+		t.Fatalf("got %d rows, want 3", len(res.Rows))
+	}
+	prev := -1.0
+	for _, r := range res.Rows {
+		if r.Model != "base" || !strings.HasPrefix(r.Params, "base=plant.edges;+dropout=") || r.PredictionFrom != "degrees" || r.Nodes != 4000 {
+			t.Errorf("row %+v", r)
+		}
+		// Fewer edges, more drivers (Liu et al. 2011, Fig. 3: n_D falls
+		// with <k>).
+		if r.DriverFraction <= prev {
+			t.Errorf("%s: n_D %.4f did not grow with dropout", r.Params, r.DriverFraction)
+		}
+		prev = r.DriverFraction
+		if math.Abs(r.DriverFraction-r.PredictedFraction) > 0.03 {
+			t.Errorf("%s: measured %.4f, expectation %.4f", r.Params, r.DriverFraction, r.PredictedFraction)
+		}
+	}
+	var _ = structural.Transform{}
+}
+
+func TestReadErrors(t *testing.T) {
+	dir := t.TempDir()
+	for name, body := range map[string]string{
+		"nohead.csv": "a,b\n1,2\n",
+		"badnum.csv": strings.Join(Columns, ",") + "\ner,x,2,1,5,10,3,0.3,0.3,0.1,nodes=10,model\n",
+	} {
+		p := filepath.Join(dir, name)
+		os.WriteFile(p, []byte(body), 0o644)
+		_, err := ReadFile(p)
+		if err == nil {
+			t.Errorf("%s: got no error", name)
+			continue
+		}
+		if !strings.HasPrefix(err.Error(), p+":") {
+			t.Errorf("%s: error %q lacks FILE:LINE", name, err)
+		}
+	}
+	_, err := ReadFile(filepath.Join(dir, "badnum.csv"))
+	if err == nil || !strings.Contains(err.Error(), ":2: nodes") {
+		t.Errorf("bad number: got %v, want line 2", err)
+	}
+}
+
+func TestPointsOrderAndSeeds(t *testing.T) {
+	pl := erPlan(t, 1)
+	pts := pl.Points()
+	if len(pts) != 8 || pts[0].Params != "nodes=3000;mean_degree=1" || pts[7].Params != "nodes=3000;mean_degree=4" || pts[7].Replicate != 2 {
+		t.Fatalf("points %+v", pts)
+	}
+	seen := map[uint64]bool{}
+	for _, p := range pts {
+		if seen[p.Seed] {
+			t.Errorf("seed %d repeats", p.Seed)
+		}
+		seen[p.Seed] = true
+		if p.Seed != RowSeed(1, p.Key()) {
+			t.Errorf("seed of %s does not follow from its key", p.Key())
+		}
+	}
+}
