@@ -26,6 +26,12 @@ type Builder struct {
 	src, dst []int32
 	w        []float64
 	weighted bool
+
+	// Canonical decimal names (see intern.go): dense[v] is the state named
+	// v plus one, 0 when absent; overflow lists those hashed instead.
+	dense     []int32
+	overflow  []overflowName
+	unindexed bool // some names are missing from the hash index
 }
 
 // NewBuilder returns a Builder whose states are named by Intern.
@@ -53,6 +59,9 @@ func (b *Builder) Grow(n int) {
 func (b *Builder) Intern(name []byte) (int32, error) {
 	if b.names.ints {
 		return -1, errors.New("structural: Intern on an integer-named builder")
+	}
+	if v, ok := canonicalDecimal(name); ok {
+		return b.InternInt(v)
 	}
 	if b.names.n >= MaxStates {
 		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
@@ -96,6 +105,11 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	if n == 0 {
 		return nil, errors.New("structural: empty network")
 	}
+	if b.unindexed {
+		b.names.reindex()
+		b.unindexed = false
+	}
+	b.dense, b.overflow = nil, nil
 	src, dst, w := b.src, b.dst, b.w
 	b.src, b.dst, b.w = nil, nil, nil
 	if opt.Undirected {

@@ -1,75 +1,8 @@
 package netread
 
-import (
-	"bufio"
-	"io"
-	"math"
-	"strconv"
-
-	"github.com/netsteer/netsteer/structural"
-)
-
 // maxLineBytes bounds an edge-list line: two quoted names at the limit,
 // doubled quotes and a weight.
 const maxLineBytes = 4*MaxNameBytes + 256
-
-// readEdgeList parses "source target [weight]" lines into b.
-func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
-	lr := &lineReader{r: r, file: file, max: maxLineBytes}
-	var tok tokenizer
-	for {
-		line, err := lr.next()
-		if err == io.EOF {
-			return nil
-		}
-		if err != nil {
-			return err
-		}
-		fields, msg := tok.split(line)
-		if msg != "" {
-			return errorf(file, lr.line, "%s", msg)
-		}
-		switch len(fields) {
-		case 0:
-			continue
-		case 1:
-			return errorf(file, lr.line, "want \"source target [weight]\", found one field %q", clip(fields[0]))
-		case 2, 3:
-		default:
-			return errorf(file, lr.line, "want \"source target [weight]\", found %d fields", len(fields))
-		}
-		for _, f := range fields[:2] {
-			if len(f) == 0 {
-				return errorf(file, lr.line, "empty node name")
-			}
-			if len(f) > MaxNameBytes {
-				return errorf(file, lr.line, "node name of %d bytes; the limit is %d", len(f), MaxNameBytes)
-			}
-		}
-		u, err := b.Intern(fields[0])
-		if err != nil {
-			return errorf(file, lr.line, "%v", err)
-		}
-		v, err := b.Intern(fields[1])
-		if err != nil {
-			return errorf(file, lr.line, "%v", err)
-		}
-		if len(fields) == 3 {
-			w, err := strconv.ParseFloat(string(fields[2]), 64)
-			if err != nil || math.IsNaN(w) || math.IsInf(w, 0) {
-				return errorf(file, lr.line, "weight %q is not a finite number", clip(fields[2]))
-			}
-			if w == 0 {
-				return errorf(file, lr.line, "weight 0 is no coupling; leave the edge out")
-			}
-			if weights {
-				b.AddWeightedEdge(u, v, w)
-				continue
-			}
-		}
-		b.AddEdge(u, v)
-	}
-}
 
 // clip shortens a field for an error message.
 func clip(b []byte) string {

@@ -1,0 +1,403 @@
+package netread
+
+import (
+	"bufio"
+	"bytes"
+	"errors"
+	"io"
+	"math"
+	"runtime"
+	"strconv"
+
+	"github.com/netsteer/netsteer/structural"
+)
+
+// Edge lists are read in blocks of whole lines. One goroutine reads blocks
+// (and so runs gzip decompression, when the input is compressed), parser
+// goroutines turn each block into tokens, and the calling goroutine interns
+// the tokens block by block in file order, so states are numbered by first
+// appearance exactly as a line-by-line reader would number them; the
+// parallel and sequential paths build identical networks. A line is parsed
+// without allocation: canonical decimal names become their values (see
+// structural.Builder.InternInt), other names are copied into the block's
+// arena, and any line that is not two or three plain fields goes through the
+// general tokenizer, which produces the error messages.
+
+// blockBytes is the size of a parse block; it must exceed maxLineBytes.
+var blockBytes = 1 << 20
+
+// parseWorkers is the number of parser goroutines for inputs of more than
+// one block; 0 means one per CPU, 1 parses in the reading goroutine's turn
+// (sequentially).
+var parseWorkers = 0
+
+// block is a run of whole lines and what its parse produced.
+type block struct {
+	data    []byte // whole lines, the last one possibly without '\n'
+	tooLong bool   // data starts a line longer than maxLineBytes
+	readErr error  // the read failed after data
+
+	lines int       // lines in data
+	toks  []int32   // two per edge: a name's value (>= 0) or ^index into names
+	ws    []float64 // one per edge when weights are kept; NaN for none
+	arena []byte    // names that are not canonical decimals
+	offs  []int32   // name i is arena[offs[2i]:offs[2i+1]]
+	err   *Error    // first problem, Line counted within the block
+	done  chan struct{}
+	buf   []byte // backing store of data
+	tok   tokenizer
+}
+
+// readEdgeList parses "source target [weight]" lines into b.
+func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
+	rd := &blockReader{r: r}
+	first := newBlock()
+	rd.fill(first)
+	if first.readErr != nil || rd.eof || parseWorkers == 1 {
+		// Small input, or sequential on request: parse in turn.
+		line := 0
+		blk := first
+		for {
+			parseBlock(blk, weights)
+			stop, err := mergeBlock(blk, file, b, weights, &line)
+			if stop || err != nil {
+				return err
+			}
+			if rd.eof {
+				return nil
+			}
+			rd.fill(blk)
+		}
+	}
+	workers := parseWorkers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	nblocks := 2*workers + 2
+	free := make(chan *block, nblocks)
+	work := make(chan *block, nblocks)
+	order := make(chan *block, nblocks)
+	quit := make(chan struct{})
+	for i := 1; i < nblocks; i++ {
+		free <- newBlock()
+	}
+	for i := 0; i < workers; i++ {
+		go func() {
+			for blk := range work {
+				parseBlock(blk, weights)
+				blk.done <- struct{}{}
+			}
+		}()
+	}
+	go func() {
+		defer close(work)
+		defer close(order)
+		blk := first
+		for {
+			order <- blk
+			work <- blk
+			if rd.eof || blk.readErr != nil || blk.tooLong {
+				return
+			}
+			select {
+			case blk = <-free:
+			case <-quit:
+				return
+			}
+			rd.fill(blk)
+		}
+	}()
+	line := 0
+	var err error
+	for blk := range order {
+		<-blk.done
+		if err == nil {
+			var stop bool
+			stop, err = mergeBlock(blk, file, b, weights, &line)
+			if stop && err == nil {
+				err = errStop
+			}
+			if err != nil {
+				close(quit)
+			}
+		}
+		free <- blk
+	}
+	if err == errStop {
+		err = nil
+	}
+	return err
+}
+
+var errStop = errors.New("stop")
+
+func newBlock() *block {
+	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1)}
+}
+
+// blockReader cuts its input into blocks of whole lines.
+type blockReader struct {
+	r     io.Reader
+	carry []byte // the start of a line cut by the previous block
+	eof   bool
+}
+
+// fill reads the next block into blk.
+func (rd *blockReader) fill(blk *block) {
+	blk.tooLong, blk.readErr = false, nil
+	buf := blk.buf
+	n := copy(buf, rd.carry)
+	rd.carry = rd.carry[:0]
+	for n < len(buf) {
+		k, err := rd.r.Read(buf[n:])
+		n += k
+		if err == io.EOF {
+			rd.eof = true
+			break
+		}
+		if err != nil {
+			blk.readErr = err
+			break
+		}
+	}
+	data := buf[:n]
+	switch {
+	case blk.readErr != nil:
+		// The line being read when the input failed is not parsed.
+		data = data[:bytes.LastIndexByte(data, '\n')+1]
+	case !rd.eof:
+		cut := bytes.LastIndexByte(data, '\n')
+		if cut < 0 {
+			// A full block without a line end: the line is too long.
+			blk.tooLong = true
+		} else {
+			rd.carry = append(rd.carry, data[cut+1:]...)
+			data = data[:cut+1]
+		}
+	}
+	blk.data = data
+}
+
+// parseBlock tokenizes blk.data.
+func parseBlock(blk *block, weights bool) {
+	blk.lines = 0
+	blk.toks = blk.toks[:0]
+	blk.ws = blk.ws[:0]
+	blk.arena = blk.arena[:0]
+	blk.offs = blk.offs[:0]
+	blk.err = nil
+	data := blk.data
+	for len(data) > 0 {
+		var line []byte
+		if i := bytes.IndexByte(data, '\n'); i >= 0 {
+			line, data = data[:i], data[i+1:]
+		} else {
+			line, data = data, nil
+		}
+		blk.lines++
+		if blk.tooLong && data == nil {
+			blk.err = errorf("", blk.lines, "line longer than %d bytes", maxLineBytes)
+			return
+		}
+		if n := len(line); n > 0 && line[n-1] == '\r' {
+			line = line[:n-1]
+		}
+		if len(line) > maxLineBytes {
+			blk.err = errorf("", blk.lines, "line longer than %d bytes", maxLineBytes)
+			return
+		}
+		if msg := blk.parseLine(line, weights); msg != "" {
+			blk.err = errorf("", blk.lines, "%s", msg)
+			return
+		}
+	}
+}
+
+// parseLine adds the edge on one line, if any, or returns a message.
+func (blk *block) parseLine(line []byte, weights bool) string {
+	// Fast path: two or three unquoted fields.
+	i, n := 0, len(line)
+	for i < n && isSpace(line[i]) {
+		i++
+	}
+	if i == n || line[i] == '#' || line[i] == '%' {
+		return ""
+	}
+	var f [3][]byte
+	nf := 0
+	for {
+		start := i
+		for i < n {
+			c := line[i]
+			if isSpace(c) || c == ',' || c == '"' {
+				break
+			}
+			i++
+		}
+		if i == start || i < n && line[i] == '"' || nf == 3 {
+			return blk.slowLine(line, weights)
+		}
+		f[nf] = line[start:i]
+		nf++
+		for i < n && isSpace(line[i]) {
+			i++
+		}
+		if i == n {
+			break
+		}
+		if line[i] == ',' {
+			i++
+			for i < n && isSpace(line[i]) {
+				i++
+			}
+			if i == n {
+				return blk.slowLine(line, weights)
+			}
+		}
+	}
+	if nf < 2 {
+		return blk.slowLine(line, weights)
+	}
+	return blk.addFields(f[:nf], weights)
+}
+
+// slowLine handles any line through the general tokenizer.
+func (blk *block) slowLine(line []byte, weights bool) string {
+	fields, msg := blk.tok.split(line)
+	if msg != "" {
+		return msg
+	}
+	switch len(fields) {
+	case 0:
+		return ""
+	case 1:
+		return "want \"source target [weight]\", found one field " + strconv.Quote(clip(fields[0]))
+	case 2, 3:
+	default:
+		return "want \"source target [weight]\", found " + strconv.Itoa(len(fields)) + " fields"
+	}
+	return blk.addFields(fields, weights)
+}
+
+// addFields checks the fields of an edge line and records the edge.
+func (blk *block) addFields(fields [][]byte, weights bool) string {
+	for _, f := range fields[:2] {
+		if len(f) == 0 {
+			return "empty node name"
+		}
+		if len(f) > MaxNameBytes {
+			return "node name of " + strconv.Itoa(len(f)) + " bytes; the limit is " + strconv.Itoa(MaxNameBytes)
+		}
+	}
+	w := math.NaN()
+	if len(fields) == 3 {
+		x, err := strconv.ParseFloat(string(fields[2]), 64)
+		if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+			return "weight " + strconv.Quote(clip(fields[2])) + " is not a finite number"
+		}
+		if x == 0 {
+			return "weight 0 is no coupling; leave the edge out"
+		}
+		w = x
+	}
+	for _, f := range fields[:2] {
+		if v, ok := decimalValue(f); ok {
+			blk.toks = append(blk.toks, int32(v))
+			continue
+		}
+		blk.toks = append(blk.toks, ^int32(len(blk.offs)/2))
+		blk.offs = append(blk.offs, int32(len(blk.arena)))
+		blk.arena = append(blk.arena, f...)
+		blk.offs = append(blk.offs, int32(len(blk.arena)))
+	}
+	if weights {
+		blk.ws = append(blk.ws, w)
+	}
+	return ""
+}
+
+// decimalValue returns the value of a canonical decimal name ("0", "17",
+// not "017") below 2^31-1; structural.Builder.Intern gives such a name the
+// same state as InternInt of its value.
+func decimalValue(f []byte) (uint32, bool) {
+	n := len(f)
+	if n == 0 || n > 10 || f[0] == '0' && n > 1 {
+		return 0, false
+	}
+	var v uint64
+	for _, c := range f {
+		d := c - '0'
+		if d > 9 {
+			return 0, false
+		}
+		v = v*10 + uint64(d)
+	}
+	return uint32(v), v < math.MaxInt32
+}
+
+// mergeBlock interns blk's tokens into b in order and reports whether
+// reading stops here (the end of the input, or an error). line counts the
+// lines before blk and is advanced past it.
+func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, line *int) (bool, error) {
+	toks := blk.toks
+	for e := 0; e+1 < len(toks); e += 2 {
+		u, err := blk.intern(b, toks[e])
+		if err != nil {
+			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)
+		}
+		v, err := blk.intern(b, toks[e+1])
+		if err != nil {
+			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)
+		}
+		if weights {
+			if w := blk.ws[e/2]; !math.IsNaN(w) {
+				b.AddWeightedEdge(u, v, w)
+				continue
+			}
+		}
+		b.AddEdge(u, v)
+	}
+	if blk.err != nil {
+		blk.err.File = file
+		blk.err.Line += *line
+		return true, blk.err
+	}
+	*line += blk.lines
+	if blk.readErr != nil {
+		var e *Error
+		if errors.As(blk.readErr, &e) {
+			e.Line = *line + 1
+			return true, e
+		}
+		return true, errorf(file, *line+1, "%v", blk.readErr)
+	}
+	return false, nil
+}
+
+func (blk *block) intern(b *structural.Builder, t int32) (int32, error) {
+	if t >= 0 {
+		return b.InternInt(uint32(t))
+	}
+	k := 2 * int(^t)
+	return b.Intern(blk.arena[blk.offs[k]:blk.offs[k+1]])
+}
+
+// lineOfEdge returns the line, counted within blk, that holds edge k.
+func (blk *block) lineOfEdge(k int, weights bool) int {
+	scratch := &block{}
+	data, line := blk.data, 0
+	for len(data) > 0 {
+		var l []byte
+		if i := bytes.IndexByte(data, '\n'); i >= 0 {
+			l, data = data[:i], data[i+1:]
+		} else {
+			l, data = data, nil
+		}
+		line++
+		scratch.parseLine(bytes.TrimSuffix(l, []byte{'\r'}), weights)
+		if len(scratch.toks)/2 > k {
+			break
+		}
+	}
+	return line
+}

@@ -1,0 +1,141 @@
+package structural
+
+import (
+	"errors"
+	"fmt"
+	"hash/maphash"
+	"math"
+	"strconv"
+)
+
+// Integer names. Most large networks name their states by decimal
+// integers. A Builder maps such a name, when written canonically (digits
+// only, no leading zero: "7" but not "007" or "+7", which stay distinct
+// names), through a dense table indexed by its value instead of hashing the
+// bytes; the name still goes into the arena verbatim. The dense table covers
+// values below a bound that grows with the number of states, so sparse
+// large identifiers cannot make it huge; canonical names beyond it are
+// hashed like any other name and move into the table when it grows past
+// them. The hash index of the name table is completed in one pass by Build.
+
+// canonicalDecimal reports the value of a canonical decimal name below
+// 2^31-1.
+func canonicalDecimal(name []byte) (uint32, bool) {
+	n := len(name)
+	if n == 0 || n > 10 || (name[0] == '0' && n > 1) {
+		return 0, false
+	}
+	var v uint64
+	for _, c := range name {
+		d := c - '0'
+		if d > 9 {
+			return 0, false
+		}
+		v = v*10 + uint64(d)
+	}
+	if v >= math.MaxInt32 {
+		return 0, false
+	}
+	return uint32(v), true
+}
+
+// InternInt returns the index of the state named by the canonical decimal
+// form of v ("0", "7", "1200"), adding it when new. It is equivalent to
+// Intern(strconv.AppendUint(nil, uint64(v), 10)) and much faster for
+// integer-named inputs. v must be below 2^31-1.
+func (b *Builder) InternInt(v uint32) (int32, error) {
+	if int(v) < len(b.dense) {
+		if s := b.dense[v]; s != 0 {
+			return s - 1, nil
+		}
+	}
+	if b.names.ints {
+		return -1, errors.New("structural: Intern on an integer-named builder")
+	}
+	if b.names.n >= MaxStates {
+		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
+	}
+	if int(v) >= len(b.dense) {
+		if !b.growDense(v) {
+			return b.internOverflow(v)
+		}
+		if s := b.dense[v]; s != 0 {
+			return s - 1, nil // it was hashed before and has just moved in
+		}
+	}
+	t := b.names
+	id := int32(t.n)
+	t.n++
+	t.arena = strconv.AppendUint(t.arena, uint64(v), 10)
+	t.off = append(t.off, int64(len(t.arena)))
+	b.unindexed = true
+	b.dense[v] = id + 1
+	return id, nil
+}
+
+// growDense extends the dense table to cover v when v is within the bound
+// (four slots per state plus 2^16), and reports whether it does.
+func (b *Builder) growDense(v uint32) bool {
+	limit := 4*int64(b.names.n) + 1<<16
+	if int64(v) >= limit {
+		return false
+	}
+	n := max(2*len(b.dense), int(v)+1, 1<<12)
+	n = int(min(int64(n), limit))
+	d := make([]int32, n)
+	copy(d, b.dense)
+	b.dense = d
+	// Canonical names hashed while they were out of range move in.
+	k := 0
+	for _, o := range b.overflow {
+		if int(o.v) < n {
+			d[o.v] = o.id + 1
+		} else {
+			b.overflow[k] = o
+			k++
+		}
+	}
+	b.overflow = b.overflow[:k]
+	return true
+}
+
+// internOverflow interns a canonical decimal name beyond the dense table
+// through the hash index, remembering it for when the table grows.
+func (b *Builder) internOverflow(v uint32) (int32, error) {
+	var buf [10]byte
+	name := strconv.AppendUint(buf[:0], uint64(v), 10)
+	n := b.names.n
+	id := b.names.Intern(name)
+	if b.names.n > n {
+		b.overflow = append(b.overflow, overflowName{v, id})
+	}
+	return id, nil
+}
+
+// overflowName is a canonical decimal name interned through the hash index.
+type overflowName struct {
+	v  uint32
+	id int32
+}
+
+// reindex rebuilds the hash index of an arena table over all its names,
+// with at most half of the slots in use.
+func (t *Names) reindex() {
+	size := 1024
+	for size < 2*t.n+2 {
+		size *= 2
+	}
+	if len(t.table) == size {
+		clear(t.table)
+	} else {
+		t.table = make([]int32, size)
+	}
+	mask := uint64(size - 1)
+	for i := 0; i < t.n; i++ {
+		h := maphash.Bytes(t.seed, t.arena[t.off[i]:t.off[i+1]]) & mask
+		for t.table[h] != 0 {
+			h = (h + 1) & mask
+		}
+		t.table[h] = int32(i) + 1
+	}
+}
