@@ -227,6 +227,7 @@ func New(rows []sweepcsv.Row, title string) (*gplot.Plot, error) {
 			}
 			l.Color = col
 			l.Width = vg.Points(1.2)
+			l.Dashes = []vg.Length{vg.Points(5), vg.Points(3)}
 			p.Add(l)
 			p.Legend.Add("cavity prediction"+suffix, l)
 		}

@@ -100,6 +100,9 @@ type RunOptions struct {
 	// Checkpoint is the least time between rewrites of Output; 0 means
 	// one second.
 	Checkpoint time.Duration
+	// NoTiming writes 0 seconds in every new row, so that reruns give
+	// byte-identical files.
+	NoTiming bool
 }
 
 // Result reports a run.
@@ -230,6 +233,9 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 					return nil, err
 				}
 				return nil, fmt.Errorf("row %s: %v", r.key, r.err)
+			}
+			if opt.NoTiming {
+				r.row.Seconds = 0
 			}
 			rows = append(rows, r.row)
 			res.Computed++
