@@ -1,0 +1,76 @@
+package numeric
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/netsteer/netsteer/structural"
+)
+
+// erNetwork returns a directed Erdős–Rényi network G(n, L) with L = k·n/2
+// edges and a minimum driver design for it (structurally controllable).
+func erNetwork(n int, k float64, seed uint64) (*structural.Network, [][]int32) {
+	rng := rand.New(rand.NewPCG(seed, 1))
+	b := structural.NewIntBuilder(n, 0)
+	l := int(k * float64(n) / 2)
+	for i := 0; i < l; i++ {
+		b.AddEdge(int32(rng.IntN(n)), int32(rng.IntN(n)))
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		panic(err)
+	}
+	return g, structural.MinimumDrivers(g).Inputs
+}
+
+// BenchmarkDimension measures one exact trial on a controllable design
+// (the worst case: r = n). Run: go test -run XXX -bench Dimension
+// ./structural/numeric. The goal is 2,000 states within 60 s for a whole
+// verify run.
+func BenchmarkDimension(b *testing.B) {
+	for _, n := range []int{250, 500, 1000, 2000} {
+		g, in := erNetwork(n, 6, 42)
+		p := &Pattern{Out: &g.Out, Signals: in}
+		f := NewField(Mersenne61)
+		x := DrawExact(p, f, rand.New(rand.NewPCG(1, 2)))
+		b.Run("n="+itoa(n), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if d := Dimension(p, x, false, nil); d != n {
+					b.Fatalf("dimension %d, want %d", d, n)
+				}
+			}
+		})
+	}
+}
+
+func itoa(n int) string {
+	if n == 0 {
+		return "0"
+	}
+	var buf [20]byte
+	i := len(buf)
+	for n > 0 {
+		i--
+		buf[i] = byte('0' + n%10)
+		n /= 10
+	}
+	return string(buf[i:])
+}
+
+// BenchmarkFloat measures the floating-point check (Schur form, margin over
+// every eigenvalue, Gramian) on the same designs.
+func BenchmarkFloat(b *testing.B) {
+	for _, n := range []int{250, 500, 1000} {
+		g, in := erNetwork(n, 6, 42)
+		p := &Pattern{Out: &g.Out, Signals: in}
+		x := DrawReal(p, rand.New(rand.NewPCG(1, 2)))
+		a, bb := x.Dense(p, false)
+		b.Run("n="+itoa(n)+"/m="+itoa(len(in)), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := Float(a, bb, n, len(in), nil); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

@@ -1,0 +1,70 @@
+package numeric
+
+import (
+	"slices"
+	"testing"
+)
+
+// Subnetworks of a small fictional water-treatment train with a recycle
+// loop (intake -> screen -> clarifier -> filter -> tank -> clarifier, and
+// dosing -> clarifier); expected sets worked out by hand.
+func TestSubnetworks(t *testing.T) {
+	g := weighted(t, []wedge{
+		{"intake", "screen", 1}, {"screen", "clarifier", 2}, {"clarifier", "filter", 3},
+		{"filter", "tank", 4}, {"tank", "clarifier", 5}, {"dosing", "clarifier", 6},
+	})
+	name := func(ids []int32) []string {
+		var s []string
+		for _, v := range ids {
+			s = append(s, g.Name(v))
+		}
+		slices.Sort(s)
+		return s
+	}
+	// Within one step of the clarifier, either direction.
+	got := name(Around(g, lookup(t, g, "clarifier"), 1))
+	want := []string{"clarifier", "dosing", "filter", "screen", "tank"}
+	if !slices.Equal(got, want) {
+		t.Errorf("Around: %v, want %v", got, want)
+	}
+	// The three states nearest downstream of the intake.
+	got = name(Nearest(g, lookup(t, g, "intake"), nil, 3))
+	want = []string{"clarifier", "intake", "screen"}
+	if !slices.Equal(got, want) {
+		t.Errorf("Nearest down: %v, want %v", got, want)
+	}
+	// Upstream of the tank: filter, then clarifier.
+	got = name(Nearest(g, nil, lookup(t, g, "tank"), 3))
+	want = []string{"clarifier", "filter", "tank"}
+	if !slices.Equal(got, want) {
+		t.Errorf("Nearest up: %v, want %v", got, want)
+	}
+	// The induced subnetwork keeps names, edges among kept states and
+	// their weights.
+	keep := Around(g, lookup(t, g, "clarifier"), 1)
+	sub, newOf, err := Induced(g, keep)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if sub.N() != 5 || sub.Edges() != 5 {
+		t.Fatalf("subnetwork has %d states and %d edges, want 5 and 5", sub.N(), sub.Edges())
+	}
+	tank, _ := sub.Lookup("tank")
+	cl, _ := sub.Lookup("clarifier")
+	found := false
+	for k := sub.Out.Ptr[tank]; k < sub.Out.Ptr[tank+1]; k++ {
+		if sub.Out.Adj[k] == cl {
+			found = sub.OutW[k] == 5
+		}
+	}
+	if !found {
+		t.Errorf("edge tank -> clarifier with weight 5 missing from the subnetwork")
+	}
+	// Signals lose the states left out; an empty signal is dropped.
+	sig := [][]int32{lookup(t, g, "intake"), lookup(t, g, "dosing", "intake")}
+	w := [][]float64{{1}, {2, 3}}
+	rs, rw, dropped := Restrict(sig, w, newOf)
+	if dropped != 1 || len(rs) != 1 || len(rs[0]) != 1 || sub.Name(rs[0][0]) != "dosing" || rw[0][0] != 2 {
+		t.Errorf("Restrict: %v %v dropped %d", rs, rw, dropped)
+	}
+}
