@@ -74,14 +74,17 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 }
 
 // growDense extends the dense table to cover v when v is within the bound
-// (four slots per state plus 2^16), and reports whether it does.
+// (eight slots per state plus 2^20) and the table can at least double, so
+// copies stay linear, and reports whether it does.
 func (b *Builder) growDense(v uint32) bool {
-	limit := 4*int64(b.names.n) + 1<<16
-	if int64(v) >= limit {
-		return false
-	}
+	limit := 8*int64(b.names.n) + 1<<20
 	n := max(2*len(b.dense), int(v)+1, 1<<12)
-	n = int(min(int64(n), limit))
+	if int64(n) > limit {
+		if int64(v) >= limit || len(b.dense) > int(limit/2) {
+			return false // grow by doubling only, to keep copies linear
+		}
+		n = int(limit)
+	}
 	d := make([]int32, n)
 	copy(d, b.dense)
 	b.dense = d
