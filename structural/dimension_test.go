@@ -1,0 +1,303 @@
+package structural_test
+
+import (
+	"fmt"
+	"math/rand/v2"
+	"testing"
+
+	"github.com/netsteer/netsteer/structural"
+)
+
+// hungarian returns the minimum cost of a perfect assignment of the square
+// cost matrix c (the O(n^3) shortest-augmenting-path form of the Hungarian
+// method, Kuhn 1955 / Munkres 1957, with row and column potentials).
+func hungarian(c [][]int) int {
+	n := len(c)
+	const inf = 1 << 60
+	u := make([]int, n+1)
+	v := make([]int, n+1)
+	p := make([]int, n+1) // p[j]: row assigned to column j (1-based), 0 = none
+	way := make([]int, n+1)
+	for i := 1; i <= n; i++ {
+		p[0] = i
+		j0 := 0
+		minv := make([]int, n+1)
+		used := make([]bool, n+1)
+		for j := range minv {
+			minv[j] = inf
+		}
+		for {
+			used[j0] = true
+			i0, delta, j1 := p[j0], inf, 0
+			for j := 1; j <= n; j++ {
+				if used[j] {
+					continue
+				}
+				cur := c[i0-1][j-1] - u[i0] - v[j]
+				if cur < minv[j] {
+					minv[j], way[j] = cur, j0
+				}
+				if minv[j] < delta {
+					delta, j1 = minv[j], j
+				}
+			}
+			for j := 0; j <= n; j++ {
+				if used[j] {
+					u[p[j]] += delta
+					v[j] -= delta
+				} else {
+					minv[j] -= delta
+				}
+			}
+			j0 = j1
+			if p[j0] == 0 {
+				break
+			}
+		}
+		for j0 != 0 {
+			j1 := way[j0]
+			p[j0] = p[j1]
+			j0 = j1
+		}
+	}
+	total := 0
+	for j := 1; j <= n; j++ {
+		total += c[p[j]-1][j-1]
+	}
+	return total
+}
+
+// dimensionByAssignment computes the largest stem-cycle cover of the
+// reached part as a dense minimum-cost assignment, an independent route to
+// ControllableDimension. Rows are the out-copies of the reached states and
+// the inputs; columns the in-copies and one slot per input. An out-copy
+// takes an in-copy along an edge (cost 0) or its own in-copy (cost 1: the
+// state is uncovered), or any slot (a stem ends there); an input takes an
+// in-copy it drives or its own slot (unused). Slots left to out-copies are
+// exactly the used inputs, so perfect assignments are the families of
+// cycles and stems from distinct inputs, and the cost counts uncovered
+// states.
+func dimensionByAssignment(g *structural.Network, inputs [][]int32, unreached []int32) int {
+	const inf = 1 << 40
+	n := g.N()
+	idx := make([]int, n)
+	for i := range idx {
+		idx[i] = -2
+	}
+	for _, v := range unreached {
+		idx[v] = -1
+	}
+	var states []int32
+	for v := 0; v < n; v++ {
+		if idx[v] == -2 {
+			idx[v] = len(states)
+			states = append(states, int32(v))
+		}
+	}
+	r, m := len(states), len(inputs)
+	size := r + m
+	if r == 0 {
+		return 0
+	}
+	c := make([][]int, size)
+	for i := range c {
+		c[i] = make([]int, size)
+		for j := range c[i] {
+			c[i][j] = inf
+		}
+	}
+	for a, v := range states {
+		c[a][a] = 1
+		for _, w := range g.Out.Row(v) {
+			c[a][idx[w]] = 0
+		}
+		for k := 0; k < m; k++ {
+			c[a][r+k] = 0
+		}
+	}
+	for k, in := range inputs {
+		c[r+k][r+k] = 0
+		for _, w := range in {
+			c[r+k][idx[w]] = 0
+		}
+	}
+	return r - hungarian(c)
+}
+
+// randomForest gives every state but a few roots one random parent among
+// the states before it, then adds extra random edges: shapes where stems
+// compete for branches, so the cover is often smaller than the term rank.
+func randomForest(t testing.TB, rng *rand.Rand, n, extra int) *structural.Network {
+	var es []edge
+	for v := 1; v < n; v++ {
+		if rng.IntN(8) > 0 {
+			es = append(es, edge{int32(rng.IntN(v)), int32(v)})
+		}
+	}
+	for k := 0; k < extra; k++ {
+		es = append(es, edge{int32(rng.IntN(n)), int32(rng.IntN(n))})
+	}
+	return network(t, n, es)
+}
+
+// TestDimensionAssignment compares the phased cover flow with the dense
+// Hungarian assignment on random networks of 10-90 states: forests with a
+// few extra edges and sparse random digraphs, with random designs and with
+// parts of minimum driver sets.
+func TestDimensionAssignment(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1955, 1957))
+	trials := 300
+	if testing.Short() {
+		trials = 60
+	}
+	below := 0
+	for trial := 0; trial < trials; trial++ {
+		n := 10 + rng.IntN(80)
+		var g *structural.Network
+		if trial%2 == 0 {
+			g = randomForest(t, rng, n, rng.IntN(n/3+1))
+		} else {
+			g = randomNetwork(t, rng, n, (0.5+2*rng.Float64())/float64(n))
+		}
+		var inputs [][]int32
+		if trial%3 == 0 {
+			// Every other signal of a minimum design.
+			for i, in := range structural.MinimumDrivers(g).Inputs {
+				if i%2 == 0 {
+					inputs = append(inputs, in)
+				}
+			}
+		} else {
+			inputs = randomDesign(rng, n, 1+n/10)
+		}
+		v := structural.Check(g, inputs)
+		want := dimensionByAssignment(g, inputs, v.Unreached)
+		if v.ControllableDimension != want {
+			t.Fatalf("trial %d (%d states, %d inputs): dimension %d, assignment %d", trial, n, len(inputs), v.ControllableDimension, want)
+		}
+		if want < termRankReached(g, inputs, v.Unreached) {
+			below++
+		}
+	}
+	t.Logf("%d trials, %d with the dimension below the reached term rank", trials, below)
+	if below < trials/10 {
+		t.Errorf("only %d of %d trials separate the dimension from the term rank", below, trials)
+	}
+}
+
+// copiesOfExample returns k disjoint copies of the term-rank
+// example, each with its own input: dimension 3k of 5k states.
+func copiesOfExample(k int) (*structural.Network, [][]int32) {
+	b := structural.NewIntBuilder(5*k, 0)
+	inputs := make([][]int32, k)
+	for c := 0; c < k; c++ {
+		o := int32(5 * c)
+		b.AddEdge(o, o+1)
+		b.AddEdge(o, o+2)
+		b.AddEdge(o+1, o+3)
+		b.AddEdge(o+2, o+4)
+		inputs[c] = []int32{o}
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		panic(err)
+	}
+	return g, inputs
+}
+
+// TestDimensionLarge runs shapes with known dimensions at 10^5 states
+// (common practice: worked by hand from Hosoe's cover).
+func TestDimensionLarge(t *testing.T) {
+	const k = 20000
+	g, inputs := copiesOfExample(k)
+	if got := structural.ControllableDimension(g, inputs); got != 3*k {
+		t.Errorf("%d copies of the example: got %d, want %d", k, got, 3*k)
+	}
+	// An out-star: one stem of two states whatever the number of leaves.
+	const leaves = 100000
+	b := structural.NewIntBuilder(leaves+1, 0)
+	for l := 1; l <= leaves; l++ {
+		b.AddEdge(0, int32(l))
+	}
+	star, _ := b.Build(structural.BuildOptions{})
+	if got := structural.ControllableDimension(star, [][]int32{{0}}); got != 2 {
+		t.Errorf("out-star: got %d, want 2", got)
+	}
+	// A chain driven at its middle reaches its second half only, and its
+	// head, with no in-neighbour at all, is a dilation of one state.
+	const n = 100000
+	b = structural.NewIntBuilder(n, 0)
+	for v := 0; v+1 < n; v++ {
+		b.AddEdge(int32(v), int32(v+1))
+	}
+	chain, _ := b.Build(structural.BuildOptions{})
+	v := structural.Check(chain, [][]int32{{n / 2}})
+	if v.ControllableDimension != n/2 || len(v.Unreached) != n/2 || v.Dilation == nil || len(v.Dilation.States) != 1 || v.Dilation.States[0] != 0 {
+		t.Errorf("chain: dimension %d, %d unreached, dilation %+v; want %d, %d, [0]", v.ControllableDimension, len(v.Unreached), v.Dilation, n/2, n/2)
+	}
+}
+
+// erNetwork returns a directed Erdos-Renyi G(N, L) network without
+// self-loops or repeated edges, from a fixed seed.
+func erNetwork(tb testing.TB, n, l int, seed uint64) *structural.Network {
+	rng := rand.New(rand.NewPCG(seed, uint64(n)))
+	seen := make(map[uint64]struct{}, l)
+	b := structural.NewIntBuilder(n, 0)
+	b.Grow(l)
+	for len(seen) < l {
+		u, v := rng.IntN(n), rng.IntN(n)
+		if u == v {
+			continue
+		}
+		key := uint64(u)<<32 | uint64(v)
+		if _, dup := seen[key]; dup {
+			continue
+		}
+		seen[key] = struct{}{}
+		b.AddEdge(int32(u), int32(v))
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return g
+}
+
+// BenchmarkCheck judges failing designs (every other signal of a minimum
+// design, so the cover flow runs) and complete ones (the fast path) on
+// directed ER networks with <k> = 4.
+func BenchmarkCheck(b *testing.B) {
+	for _, n := range []int{10000, 100000, 1000000} {
+		g := erNetwork(b, n, 2*n, 42)
+		full := structural.MinimumDrivers(g).Inputs
+		var half [][]int32
+		for i, in := range full {
+			if i%2 == 0 {
+				half = append(half, in)
+			}
+		}
+		b.Run(fmt.Sprintf("failing/N=%d", n), func(b *testing.B) {
+			for b.Loop() {
+				structural.Check(g, half)
+			}
+		})
+		b.Run(fmt.Sprintf("complete/N=%d", n), func(b *testing.B) {
+			for b.Loop() {
+				structural.Check(g, full)
+			}
+		})
+	}
+}
+
+// BenchmarkControllableDimension: copies of the term-rank example, where
+// every copy needs the cost-1 phase.
+func BenchmarkControllableDimension(b *testing.B) {
+	for _, k := range []int{10000, 100000, 200000} {
+		g, inputs := copiesOfExample(k)
+		b.Run(fmt.Sprintf("N=%d", 5*k), func(b *testing.B) {
+			for b.Loop() {
+				structural.ControllableDimension(g, inputs)
+			}
+		})
+	}
+}
