@@ -7,6 +7,31 @@
 // edge u -> v. Gzip-compressed input is recognised by its magic bytes,
 // whatever the file is called.
 //
+// Matrix Market. Coordinate files with pattern, real or integer values and
+// general, symmetric or skew-symmetric symmetry are read; symmetric files
+// are expanded (an off-diagonal (i, j) also gives (j, i)), skew-symmetric
+// ones too with the value negated, and a diagonal entry in a skew-symmetric
+// file is an error. The matrix must be square. A stored entry is an edge
+// whatever its value: an explicit zero counts as a pattern entry (with
+// Options.Weights its weight is 0). Complex, hermitian and dense array
+// files are refused. The size line must announce exactly the entries that
+// follow, and at most 16 states per entry plus 2^20.
+//
+// DOT. The file holds one graph, parsed with gonum's DOT parser. Edge
+// statements may chain (a -> b -> c) and take subgraphs as operands
+// ({a b} -> c stands for a -> c and b -> c); node statements declare
+// states, isolated ones included. An undirected graph's "a -- b" is the two
+// couplings a -> b and b -> a. The weight attribute, on an edge statement
+// or as an "edge [weight=...]" default for the rest of its (sub)graph, must
+// be a finite nonzero number. A name is the ID's text: a quoted ID loses
+// its quotes and \" becomes ", other IDs (HTML ones <...> included) are
+// kept as written; names may not hold line breaks. Ports are ignored.
+// Syntax errors carry the line gonum's parser reports; errors found later
+// carry the line of the ID or edge operator at fault. Inputs over
+// MaxDOTBytes, braces nested over 1000 deep, edge chains over 100000 steps
+// and subgraph operands that expand to far more edges than the file has
+// bytes are refused.
+//
 // Every error is an *Error that prints as "FILE:LINE: message". Limits are
 // checked before memory is reserved: a header's claims never size an
 // allocation on their own, and a name longer than MaxNameBytes is an error.

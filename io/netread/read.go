@@ -160,9 +160,17 @@ type gzipReader struct {
 func (g *gzipReader) Read(p []byte) (int, error) {
 	n, err := g.r.Read(p)
 	if err != nil && err != io.EOF {
-		err = &Error{File: g.file, Msg: "gzip: " + err.Error()}
+		err = &Error{File: g.file, Msg: gzipMsg(err)}
 	}
 	return n, err
+}
+
+// gzipMsg describes a decompression error; a stream cut short says so.
+func gzipMsg(err error) string {
+	if err == io.ErrUnexpectedEOF {
+		return "gzip: the compressed stream ends early (truncated file?)"
+	}
+	return "gzip: " + err.Error()
 }
 
 func maybeGunzip(r io.Reader, file string) (*bufio.Reader, error) {
@@ -171,7 +179,7 @@ func maybeGunzip(r io.Reader, file string) (*bufio.Reader, error) {
 	if len(magic) == 2 && magic[0] == 0x1f && magic[1] == 0x8b {
 		zr, err := gzip.NewReader(br)
 		if err != nil {
-			return nil, &Error{File: file, Msg: "gzip: " + err.Error()}
+			return nil, &Error{File: file, Msg: gzipMsg(err)}
 		}
 		return bufio.NewReaderSize(&gzipReader{r: zr, file: file}, 1<<20), nil
 	}

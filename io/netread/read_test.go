@@ -1,0 +1,184 @@
+package netread
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// canalEdges is the network of testdata/canal.*, written out by hand.
+var canalEdges = []string{
+	"reservoir_level>intake_gate", "intake_gate>main_canal_flow",
+	"main_canal_flow>branch_a_level", "main_canal_flow>branch_b_level",
+	"main_canal_flow>reservoir_level", "reservoir_level>reservoir_level",
+	"branch_a_level>field_a_moisture", "branch_b_level>field_b_moisture",
+	"pump_a_speed>branch_a_level", "weather_evaporation>field_a_moisture",
+	"weather_evaporation>field_b_moisture",
+}
+
+// canalIndex numbers the canal's states as testdata/canal.mtx does.
+var canalIndex = map[string]string{
+	"reservoir_level": "1", "intake_gate": "2", "main_canal_flow": "3",
+	"branch_a_level": "4", "branch_b_level": "5", "field_a_moisture": "6",
+	"field_b_moisture": "7", "pump_a_speed": "8", "weather_evaporation": "9",
+}
+
+// Every file of testdata/canal.* reads to the same network, whatever its
+// format and compression, with the format taken from the name and gzip
+// from the magic bytes (canal-packed.txt is gzip under a plain name).
+func TestReadFileFormats(t *testing.T) {
+	byIndex := make([]string, len(canalEdges))
+	for i, e := range canalEdges {
+		u, v, _ := strings.Cut(e, ">")
+		byIndex[i] = canalIndex[u] + ">" + canalIndex[v]
+	}
+	for _, c := range []struct {
+		file  string
+		edges []string
+	}{
+		{"canal.edges", canalEdges},
+		{"canal.edges.gz", canalEdges},
+		{"canal-packed.txt", canalEdges},
+		{"canal.dot", canalEdges},
+		{"canal.mtx", byIndex},
+	} {
+		g, err := ReadFile(filepath.Join("testdata", c.file), Options{})
+		if err != nil {
+			t.Errorf("%s: %v", c.file, err)
+			continue
+		}
+		if err := checkNetwork(g); err != nil {
+			t.Errorf("%s: %v", c.file, err)
+		}
+		if d := diffEdges(edgeMap(g), wantEdges(c.edges...)); d != "" {
+			t.Errorf("%s: edges differ:%s", c.file, d)
+		}
+		if g.N() != 9 || g.SelfLoops != 1 || g.DuplicatesMerged != 0 {
+			t.Errorf("%s: got N %d, self-loops %d, merged %d; want 9, 1, 0", c.file, g.N(), g.SelfLoops, g.DuplicatesMerged)
+		}
+	}
+}
+
+func TestFormatOf(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		want Format
+	}{
+		{"a.mtx", MatrixMarket}, {"A.MTX.GZ", MatrixMarket}, {"x/y.dot", DOT}, {"y.gv.gz", DOT},
+		{"n.edges", EdgeList}, {"n.tsv", EdgeList}, {"n.csv", EdgeList}, {"n.txt.gz", EdgeList},
+		{"n", EdgeList}, {"-", EdgeList}, {"n.gz", EdgeList},
+	} {
+		if got := FormatOf(c.name); got != c.want {
+			t.Errorf("FormatOf(%q) = %q, want %q", c.name, got, c.want)
+		}
+	}
+	for _, s := range []string{"edges", "mtx", "dot", "csv", "gv", "mm"} {
+		if _, err := ParseFormat(s); err != nil {
+			t.Errorf("ParseFormat(%q): %v", s, err)
+		}
+	}
+	if _, err := ParseFormat("xml"); err == nil {
+		t.Errorf("ParseFormat(\"xml\") gave no error")
+	}
+}
+
+// Gzip is recognised by its magic bytes for every format, whatever the
+// name; a truncated or corrupt stream is a one-line error.
+func TestGzip(t *testing.T) {
+	inputs := map[Format]string{
+		EdgeList:     "a b\nb c\n",
+		MatrixMarket: "%%MatrixMarket matrix coordinate pattern general\n3 3 2\n2 1\n3 2\n",
+		DOT:          "digraph { a -> b -> c }\n",
+	}
+	for f, in := range inputs {
+		packed := gzipBytes([]byte(in))
+		g, err := Read(bytes.NewReader(packed), "plain-name", Options{Format: f})
+		if err != nil {
+			t.Errorf("%s: %v", f, err)
+			continue
+		}
+		if g.N() != 3 || g.Edges() != 2 {
+			t.Errorf("%s: got %d states, %d edges; want 3, 2", f, g.N(), g.Edges())
+		}
+		for _, cut := range []int{len(packed) - 4, len(packed) / 2, 10, 2} {
+			_, err := Read(bytes.NewReader(packed[:cut]), "cut.gz", Options{Format: f})
+			if err == nil {
+				t.Errorf("%s cut at %d of %d bytes: no error", f, cut, len(packed))
+				continue
+			}
+			e := asError(t, err)
+			if !strings.Contains(e.Msg, "gzip") || e.File != "cut.gz" {
+				t.Errorf("%s cut at %d: got %q, want a gzip error on cut.gz", f, cut, e.Error())
+			}
+		}
+	}
+	// A longer edge list cut short fails at a line, never silently.
+	var b strings.Builder
+	for i := 0; i < 20000; i++ {
+		b.WriteString("n" + strconv.Itoa(i) + " n" + strconv.Itoa(i+1) + "\n")
+	}
+	packed := gzipBytes([]byte(b.String()))
+	_, err := Read(bytes.NewReader(packed[:len(packed)*2/3]), "long.gz", Options{})
+	if err == nil {
+		t.Fatalf("truncated long stream: no error")
+	}
+	if e := asError(t, err); e.Line == 0 || !strings.Contains(e.Msg, "gzip: the compressed stream ends early") {
+		t.Errorf("got %q, want FILE:LINE: gzip: the compressed stream ends early ...", e.Error())
+	}
+	// Trailing garbage after the stream is an error too.
+	_, err = Read(bytes.NewReader(append(gzipBytes([]byte("a b\n")), "junk"...)), "junk.gz", Options{})
+	if err == nil {
+		t.Errorf("garbage after the gzip stream: no error")
+	} else {
+		asError(t, err)
+	}
+}
+
+// Read takes any reader (standard input in the CLI), reads an edge list
+// when no format is given, and names the source in errors.
+func TestReadStdin(t *testing.T) {
+	g, err := Read(strings.NewReader("x y\n"), "stdin", Options{})
+	if err != nil || g.N() != 2 || g.Edges() != 1 {
+		t.Fatalf("got %v, %v; want 2 states, 1 edge", g, err)
+	}
+	_, err = Read(strings.NewReader("x y\nz\n"), "stdin", Options{})
+	if err == nil || err.Error() != "stdin:2: want \"source target [weight]\", found one field \"z\"" {
+		t.Errorf("got %v", err)
+	}
+	_, err = Read(strings.NewReader("x y\n"), "stdin", Options{Format: "xml"})
+	if err == nil {
+		t.Errorf("unknown format: no error")
+	} else {
+		asError(t, err)
+	}
+}
+
+func TestReadFileErrors(t *testing.T) {
+	dir := t.TempDir()
+	for _, c := range []struct {
+		path, want string
+	}{
+		{filepath.Join(dir, "missing.edges"), "no such file"},
+		{dir, "is a directory"},
+	} {
+		_, err := ReadFile(c.path, Options{})
+		if err == nil {
+			t.Errorf("%s: no error", c.path)
+			continue
+		}
+		e := asError(t, err)
+		if e.File != c.path || !strings.Contains(e.Msg, c.want) {
+			t.Errorf("got %q, want %q on %s", e.Error(), c.want, c.path)
+		}
+	}
+	// The extension picks the reader; the error names file and line.
+	p := filepath.Join(dir, "bad.mtx")
+	os.WriteFile(p, []byte("%%MatrixMarket matrix coordinate pattern general\n2 2 1\n3 1\n"), 0o644)
+	_, err := ReadFile(p, Options{})
+	if err == nil || err.Error() != p+":3: row index \"3\" is not an integer in 1..2" {
+		t.Errorf("got %v", err)
+	}
+}
