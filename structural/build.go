@@ -3,6 +3,8 @@ package structural
 import (
 	"errors"
 	"fmt"
+	"slices"
+	"sort"
 
 	"github.com/netsteer/netsteer/matching"
 )
@@ -145,55 +147,8 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		return nil, errors.New("structural: too many edges")
 	}
 	g := &Network{names: b.names}
-	// Counting sort by target: the in-rows, unsorted, with repeats.
-	inPtr := make([]int64, n+1)
-	for _, v := range dst {
-		inPtr[v+1]++
-	}
-	for v := 0; v < n; v++ {
-		inPtr[v+1] += inPtr[v]
-	}
-	outDeg := make([]int64, n+1)
-	inSrc := make([]int32, len(src))
-	var inW []float64
-	if w != nil {
-		inW = make([]float64, len(src))
-	}
-	pos := make([]int64, n)
-	copy(pos, inPtr[:n])
-	for i, v := range dst {
-		p := pos[v]
-		inSrc[p] = src[i]
-		if w != nil {
-			inW[p] = w[i]
-		}
-		pos[v]++
-		outDeg[src[i]+1]++
-	}
+	outPtr, outAdj, outW := sortBySource(n, src, dst, w)
 	src, dst, w = nil, nil, nil
-	// Scatter by source in target order: out-rows come out sorted.
-	for u := 0; u < n; u++ {
-		outDeg[u+1] += outDeg[u]
-	}
-	outPtr := outDeg
-	outAdj := make([]int32, len(inSrc))
-	var outW []float64
-	if inW != nil {
-		outW = make([]float64, len(inSrc))
-	}
-	copy(pos, outPtr[:n])
-	for v := 0; v < n; v++ {
-		for k := inPtr[v]; k < inPtr[v+1]; k++ {
-			u := inSrc[k]
-			p := pos[u]
-			outAdj[p] = int32(v)
-			if outW != nil {
-				outW[p] = inW[k]
-			}
-			pos[u]++
-		}
-	}
-	inSrc, inW, inPtr, pos = nil, nil, nil, nil
 	// Merge repeats in place.
 	merged, loops := 0, 0
 	var q int64
@@ -219,11 +174,16 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		}
 	}
 	outPtr[n] = q
-	if int(q) < len(outAdj) {
+	if int(q) < len(outAdj)-len(outAdj)/8 {
+		// Many repeats: release the tail.
 		outAdj = append([]int32(nil), outAdj[:q]...)
 		if outW != nil {
 			outW = append([]float64(nil), outW[:q]...)
 		}
+	}
+	outAdj = outAdj[:q:q]
+	if outW != nil {
+		outW = outW[:q:q]
 	}
 	g.Out = matching.CSR{Rows: n, Cols: n, Ptr: outPtr, Adj: outAdj}
 	g.OutW = outW
@@ -231,4 +191,95 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	g.SelfLoops = loops
 	g.DuplicatesMerged = merged - preLoops
 	return g, nil
+}
+
+// sortBySource returns the edges as rows by source: a counting sort by
+// source, stable in input order, then each row sorted by target, stably,
+// so repeated edges stay in input order and their weights add up in it.
+func sortBySource(n int, src, dst []int32, w []float64) ([]int64, []int32, []float64) {
+	// ptr[u+2] counts u's edges; after the prefix sum ptr[u+1] is where
+	// row u starts, and the scatter advances it to where row u ends.
+	ptr := make([]int64, n+2)
+	for _, u := range src {
+		ptr[u+2]++
+	}
+	for u := 2; u <= n; u++ {
+		ptr[u] += ptr[u-1]
+	}
+	adj := make([]int32, len(src))
+	var ow []float64
+	if w != nil {
+		ow = make([]float64, len(src))
+		for i, u := range src {
+			p := ptr[u+1]
+			adj[p] = dst[i]
+			ow[p] = w[i]
+			ptr[u+1] = p + 1
+		}
+	} else {
+		for i, u := range src {
+			p := ptr[u+1]
+			adj[p] = dst[i]
+			ptr[u+1] = p + 1
+		}
+	}
+	ptr = ptr[:n+1]
+	for u := 0; u < n; u++ {
+		lo, hi := ptr[u], ptr[u+1]
+		if hi-lo < 2 {
+			continue
+		}
+		row := adj[lo:hi]
+		if ow == nil {
+			if len(row) <= 24 {
+				insertionSort(row)
+			} else {
+				slices.Sort(row)
+			}
+			continue
+		}
+		sortWeighted(row, ow[lo:hi])
+	}
+	return ptr, adj, ow
+}
+
+func insertionSort(a []int32) {
+	for i := 1; i < len(a); i++ {
+		x := a[i]
+		j := i
+		for j > 0 && a[j-1] > x {
+			a[j] = a[j-1]
+			j--
+		}
+		a[j] = x
+	}
+}
+
+// sortWeighted sorts a row by target, stably, carrying the weights along.
+func sortWeighted(a []int32, w []float64) {
+	if len(a) <= 24 {
+		for i := 1; i < len(a); i++ {
+			x, y := a[i], w[i]
+			j := i
+			for j > 0 && a[j-1] > x {
+				a[j], w[j] = a[j-1], w[j-1]
+				j--
+			}
+			a[j], w[j] = x, y
+		}
+		return
+	}
+	sort.Stable(weightedRow{a, w})
+}
+
+type weightedRow struct {
+	a []int32
+	w []float64
+}
+
+func (r weightedRow) Len() int           { return len(r.a) }
+func (r weightedRow) Less(i, j int) bool { return r.a[i] < r.a[j] }
+func (r weightedRow) Swap(i, j int) {
+	r.a[i], r.a[j] = r.a[j], r.a[i]
+	r.w[i], r.w[j] = r.w[j], r.w[i]
 }

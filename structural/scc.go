@@ -10,82 +10,124 @@ import "github.com/netsteer/netsteer/matching"
 type Components struct {
 	Of    []int32
 	Count int
+
+	// sources, when not nil, is Sources(sourcesOf), found by SCC.
+	sources   []bool
+	sourcesOf *matching.CSR
+}
+
+// sccFrame is a state on the depth-first call stack.
+type sccFrame struct {
+	pos  int64 // next edge of v to scan
+	v    int32
+	root bool // no edge found yet to a state visited before v
 }
 
 // SCC returns the strongly connected components of the directed graph g
-// (row u lists the targets of u). It runs Tarjan's algorithm with an
-// explicit stack in O(V + E) time and about 16 bytes per state.
+// (row u lists the targets of u). It runs Pearce's space-efficient variant
+// of Tarjan's algorithm (D. J. Pearce, Inf. Process. Lett. 116(1):47, 2016)
+// with an explicit call stack: one int32 per state serves as visit index,
+// low link and, once the state's component is complete, its component
+// number, so each edge costs one random access. Components come out in
+// Tarjan's completion order. While scanning, every edge that reaches a
+// completed component is an edge between components, so the source
+// components are found on the way. O(V + E) time; about 4 bytes per state
+// plus the stacks.
 func SCC(g *matching.CSR) Components {
 	n := g.Rows
-	index := make([]int32, n) // 0 = unvisited, else discovery index + 1
-	low := make([]int32, n)
-	of := make([]int32, n)
-	for i := range of {
-		of[i] = -1
-	}
-	next := make([]int64, n) // position in the row for the call stack
-	call := make([]int32, 0, 64)
+	// rindex[v]: 0 unvisited; 1..index-1 while v's component is open (the
+	// smallest index v reaches); once complete, c: N, N-1, ... in
+	// completion order. An open index never exceeds the number of open
+	// states, so it stays at or below c and every completed state's value
+	// is above it.
+	rindex := make([]int32, n)
+	notSource := make([]bool, n+1) // by c
+	call := make([]sccFrame, 0, 64)
 	stack := make([]int32, 0, 64)
-	var counter int32
-	count := int32(0)
-	for root := 0; root < n; root++ {
-		if index[root] != 0 {
+	index := int32(1)
+	c := int32(n)
+	ptr, adj := g.Ptr, g.Adj
+	for r := 0; r < n; r++ {
+		if rindex[r] != 0 {
 			continue
 		}
-		call = append(call, int32(root))
-		counter++
-		index[root], low[root] = counter, counter
-		next[root] = g.Ptr[root]
-		stack = append(stack, int32(root))
+		rindex[r] = index
+		index++
+		call = append(call, sccFrame{pos: ptr[r], v: int32(r), root: true})
 		for len(call) > 0 {
-			v := call[len(call)-1]
-			end := g.Ptr[v+1]
+			f := &call[len(call)-1]
+			v := f.v
+			end := ptr[v+1]
+			rv := rindex[v]
 			descended := false
-			for next[v] < end {
-				w := g.Adj[next[v]]
-				next[v]++
-				if index[w] == 0 {
-					counter++
-					index[w], low[w] = counter, counter
-					next[w] = g.Ptr[w]
-					stack = append(stack, w)
-					call = append(call, w)
+			for f.pos < end {
+				w := adj[f.pos]
+				f.pos++
+				rw := rindex[w]
+				if rw == 0 {
+					rindex[w] = index
+					index++
+					call = append(call, sccFrame{pos: ptr[w], v: w, root: true})
 					descended = true
 					break
 				}
-				if of[w] < 0 && index[w] < low[v] {
-					low[v] = index[w]
+				if rw > c {
+					notSource[rw] = true // w's component is complete: v's is another
+				} else if rw < rv {
+					rv = rw
+					f.root = false
 				}
 			}
+			rindex[v] = rv
 			if descended {
 				continue
 			}
+			root := f.root
 			call = call[:len(call)-1]
-			if len(call) > 0 {
-				p := call[len(call)-1]
-				if low[v] < low[p] {
-					low[p] = low[v]
-				}
-			}
-			if low[v] == index[v] {
-				for {
+			if root {
+				index--
+				for len(stack) > 0 && rv <= rindex[stack[len(stack)-1]] {
 					w := stack[len(stack)-1]
 					stack = stack[:len(stack)-1]
-					of[w] = count
-					if w == v {
-						break
-					}
+					rindex[w] = c
+					index--
 				}
-				count++
+				rindex[v] = c
+				c--
+			} else {
+				stack = append(stack, v)
+			}
+			// Back in the parent: the edge to v is scanned now.
+			if len(call) > 0 {
+				p := &call[len(call)-1]
+				rw := rindex[v]
+				if rw > c {
+					notSource[rw] = true
+				} else if rw < rindex[p.v] {
+					rindex[p.v] = rw
+					p.root = false
+				}
 			}
 		}
 	}
-	return Components{Of: of, Count: int(count)}
+	count := n - int(c)
+	last := int32(n)
+	for v, x := range rindex {
+		rindex[v] = last - x
+	}
+	src := make([]bool, count)
+	for k := range src {
+		src[k] = !notSource[last-int32(k)]
+	}
+	return Components{Of: rindex, Count: count, sources: src, sourcesOf: g}
 }
 
 // Sources reports, for each component, whether it is a source component:
 // no edge of g enters it from another component.
 func (c Components) Sources(g *matching.CSR) []bool {
+	if c.sources != nil && c.sourcesOf == g {
+		return append([]bool(nil), c.sources...)
+	}
 	src := make([]bool, c.Count)
 	for i := range src {
 		src[i] = true

@@ -1,0 +1,116 @@
+package structural_test
+
+import (
+	"fmt"
+	"testing"
+
+	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
+)
+
+// Stage benchmarks of the read-match-decompose pipeline on fixed-seed
+// networks: directed Erdős–Rényi and static-model scale-free (gamma 2.5 and
+// 2.1) with mean total degree 10, and randomly oriented square grids, at
+// 10^4, 10^5 and 10^6 states. Run them with
+//
+//	go test -run '^$' -bench 'Build|SCC|Drivers' -benchmem ./structural
+//
+// and the parse stage with go test -bench Read ./io/netread, the matching
+// stage with go test -bench Maximum ./matching.
+
+var benchModels = []string{"er", "sf", "sf2.1", "grid"}
+var benchSizes = []int{10_000, 100_000, 1_000_000}
+
+func benchEdges(model string, n int) *netgen.Edges {
+	switch model {
+	case "er":
+		return netgen.ER(n, 10, 1)
+	case "sf":
+		return netgen.ScaleFree(n, 10, 2.5, 1)
+	case "sf2.1":
+		return netgen.ScaleFree(n, 10, 2.1, 1)
+	}
+	side := 1
+	for (side+1)*(side+1) <= n {
+		side++
+	}
+	return netgen.Grid(side, 1)
+}
+
+func benchNetwork(b *testing.B, e *netgen.Edges) *structural.Network {
+	bl := structural.NewIntBuilder(e.N, 0)
+	bl.Grow(len(e.Src))
+	for i := range e.Src {
+		bl.AddEdge(e.Src[i], e.Dst[i])
+	}
+	g, err := bl.Build(structural.BuildOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return g
+}
+
+func perEdge(b *testing.B, edges int) {
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(edges), "ns/edge")
+}
+
+// BenchmarkBuild times Builder.Build: both CSR directions by counting sort,
+// rows sorted and repeats merged.
+func BenchmarkBuild(b *testing.B) {
+	for _, model := range benchModels {
+		for _, n := range benchSizes {
+			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
+				e := benchEdges(model, n)
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					b.StopTimer()
+					bl := structural.NewIntBuilder(e.N, 0)
+					bl.Grow(len(e.Src))
+					for k := range e.Src {
+						bl.AddEdge(e.Src[k], e.Dst[k])
+					}
+					b.StartTimer()
+					if _, err := bl.Build(structural.BuildOptions{}); err != nil {
+						b.Fatal(err)
+					}
+				}
+				perEdge(b, len(e.Src))
+			})
+		}
+	}
+}
+
+// BenchmarkSCC times the strongly connected components.
+func BenchmarkSCC(b *testing.B) {
+	for _, model := range benchModels {
+		for _, n := range benchSizes {
+			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
+				g := benchNetwork(b, benchEdges(model, n))
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					structural.SCC(&g.Out)
+				}
+				perEdge(b, g.Edges())
+			})
+		}
+	}
+}
+
+// BenchmarkDrivers times matching, components and the driver set together
+// on a built network (what `netsteer drivers` does after reading).
+func BenchmarkDrivers(b *testing.B) {
+	for _, model := range benchModels {
+		for _, n := range benchSizes {
+			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
+				g := benchNetwork(b, benchEdges(model, n))
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					m := matching.Maximum(&g.Out, &g.In)
+					structural.DriversFrom(g, m, structural.SCC(&g.Out))
+				}
+				perEdge(b, g.Edges())
+			})
+		}
+	}
+}
