@@ -258,3 +258,28 @@ func TestDOTErrorLines(t *testing.T) {
 		}
 	}
 }
+
+func BenchmarkDOT(b *testing.B) {
+	for _, n := range []int{1e3, 1e4, 1e5} {
+		var sb strings.Builder
+		sb.WriteString("digraph bench {\n")
+		seed := uint64(7)
+		next := func() int {
+			seed = seed*6364136223846793005 + 1442695040888963407
+			return int(seed>>33) % n
+		}
+		for k := 0; k < 5*n; k++ {
+			fmt.Fprintf(&sb, "  s%d -> s%d [weight=%d]\n", next(), next(), k%9+1)
+		}
+		sb.WriteString("}\n")
+		in := sb.String()
+		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
+			b.SetBytes(int64(len(in)))
+			for b.Loop() {
+				if _, err := Read(strings.NewReader(in), "b.dot", Options{Format: DOT, Weights: true}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

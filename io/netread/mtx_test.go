@@ -163,3 +163,40 @@ func TestMatrixMarketMatchesEdgeList(t *testing.T) {
 		t.Errorf("edges differ:%s", d)
 	}
 }
+
+// mtxInput writes a fixed-seed random Matrix Market file with n states and
+// 5n entries (mean total degree 10).
+func mtxInput(n int, field string) []byte {
+	var b bytes.Buffer
+	m := 5 * n
+	fmt.Fprintf(&b, "%%%%MatrixMarket matrix coordinate %s general\n%d %d %d\n", field, n, n, m)
+	seed := uint64(2024)
+	next := func() int {
+		seed = seed*6364136223846793005 + 1442695040888963407
+		return int(seed>>33)%n + 1
+	}
+	for k := 0; k < m; k++ {
+		if field == "pattern" {
+			fmt.Fprintf(&b, "%d %d\n", next(), next())
+		} else {
+			fmt.Fprintf(&b, "%d %d %d.%d\n", next(), next(), k%9+1, k%7)
+		}
+	}
+	return b.Bytes()
+}
+
+func BenchmarkMatrixMarket(b *testing.B) {
+	for _, n := range []int{1e4, 1e5, 1e6} {
+		for _, field := range []string{"pattern", "real"} {
+			in := mtxInput(n, field)
+			b.Run(fmt.Sprintf("%s/n=%d", field, n), func(b *testing.B) {
+				b.SetBytes(int64(len(in)))
+				for b.Loop() {
+					if _, err := Read(bytes.NewReader(in), "b.mtx", Options{Format: MatrixMarket, Weights: true}); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
