@@ -113,3 +113,37 @@ func TestDriversKalmanRandom(t *testing.T) {
 		checkAgainstKalman(t, rng, randomNetwork(t, rng, n, p), "random")
 	}
 }
+
+// chainNetwork returns the directed chain 0 -> 1 -> ... -> n-1.
+func chainNetwork(tb testing.TB, n int) *structural.Network {
+	b := structural.NewIntBuilder(n, 0)
+	b.Grow(n - 1)
+	for v := 0; v+1 < n; v++ {
+		b.AddEdge(int32(v), int32(v+1))
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return g
+}
+
+// TestDriversDeepChain runs MinimumDrivers and Check on a 10^7-state
+// directed chain: one driver, its head (a path is one stem; common
+// practice). Every search in them is iterative, so a path of that depth
+// costs heap, not goroutine stack. In -short mode the chain has 10^6
+// states.
+func TestDriversDeepChain(t *testing.T) {
+	n := 10_000_000
+	if testing.Short() {
+		n = 1_000_000
+	}
+	g := chainNetwork(t, n)
+	ds := structural.MinimumDrivers(g)
+	if len(ds.Drivers) != 1 || ds.Drivers[0] != 0 {
+		t.Fatalf("chain: drivers %v, want [0]", ds.Drivers)
+	}
+	if v := structural.Check(g, ds.Inputs); !v.Controllable || v.ControllableDimension != n {
+		t.Fatalf("chain: controllable %v, dimension %d; want true, %d", v.Controllable, v.ControllableDimension, n)
+	}
+}
