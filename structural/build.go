@@ -126,16 +126,19 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 			}
 		}
 	}
-	preLoops := 0
 	if opt.SelfDynamics {
+		// Only states without a loop of their own get one, so an input
+		// loop keeps its weight and is not counted as a repeat.
 		has := make([]bool, n)
 		for i, u := range src {
-			if u == dst[i] && !has[u] {
+			if u == dst[i] {
 				has[u] = true
-				preLoops++
 			}
 		}
 		for u := 0; u < n; u++ {
+			if has[u] {
+				continue
+			}
 			src = append(src, int32(u))
 			dst = append(dst, int32(u))
 			if w != nil {
@@ -189,7 +192,7 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	g.OutW = outW
 	g.In = *matching.Transpose(&g.Out)
 	g.SelfLoops = loops
-	g.DuplicatesMerged = merged - preLoops
+	g.DuplicatesMerged = merged
 	return g, nil
 }
 

@@ -319,3 +319,35 @@ func TestBuildLongChain(t *testing.T) {
 		}
 	}
 }
+
+// TestSelfDynamicsKeepsInputLoopWeight: --self-dynamics adds a loop only
+// where the input has none, so an input loop keeps its own weight.
+func TestSelfDynamicsKeepsInputLoopWeight(t *testing.T) {
+	b := NewBuilder()
+	a, _ := b.Intern([]byte("a"))
+	c, _ := b.Intern([]byte("c"))
+	b.AddWeightedEdge(a, a, 2.5)
+	b.AddWeightedEdge(a, c, 4)
+	g, err := b.Build(BuildOptions{SelfDynamics: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[[2]int32]float64{{a, a}: 2.5, {a, c}: 4, {c, c}: 1}
+	got := map[[2]int32]float64{}
+	for u := int32(0); int(u) < g.N(); u++ {
+		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
+			got[[2]int32{u, g.Out.Adj[k]}] = g.OutW[k]
+		}
+	}
+	if len(got) != len(want) {
+		t.Fatalf("edges = %v, want %v", got, want)
+	}
+	for e, w := range want {
+		if got[e] != w {
+			t.Errorf("weight of %v = %g, want %g", e, got[e], w)
+		}
+	}
+	if g.DuplicatesMerged != 0 || g.SelfLoops != 2 {
+		t.Errorf("DuplicatesMerged = %d, SelfLoops = %d, want 0 and 2", g.DuplicatesMerged, g.SelfLoops)
+	}
+}
