@@ -323,12 +323,12 @@ func TestBuildLongChain(t *testing.T) {
 // TestSelfDynamicsKeepsInputLoopWeight: --self-dynamics adds a loop only
 // where the input has none, so an input loop keeps its own weight.
 func TestSelfDynamicsKeepsInputLoopWeight(t *testing.T) {
-	b := NewBuilder()
+	b := structural.NewBuilder()
 	a, _ := b.Intern([]byte("a"))
 	c, _ := b.Intern([]byte("c"))
 	b.AddWeightedEdge(a, a, 2.5)
 	b.AddWeightedEdge(a, c, 4)
-	g, err := b.Build(BuildOptions{SelfDynamics: true})
+	g, err := b.Build(structural.BuildOptions{SelfDynamics: true})
 	if err != nil {
 		t.Fatal(err)
 	}
