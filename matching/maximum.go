@@ -14,16 +14,16 @@ type Matching struct {
 //
 // The matching is initialised by Karp–Sipser (degree-one reductions first,
 // then the free edge to the column of fewest free neighbours) and completed
-// by depth-first augmentation in the manner of Pothen–Fan with lookahead and
-// fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2):13, 2011): each phase
-// searches from every free row with a visit mark shared by the phase, so a
-// phase finds vertex-disjoint augmenting paths, and phases alternate the
-// scan direction. A search that fails without meeting a column claimed by a
-// successful search of its phase proves that every column it visited leads
-// to no free column, now or after later augmentations; such columns are
-// marked dead and never entered again, and its root is dropped. The last
-// phase, which only proves maximality, therefore costs one pass over the
-// part of the graph still alive instead of a full phase per round.
+// by augmenting paths. A search that fails proves that the columns it
+// visited lead to no free column, now or after later augmentations (they
+// and their mates form a closed alternating set); they are marked dead and
+// never entered again. A first pass searches from each free row in turn,
+// breadth-first with lookahead (Kuhn's method with dead marks), so failing
+// searches together cost one pass over the graph; if successful searches
+// grow expensive, the remaining free rows go on in phases of Pothen–Fan
+// with lookahead and fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2):13,
+// 2011), depth-first with a visit mark shared by the phase, so a phase costs
+// at most one pass.
 //
 // Every search is iterative. Time is O(|E|) for the initialisation and
 // O(|V||E|) in the worst case for the augmentation, near-linear on the
@@ -159,7 +159,7 @@ const dead = -1
 // rowInfo keeps a row's search offsets and mate together.
 type rowInfo struct {
 	look int32 // lookahead offset: columns before it are matched
-	next int32 // depth-first offset within the current visit
+	next int32 // depth-first offset within the current visit; or the row it was reached from, breadth-first
 	mate int32
 }
 
@@ -195,18 +195,14 @@ func augment(g, gt *CSR, m *Matching) int {
 		rows[r].mate = c
 	}
 	ptr, adj := g.Ptr, g.Adj
+	// The first pass searches from each free row in turn, breadth-first
+	// (Kuhn's method with the dead marks); see kuhnPass. Roots left when
+	// its budget runs out go on in Pothen–Fan phases.
+	var added int
+	free, added, unmatchedCols = kuhnPass(g, rows, cols, free, unmatchedCols)
+	search := int32(1) // mark 1 was used by kuhnPass
 	stack := make([]int32, 0, 64)   // rows on the current alternating path
 	visited := make([]int32, 0, 64) // columns visited by the current search
-	added := 0
-	search := int32(0)
-	// The first pass runs Kuhn-style: each search has its own visit mark,
-	// so every failure is clean and every root is tried once; successful
-	// searches may re-scan live columns, so once they have scanned more
-	// than budget edges the remaining roots go on in Pothen–Fan phases,
-	// whose cost per phase is bounded by one pass over the graph.
-	budget := 2*int64(len(adj)) + int64(nr)
-	var spent int64
-	kuhn := true
 	for phase := 0; len(free) > 0 && unmatchedCols > 0; phase++ {
 		forward := phase%2 == 0
 		phaseStart := search + 1
@@ -221,15 +217,7 @@ func augment(g, gt *CSR, m *Matching) int {
 			}
 			search++
 			cur := search
-			if kuhn {
-				if spent > budget {
-					kuhn = false
-				} else {
-					phaseStart = cur
-				}
-			}
 			touchedLive := false
-			var scans int64
 			visited = visited[:0]
 			stack = append(stack[:0], root)
 			rows[root].next = 0
@@ -272,7 +260,6 @@ func augment(g, gt *CSR, m *Matching) int {
 						c = adj[hi-1-int64(ri.next)]
 					}
 					ri.next++
-					scans++
 					ci := &cols[c]
 					mk := ci.mark
 					if mk == dead {
@@ -297,9 +284,6 @@ func augment(g, gt *CSR, m *Matching) int {
 				}
 			}
 			if success {
-				if kuhn {
-					spent += scans
-				}
 				found++
 				unmatchedCols--
 				continue
@@ -330,3 +314,92 @@ func augment(g, gt *CSR, m *Matching) int {
 	}
 	return added
 }
+
+// kuhnPass searches for an augmenting path from each root in turn,
+// breadth-first, with a visit mark of its own (the mark 1, cleared by the
+// search's end), lookahead for free columns, and dead marks: a search that
+// fails leaves every column it visited dead, since they and their mates form
+// a closed alternating set that no later augmentation enters, so each
+// column is scanned by failing searches once in all. Successful searches
+// may re-scan live columns; once they have scanned more than twice the
+// edges, the pass stops and returns the roots not yet tried, with the number
+// of augmentations and the free columns left. Breadth-first order lets the
+// memory accesses of one row's columns overlap, which matters because the
+// failing searches together touch most of the graph.
+func kuhnPass(g *CSR, rows []rowInfo, cols []colInfo, free []int32, unmatchedCols int) ([]int32, int, int) {
+	ptr, adj := g.Ptr, g.Adj
+	budget := kuhnEdgeFactor*int64(len(adj)) + int64(g.Rows)
+	if kuhnEdgeFactor < 0 {
+		budget = -1 // tests: Pothen–Fan phases only
+	}
+	var spent int64
+	queue := make([]int32, 0, 64)
+	visited := make([]int32, 0, 64)
+	const mark = 1
+	added := 0
+	for i, root := range free {
+		if unmatchedCols == 0 || spent > budget {
+			return free[i:], added, unmatchedCols
+		}
+		queue = append(queue[:0], root)
+		visited = visited[:0]
+		var scans int64
+		success := false
+	search:
+		for qi := 0; qi < len(queue); qi++ {
+			r := queue[qi]
+			ri := &rows[r]
+			lo, hi := ptr[r], ptr[r+1]
+			deg := int32(hi - lo)
+			for ri.look < deg {
+				c := adj[lo+int64(ri.look)]
+				ri.look++
+				if cols[c].mate < 0 {
+					// Augment back along the rows' predecessors.
+					for {
+						prev := rows[r].mate
+						rows[r].mate = c
+						cols[c].mate = r
+						if r == root {
+							break
+						}
+						c = prev
+						r = rows[r].next
+					}
+					success = true
+					break search
+				}
+			}
+			scans += hi - lo
+			for _, c := range adj[lo:hi] {
+				ci := &cols[c]
+				if ci.mark != 0 {
+					continue // dead, or visited by this search
+				}
+				ci.mark = mark
+				visited = append(visited, c)
+				r2 := ci.mate
+				rows[r2].next = r
+				queue = append(queue, r2)
+			}
+		}
+		if success {
+			added++
+			unmatchedCols--
+			spent += scans
+			for _, c := range visited {
+				cols[c].mark = 0
+			}
+			continue
+		}
+		for _, c := range visited {
+			cols[c].mark = dead
+		}
+	}
+	return free[:0], added, unmatchedCols
+}
+
+// kuhnEdgeFactor sets kuhnPass's budget in edges scanned by successful
+// searches per edge of the graph; tests set it below zero to exercise the
+// Pothen–Fan phases alone.
+var kuhnEdgeFactor int64 = 2

@@ -276,10 +276,22 @@ var families = []family{
 // Kuhn's algorithm on thousands of random and adversarial bipartite graphs,
 // and checks that every matching returned is valid.
 func TestMaximumAgainstKuhn(t *testing.T) {
+	for _, f := range []int64{2, 0, -1} {
+		t.Run(fmt.Sprintf("budget=%d", f), func(t *testing.T) {
+			defer func(old int64) { kuhnEdgeFactor = old }(kuhnEdgeFactor)
+			kuhnEdgeFactor = f
+			testAgainstKuhn(t)
+		})
+	}
+}
+
+// testAgainstKuhn runs every family; the budget of the breadth-first pass
+// (kuhnEdgeFactor) decides how much work the Pothen–Fan phases get.
+func testAgainstKuhn(t *testing.T) {
 	r := rand.New(rand.NewPCG(20240611, 3))
-	perFamily := 400
+	perFamily := 250
 	if testing.Short() {
-		perFamily = 80
+		perFamily = 50
 	}
 	total := 0
 	for _, f := range families {
@@ -373,6 +385,16 @@ func chainCSR(n int) *CSR {
 // column 0 are free): a deep search that would overflow a recursive
 // implementation's stack.
 func TestAugmentLongPath(t *testing.T) {
+	for _, f := range []int64{2, -1} {
+		t.Run(fmt.Sprintf("budget=%d", f), func(t *testing.T) {
+			defer func(old int64) { kuhnEdgeFactor = old }(kuhnEdgeFactor)
+			kuhnEdgeFactor = f
+			testAugmentLongPath(t)
+		})
+	}
+}
+
+func testAugmentLongPath(t *testing.T) {
 	n := 1_000_000
 	g := zigzag(n, 0)
 	gt := Transpose(g)
