@@ -200,7 +200,7 @@ func augment(g, gt *CSR, m *Matching) int {
 	// its budget runs out go on in Pothen–Fan phases.
 	var added int
 	free, added, unmatchedCols = kuhnPass(g, rows, cols, free, unmatchedCols)
-	search := int32(1) // mark 1 was used by kuhnPass
+	search := int32(1)              // mark 1 was used by kuhnPass
 	stack := make([]int32, 0, 64)   // rows on the current alternating path
 	visited := make([]int32, 0, 64) // columns visited by the current search
 	for phase := 0; len(free) > 0 && unmatchedCols > 0; phase++ {
