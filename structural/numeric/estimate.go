@@ -16,9 +16,10 @@ func exactOps(n, e, r int) float64 {
 }
 
 // exactBytes estimates the memory of one exact trial: the basis of r rows
-// of n words, the waiting signals and the longest batch.
+// of n words, the waiting signals and the longest batch, doubled for the
+// garbage collector's headroom (GOGC=100).
 func exactBytes(n, r int) int64 {
-	return int64(r+window+maxBatch) * int64(n) * 8
+	return 2 * int64(r+window+maxBatch) * int64(n) * 8
 }
 
 // cacheFactor scales the calibrated cost of a multiply-add, measured on a
