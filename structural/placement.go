@@ -1,0 +1,460 @@
+package structural
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+
+	"github.com/netsteer/netsteer/matching"
+)
+
+// Devices says where dedicated devices (actuators or sensors, one state
+// each) may go and what a new one costs. Every non-nil slice has one entry
+// per state.
+type Devices struct {
+	// Cost is the cost of a new device on each state, at least 0; nil
+	// means 1 for every state.
+	Cost []int64
+	// Forbidden marks the states that cannot take a device; nil means
+	// none.
+	Forbidden []bool
+	// Existing marks the states that already have a device. Existing
+	// devices are kept and cost nothing.
+	Existing []bool
+}
+
+// Placement is a cheapest set of dedicated devices that makes a network
+// structurally controllable (actuators) or observable (sensors).
+//
+// Cheapest means the least total cost of the added devices and, among
+// placements of equal cost, the fewest devices (when the costs are small
+// enough to break ties exactly; see FewestDevices). With unit costs it is
+// the minimum number of devices.
+type Placement struct {
+	// Feasible reports whether the allowed states can make the network
+	// structurally controllable (observable).
+	Feasible bool
+	// Devices is the complete set, existing devices included, in
+	// increasing order.
+	Devices []int32
+	// Added lists the new devices, in increasing order.
+	Added []int32
+	// Cost is the total cost of Added.
+	Cost int64
+	// FewestDevices reports whether ties in cost were broken exactly
+	// toward fewer devices. It is false only when costs times the number
+	// of states would overflow 64-bit integers.
+	FewestDevices bool
+	// Unmatchable lists the states of dilations (contractions, for
+	// sensors) that only devices on forbidden states could remove; Deficit
+	// is how many devices they lack. Both are empty when feasible.
+	Unmatchable []int32
+	Deficit     int
+	// Unreached lists the source components (sink components, for
+	// sensors) with no state allowed to take a device: nothing can reach
+	// (observe) them.
+	Unreached [][]int32
+	// Matched is the size of the matching of the states among themselves
+	// in the returned design.
+	Matched int
+
+	p *placer
+}
+
+// PlaceActuators returns a cheapest set of dedicated actuators (each
+// driving one state) that, with the existing ones, makes g structurally
+// controllable under the restrictions of d.
+//
+// A set S of dedicated actuators is enough exactly when (Lin 1974) every
+// source strongly connected component holds a state of S, and the states
+// outside S can be matched, each to a distinct in-neighbour. So a cheapest S
+// is the set of states left unmatched by a matching M chosen to minimise
+// the cost of the unmatched states, subject to every source component
+// holding an unmatched allowed state, and to every forbidden state being
+// matched. This is the minimum-weight maximum-matching formulation of
+// Pequito, Kar & Aguiar, "Minimum cost input/output design for large-scale
+// linear structural systems", Automatica 68 (2016), solved here as a
+// minimum-cost flow that exploits its shape:
+//
+//  1. Without the source components, the sets of states a matching covers
+//     form a transversal matroid, so the greedy algorithm is exact: states
+//     are offered by decreasing cost (forbidden ones first) and each class
+//     of equal cost is added by Hopcroft–Karp augmentation, which never
+//     uncovers a state covered before. States found unable to augment are
+//     never searched again.
+//  2. Node potentials for this optimal flow come from one pass over the
+//     alternating paths (the cost of the most expensive uncovered state
+//     that reaches each state).
+//  3. Each source component k then sends one mandatory unit through an
+//     arc of cost c(v) into one of its allowed states v. Components already
+//     holding an uncovered allowed state take it at no cost; the others are
+//     routed by successive shortest paths (Dijkstra with potentials, then
+//     vertex-disjoint augmentations along zero reduced-cost arcs).
+//
+// Time: O(K E sqrt(N)) for step 1 in the worst case with K distinct costs
+// (one maximum matching for uniform costs), O(E) for step 2, and
+// O(R (E + N) log N) for step 3, where R <= the number of source components
+// that need routing (a handful of rounds with few distinct costs). Memory is
+// O(N + E) beyond the network.
+//
+// The result is infeasible when some forbidden states form a dilation that
+// no allowed device can remove, or a source component has no allowed
+// state; the placement then covers everything else.
+func PlaceActuators(g *Network, d Devices) (*Placement, error) {
+	p, err := newPlacer(g, d)
+	if err != nil {
+		return nil, err
+	}
+	return p.solve(), nil
+}
+
+// PlaceSensors returns a cheapest set of dedicated sensors (each measuring
+// one state) that, with the existing ones, makes g structurally observable
+// under the restrictions of d. It is PlaceActuators on the transposed
+// network: sink components take the place of source components and
+// out-neighbours that of in-neighbours.
+func PlaceSensors(g *Network, d Devices) (*Placement, error) {
+	p, err := newPlacer(reversed(g), d)
+	if err != nil {
+		return nil, err
+	}
+	return p.solve(), nil
+}
+
+// reversed returns the transpose of g sharing g's storage.
+func reversed(g *Network) *Network {
+	return &Network{Out: g.In, In: g.Out, names: g.names}
+}
+
+// costLimit bounds the sum of the working costs so that potentials and
+// path lengths stay far from overflow.
+const costLimit = math.MaxInt64 / 8
+
+// placer holds one placement computation. Vertices of the flow network
+// are numbered: column (state in-copy) v is v, row (state out-copy) u is
+// n+u, the terminal T is 2n (the supply of the rows and of the actuator
+// pool P, merged: they are joined by zero-cost arcs both ways), and the
+// mandatory source of source component j is 2n+1+j.
+type placer struct {
+	g         *Network
+	n         int
+	cost      []int64 // caller's costs, nil = 1
+	w         []int64 // working cost of a new device on each state
+	forbidden []bool
+	existing  []bool
+	lexico    bool
+
+	comps  Components
+	srcIdx []int32 // per component: index among source components, -1
+	nsrc   int
+	aPtr   []int64 // allowed states of each source component
+	aAdj   []int32
+
+	rowMate, colMate []int32
+	dead             []bool // forbidden state left uncovered
+	qAt              []int32
+	pot              []int64
+
+	unmatchable []int32
+	deficit     int
+	unreached   [][]int32
+}
+
+func newPlacer(g *Network, d Devices) (*placer, error) {
+	n := g.N()
+	if d.Cost != nil && len(d.Cost) != n || d.Forbidden != nil && len(d.Forbidden) != n || d.Existing != nil && len(d.Existing) != n {
+		return nil, errors.New("structural: device table length differs from the number of states")
+	}
+	p := &placer{g: g, n: n, cost: d.Cost, forbidden: d.Forbidden, existing: d.Existing}
+	var sum int64
+	for v := 0; v < n; v++ {
+		c := p.costOf(int32(v))
+		if c < 0 {
+			return nil, fmt.Errorf("structural: negative device cost %d on state %s", c, g.Name(int32(v)))
+		}
+		if p.isExisting(int32(v)) {
+			if p.isForbidden(int32(v)) {
+				return nil, fmt.Errorf("structural: state %s has a device but forbids one", g.Name(int32(v)))
+			}
+			continue
+		}
+		if p.isForbidden(int32(v)) {
+			continue
+		}
+		if c > costLimit-sum {
+			return nil, errors.New("structural: device costs too large (their sum overflows)")
+		}
+		sum += c
+	}
+	// Working costs: c*(n+1)+1 makes "least cost, then fewest devices"
+	// one exact objective whenever it fits.
+	wmul := int64(n) + 1
+	p.lexico = sum <= (costLimit-int64(n))/wmul
+	p.w = make([]int64, n)
+	for v := 0; v < n; v++ {
+		switch {
+		case p.isExisting(int32(v)):
+			p.w[v] = 0
+		case p.lexico:
+			p.w[v] = p.costOf(int32(v))*wmul + 1
+		default:
+			p.w[v] = p.costOf(int32(v))
+		}
+	}
+	return p, nil
+}
+
+func (p *placer) costOf(v int32) int64 {
+	if p.cost == nil {
+		return 1
+	}
+	return p.cost[v]
+}
+
+func (p *placer) isForbidden(v int32) bool { return p.forbidden != nil && p.forbidden[v] }
+func (p *placer) isExisting(v int32) bool  { return p.existing != nil && p.existing[v] }
+
+// qOf returns the mandatory source serving column v, or -1.
+func (p *placer) qOf(v int32) int32 {
+	j := p.srcIdx[p.comps.Of[v]]
+	if j >= 0 && p.qAt[j] == v {
+		return j
+	}
+	return -1
+}
+
+// actuated reports whether column v gets a device in the current flow:
+// served by the pool or by a mandatory source.
+func (p *placer) actuated(v int32) bool {
+	return p.colMate[v] < 0 && !p.dead[v]
+}
+
+func (p *placer) solve() *Placement {
+	p.components()
+	p.greedy()
+	p.potentials()
+	p.route()
+	return p.result()
+}
+
+// components finds the source components and their allowed states.
+func (p *placer) components() {
+	g, n := p.g, p.n
+	p.comps = SCC(&g.Out)
+	src := p.comps.Sources(&g.Out)
+	p.srcIdx = make([]int32, p.comps.Count)
+	for k, s := range src {
+		p.srcIdx[k] = -1
+		if s {
+			p.srcIdx[k] = int32(p.nsrc)
+			p.nsrc++
+		}
+	}
+	p.aPtr = make([]int64, p.nsrc+1)
+	for v := 0; v < n; v++ {
+		if j := p.srcIdx[p.comps.Of[v]]; j >= 0 && !p.isForbidden(int32(v)) {
+			p.aPtr[j+1]++
+		}
+	}
+	for j := 0; j < p.nsrc; j++ {
+		p.aPtr[j+1] += p.aPtr[j]
+	}
+	p.aAdj = make([]int32, p.aPtr[p.nsrc])
+	fill := make([]int64, p.nsrc)
+	copy(fill, p.aPtr[:p.nsrc])
+	for v := 0; v < n; v++ {
+		if j := p.srcIdx[p.comps.Of[v]]; j >= 0 && !p.isForbidden(int32(v)) {
+			p.aAdj[fill[j]] = int32(v)
+			fill[j]++
+		}
+	}
+	// Source components with no allowed state cannot be reached.
+	at := make([]int32, p.comps.Count)
+	nEmpty := int32(0)
+	for k, j := range p.srcIdx {
+		at[k] = -1
+		if j >= 0 && p.aPtr[j] == p.aPtr[j+1] {
+			at[k] = nEmpty
+			nEmpty++
+		}
+	}
+	if nEmpty > 0 {
+		p.unreached = make([][]int32, nEmpty)
+		for v := 0; v < n; v++ {
+			if i := at[p.comps.Of[v]]; i >= 0 {
+				p.unreached[i] = append(p.unreached[i], int32(v))
+			}
+		}
+		for i := range p.unreached {
+			p.unreached[i] = slices.Clip(p.unreached[i])
+		}
+	}
+	p.qAt = make([]int32, p.nsrc)
+	for j := range p.qAt {
+		p.qAt[j] = -1
+	}
+}
+
+// greedy covers states by a matching chosen greedily by decreasing working
+// cost, forbidden states first: a maximum-weight independent set of the
+// transversal matroid of the columns.
+func (p *placer) greedy() {
+	g, n := p.g, p.n
+	p.dead = make([]bool, n)
+	uniform := true
+	for v := 1; v < n && uniform; v++ {
+		uniform = p.w[v] == p.w[0]
+	}
+	hasForbidden := false
+	for v := 0; v < n; v++ {
+		if p.isForbidden(int32(v)) {
+			hasForbidden = true
+			uniform = false
+			break
+		}
+	}
+	if uniform {
+		m := matching.Maximum(&g.Out, &g.In)
+		p.rowMate, p.colMate = m.RowMate, m.ColMate
+		return
+	}
+	p.rowMate = make([]int32, n)
+	p.colMate = make([]int32, n)
+	for i := range p.rowMate {
+		p.rowMate[i], p.colMate[i] = -1, -1
+	}
+	// Left side: columns, adjacent to their in-neighbour rows.
+	adj := &sideAdj{n0: int32(n), ptr: g.In.Ptr, adj: g.In.Adj}
+	au := newAugmenter(adj, n, p.colMate, p.rowMate)
+	order := make([]int32, 0, n)
+	if hasForbidden {
+		for v := 0; v < n; v++ {
+			if p.isForbidden(int32(v)) {
+				order = append(order, int32(v))
+			}
+		}
+		au.grow(order, true)
+		for _, v := range order {
+			if p.colMate[v] < 0 {
+				p.dead[v] = true
+				p.deficit++
+			}
+		}
+		if p.deficit > 0 {
+			// The dead marks now hold the alternating closure of the
+			// uncovered forbidden states: a set of forbidden states with
+			// fewer distinct in-neighbours than members.
+			for v := 0; v < n; v++ {
+				if au.dead[v] {
+					p.unmatchable = append(p.unmatchable, int32(v))
+				}
+			}
+		}
+		order = order[:0]
+	}
+	for v := 0; v < n; v++ {
+		if !p.isForbidden(int32(v)) {
+			order = append(order, int32(v))
+		}
+	}
+	slices.SortStableFunc(order, func(a, b int32) int {
+		switch {
+		case p.w[a] > p.w[b]:
+			return -1
+		case p.w[a] < p.w[b]:
+			return 1
+		}
+		return 0
+	})
+	for i := 0; i < len(order); {
+		j := i + 1
+		for j < len(order) && p.w[order[j]] == p.w[order[i]] {
+			j++
+		}
+		au.grow(order[i:j], true)
+		i = j
+	}
+}
+
+// potentials sets node potentials under which every residual arc of the
+// greedy flow has a non-negative reduced cost: a column's potential is the
+// working cost of the most expensive uncovered column that reaches it along
+// alternating paths (0 if none), a row's the largest potential among the
+// columns it could take instead of its mate.
+func (p *placer) potentials() {
+	g, n := p.g, p.n
+	p.pot = make([]int64, 2*n+1+p.nsrc)
+	roots := make([]int32, 0)
+	for v := 0; v < n; v++ {
+		if p.actuated(int32(v)) && p.w[v] > 0 {
+			roots = append(roots, int32(v))
+		}
+	}
+	slices.SortStableFunc(roots, func(a, b int32) int {
+		switch {
+		case p.w[a] > p.w[b]:
+			return -1
+		case p.w[a] < p.w[b]:
+			return 1
+		}
+		return 0
+	})
+	set := make([]bool, n)
+	queue := make([]int32, 0, 64)
+	for i := 0; i < len(roots); {
+		j := i + 1
+		for j < len(roots) && p.w[roots[j]] == p.w[roots[i]] {
+			j++
+		}
+		val := p.w[roots[i]]
+		queue = queue[:0]
+		for _, r := range roots[i:j] {
+			set[r] = true
+			p.pot[r] = val
+			queue = append(queue, r)
+		}
+		for h := 0; h < len(queue); h++ {
+			v := queue[h]
+			for _, u := range g.In.Row(v) {
+				x := p.rowMate[u]
+				if x >= 0 && !set[x] {
+					set[x] = true
+					p.pot[x] = val
+					queue = append(queue, x)
+				}
+			}
+		}
+		i = j
+	}
+	for u := 0; u < n; u++ {
+		var best int64
+		for _, v := range g.Out.Row(int32(u)) {
+			if v != p.rowMate[u] && p.pot[v] > best {
+				best = p.pot[v]
+			}
+		}
+		p.pot[n+u] = best
+	}
+}
+
+// result collects the placement from the final flow.
+func (p *placer) result() *Placement {
+	res := &Placement{p: p, FewestDevices: p.lexico, Deficit: p.deficit, Unmatchable: p.unmatchable, Unreached: p.unreached}
+	res.Feasible = p.deficit == 0 && len(p.unreached) == 0
+	for v := 0; v < p.n; v++ {
+		vv := int32(v)
+		if p.colMate[v] >= 0 {
+			res.Matched++
+		}
+		switch {
+		case p.isExisting(vv):
+			res.Devices = append(res.Devices, vv)
+		case p.actuated(vv):
+			res.Devices = append(res.Devices, vv)
+			res.Added = append(res.Added, vv)
+			res.Cost += p.costOf(vv)
+		}
+	}
+	return res
+}
