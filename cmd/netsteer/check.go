@@ -348,8 +348,16 @@ func (r *checkResult) writeText(w io.Writer) error {
 	return bw.Flush()
 }
 
-// writeWrapped prints names in lines of about 78 columns.
+// maxDetailed bounds the names listed in the text details; JSON and CSV
+// list them all.
+const maxDetailed = 200
+
+// writeWrapped prints up to maxDetailed names in lines of about 78 columns.
 func writeWrapped(w *bufio.Writer, g *structural.Network, ids []int32, indent string) {
+	more := 0
+	if len(ids) > maxDetailed {
+		ids, more = ids[:maxDetailed], len(ids)-maxDetailed
+	}
 	col := 0
 	for i, v := range ids {
 		name := g.Name(v)
@@ -371,6 +379,9 @@ func writeWrapped(w *bufio.Writer, g *structural.Network, ids []int32, indent st
 		col += len(name)
 	}
 	w.WriteString("\n")
+	if more > 0 {
+		fmt.Fprintf(w, "%s... and %d more (--format json or csv lists them all)\n", indent, more)
+	}
 }
 
 func (r *checkResult) writeJSON(w io.Writer) error {
