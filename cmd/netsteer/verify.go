@@ -38,8 +38,12 @@ field GF(p), p = 2^61 - 1, with no rounding. A sample can never exceed the
 structural (generic) dimension, and by the Schwartz-Zippel lemma a random
 sample falls short of it with probability at most n^2/(p - 1) per trial.
 Work grows as r (E + r N) for dimension r, so networks above --max-states
-are refused with an estimate of the time; verify a part of them instead
-with --around or --sample.
+are refused with an estimate of the time and memory; verify a connected
+part of them instead: --around NAMES --hops K keeps the states within K
+steps of the named ones (edges followed either way), --sample K the first
+K states met breadth-first from them (or from the states the first input
+acts on). Signals are restricted to the part, and the structural
+prediction is made for the part too.
 
 Floating point (up to --max-float-states): the margin is the smallest
 singular value of [A - lambda I, B] over the eigenvalues lambda of A,
@@ -67,6 +71,7 @@ Example:
   netsteer verify testdata/plant/heating.edges --inputs actuators.txt
   netsteer verify --weights --outputs sensors.txt --format json model.edges --inputs actuators.txt
   netsteer verify --around pump.p1_speed --hops 3 big.edges --inputs actuators.txt
+  netsteer verify --sample 1500 big.edges --inputs actuators.txt
 `,
 	run: runVerify,
 }
@@ -100,9 +105,9 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	fs.IntVar(&vf.maxStates, "max-states", numeric.DefaultMaxStates, "largest network the exact check accepts")
 	fs.IntVar(&vf.maxFloat, "max-float-states", numeric.DefaultMaxFloatStates, "largest network the floating-point check runs on (0: never)")
 	fs.Float64Var(&vf.warnMargin, "warn-margin", 1e-6, "warn when the relative margin is below this")
-	fs.StringVar(&vf.around, "around", "", "verify only the states within --hops of these (comma-separated names)")
-	fs.IntVar(&vf.hops, "hops", 2, "radius of --around, following edges either way")
-	fs.IntVar(&vf.sample, "sample", 0, "verify only the K states nearest the inputs (downstream) and outputs (upstream)")
+	fs.StringVar(&vf.around, "around", "", "verify only a part of the network around these states (comma-separated names)")
+	fs.IntVar(&vf.hops, "hops", 2, "radius of --around in steps, following edges either way")
+	fs.IntVar(&vf.sample, "sample", 0, "verify only the first K states met breadth-first (edges either way) from --around, or from the states the first signal acts on")
 	if ok, st := parse(e, c, fs, args); !ok {
 		return st
 	}
@@ -123,8 +128,6 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "--max-states must be at least 1")
 	case vf.maxFloat < 0:
 		return usageError(e, c, "--max-float-states must be 0 or more")
-	case vf.around != "" && vf.sample > 0:
-		return usageError(e, c, "--around and --sample are alternatives; give one")
 	case vf.hops < 0 || vf.sample < 0:
 		return usageError(e, c, "--hops and --sample must not be negative")
 	case !(vf.warnMargin >= 0):
@@ -159,9 +162,9 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	inS, inW := design.States(ins), signalWeights(ins)
 	outS, outW := design.States(outs), signalWeights(outs)
 	if vf.around != "" || vf.sample > 0 {
-		var keep []int32
+		var centres []int32
+		from := vf.around
 		if vf.around != "" {
-			var centres []int32
 			for _, name := range strings.Split(vf.around, ",") {
 				name = strings.TrimSpace(name)
 				v, ok := g.Lookup(name)
@@ -170,11 +173,23 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 				}
 				centres = append(centres, v)
 			}
-			keep = numeric.Around(g, centres, vf.hops)
-			res.subnet = fmt.Sprintf("the states within %d %s of %s", vf.hops, plural(vf.hops, "step", "steps"), vf.around)
 		} else {
-			keep = numeric.Nearest(g, flatten(inS), flatten(outS), vf.sample)
-			res.subnet = fmt.Sprintf("the %d states nearest the signals", len(keep))
+			first := append(append([]design.Signal(nil), ins...), outs...)[0]
+			centres = first.States
+			from = fmt.Sprintf("the states signal %s:%d acts on", firstFile(vf), first.Line)
+		}
+		hops := vf.hops
+		if vf.sample > 0 && !fs.Changed("hops") {
+			hops = -1
+		}
+		keep := numeric.Around(g, centres, hops, vf.sample)
+		switch {
+		case vf.sample > 0 && hops < 0:
+			res.subnet = fmt.Sprintf("the first %d states met from %s", len(keep), from)
+		case vf.sample > 0:
+			res.subnet = fmt.Sprintf("the first %d states met within %d %s of %s", len(keep), hops, plural(hops, "step", "steps"), from)
+		default:
+			res.subnet = fmt.Sprintf("the states within %d %s of %s", hops, plural(hops, "step", "steps"), from)
 		}
 		sub, newOf, err := numeric.Induced(g, keep)
 		if err != nil {
@@ -250,12 +265,12 @@ func signalWeights(sigs []design.Signal) [][]float64 {
 	return w
 }
 
-func flatten(lists [][]int32) []int32 {
-	var out []int32
-	for _, l := range lists {
-		out = append(out, l...)
+// firstFile names the design file the first signal comes from.
+func firstFile(vf verifyFlags) string {
+	if vf.inputs != "" {
+		return vf.inputs
 	}
-	return out
+	return vf.outputs
 }
 
 // progressLine rewrites one status line on a terminal.
@@ -464,6 +479,9 @@ func (v *verifyResult) writeText(w io.Writer) error {
 		fmt.Fprintf(bw, ": the part of %s made of %s (%d of %d states)", v.file, v.subnet, rep.N, v.full)
 	}
 	fmt.Fprintf(bw, ".\n")
+	if v.subnet != "" {
+		fmt.Fprintf(bw, "The part lacks the couplings from the rest of the network: the verdicts concern the part, and the structural prediction is made for it too.\n")
+	}
 	if v.droppedSignals > 0 {
 		fmt.Fprintf(bw, "%d %s acting only outside that part %s left out.\n", v.droppedSignals, plural(v.droppedSignals, "signal", "signals"), plural(v.droppedSignals, "was", "were"))
 	}

@@ -74,3 +74,19 @@ func BenchmarkFloat(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkVerify measures a whole default run (3 trials, exact check only)
+// at 2,000 states: the goal is well under 60 s. Run: go test -run XXX
+// -bench Verify ./structural/numeric.
+func BenchmarkVerify(b *testing.B) {
+	g, in := erNetwork(2000, 6, 42)
+	for i := 0; i < b.N; i++ {
+		rep, err := Verify(g, in, nil, Options{Seed: uint64(i), MaxFloatStates: -1})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if !rep.Controllability.Full {
+			b.Fatal("design not confirmed")
+		}
+	}
+}

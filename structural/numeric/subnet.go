@@ -6,29 +6,36 @@ import (
 	"github.com/netsteer/netsteer/structural"
 )
 
-// Around returns, in increasing order, the states within hops steps of the
-// centres, following edges in either direction.
-func Around(g *structural.Network, centres []int32, hops int) []int32 {
+// Around returns, in increasing order, the states met by a breadth-first
+// search from the centres that follows edges in either direction, going at
+// most hops steps (hops < 0: no limit) and stopping once limit states are
+// kept (limit <= 0: no limit). It is a connected piece of the network
+// around the centres, for verifying a part of a network too large to
+// verify whole.
+func Around(g *structural.Network, centres []int32, hops, limit int) []int32 {
 	n := g.N()
+	if limit <= 0 {
+		limit = n
+	}
 	dist := make([]int32, n)
 	for i := range dist {
 		dist[i] = -1
 	}
-	queue := make([]int32, 0, 64)
+	queue := make([]int32, 0, min(limit, 1024))
 	for _, c := range centres {
-		if dist[c] < 0 {
+		if dist[c] < 0 && len(queue) < limit {
 			dist[c] = 0
 			queue = append(queue, c)
 		}
 	}
-	for i := 0; i < len(queue); i++ {
+	for i := 0; i < len(queue) && len(queue) < limit; i++ {
 		u := queue[i]
-		if int(dist[u]) >= hops {
+		if hops >= 0 && int(dist[u]) >= hops {
 			continue
 		}
 		for _, row := range [2][]int32{g.Out.Row(u), g.In.Row(u)} {
 			for _, v := range row {
-				if dist[v] < 0 {
+				if dist[v] < 0 && len(queue) < limit {
 					dist[v] = dist[u] + 1
 					queue = append(queue, v)
 				}
@@ -37,55 +44,6 @@ func Around(g *structural.Network, centres []int32, hops int) []int32 {
 	}
 	slices.Sort(queue)
 	return queue
-}
-
-// Nearest returns, in increasing order, the first k states met by one
-// breadth-first search that starts at the driven states (down) and walks
-// along the edges, and at the sensed states (up) and walks against them:
-// the part of the network the signals act on, or observe, most directly.
-func Nearest(g *structural.Network, down, up []int32, k int) []int32 {
-	const (
-		fwd = 1
-		bwd = 2
-	)
-	type item struct {
-		v int32
-		d uint8
-	}
-	dir := make([]uint8, g.N())
-	kept := make([]int32, 0, min(k, g.N()))
-	var work []item
-	visit := func(v int32, d uint8) {
-		if dir[v]&d != 0 {
-			return
-		}
-		if dir[v] == 0 {
-			if len(kept) == k {
-				return
-			}
-			kept = append(kept, v)
-		}
-		dir[v] |= d
-		work = append(work, item{v, d})
-	}
-	for _, v := range down {
-		visit(v, fwd)
-	}
-	for _, v := range up {
-		visit(v, bwd)
-	}
-	for i := 0; i < len(work) && len(kept) < k; i++ {
-		it := work[i]
-		row := g.Out.Row(it.v)
-		if it.d == bwd {
-			row = g.In.Row(it.v)
-		}
-		for _, v := range row {
-			visit(v, it.d)
-		}
-	}
-	slices.Sort(kept)
-	return kept
 }
 
 // Induced returns the subnetwork of g on the states keep (increasing, no

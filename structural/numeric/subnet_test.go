@@ -22,26 +22,27 @@ func TestSubnetworks(t *testing.T) {
 		return s
 	}
 	// Within one step of the clarifier, either direction.
-	got := name(Around(g, lookup(t, g, "clarifier"), 1))
+	got := name(Around(g, lookup(t, g, "clarifier"), 1, 0))
 	want := []string{"clarifier", "dosing", "filter", "screen", "tank"}
 	if !slices.Equal(got, want) {
 		t.Errorf("Around: %v, want %v", got, want)
 	}
-	// The three states nearest downstream of the intake.
-	got = name(Nearest(g, lookup(t, g, "intake"), nil, 3))
+	// The first three states met from the intake: screen, then clarifier.
+	got = name(Around(g, lookup(t, g, "intake"), -1, 3))
 	want = []string{"clarifier", "intake", "screen"}
 	if !slices.Equal(got, want) {
-		t.Errorf("Nearest down: %v, want %v", got, want)
+		t.Errorf("Around with a limit: %v, want %v", got, want)
 	}
-	// Upstream of the tank: filter, then clarifier.
-	got = name(Nearest(g, nil, lookup(t, g, "tank"), 3))
-	want = []string{"clarifier", "filter", "tank"}
+	// Two steps from the tank, either way: filter and clarifier, then
+	// screen and dosing (the intake is three steps away).
+	got = name(Around(g, lookup(t, g, "tank"), 2, 0))
+	want = []string{"clarifier", "dosing", "filter", "screen", "tank"}
 	if !slices.Equal(got, want) {
-		t.Errorf("Nearest up: %v, want %v", got, want)
+		t.Errorf("Around two steps: %v, want %v", got, want)
 	}
 	// The induced subnetwork keeps names, edges among kept states and
 	// their weights.
-	keep := Around(g, lookup(t, g, "clarifier"), 1)
+	keep := Around(g, lookup(t, g, "clarifier"), 1, 0)
 	sub, newOf, err := Induced(g, keep)
 	if err != nil {
 		t.Fatal(err)
