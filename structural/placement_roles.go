@@ -132,9 +132,11 @@ func (p *placer) forced(added []int32) []bool {
 // replace it alone at the same cost.
 func (p *placer) alternatives(pl *Placement, max int) [][]int32 {
 	g, n := p.g, p.n
+	// The complete set: existing devices and the states the flow
+	// actuates (pl.Devices may hide extra states of a completion).
 	inS := make([]bool, n)
-	for _, v := range pl.Devices {
-		inS[v] = true
+	for v := int32(0); int(v) < n; v++ {
+		inS[v] = p.isExisting(v) || p.actuated(v)
 	}
 	// The matching restricted to the states outside the set.
 	ms := func(u int32) int32 {
@@ -225,8 +227,8 @@ func (p *placer) alternatives(pl *Placement, max int) [][]int32 {
 	}
 	// Devices alone in their source component.
 	sInComp := make([]int32, p.nsrc)
-	for _, v := range pl.Devices {
-		if j := p.srcIdx[p.comps.Of[v]]; j >= 0 {
+	for v := 0; v < n; v++ {
+		if j := p.srcIdx[p.comps.Of[v]]; j >= 0 && inS[v] {
 			sInComp[j]++
 		}
 	}
