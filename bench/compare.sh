@@ -1,0 +1,101 @@
+#!/usr/bin/env bash
+# Compare netsteer with igraph and scipy on one workload, in one run.
+#
+#   bash bench/compare.sh [N] [K]       (default N=1000000, K=10)
+#
+# Workload: a directed Erdos-Renyi network with N states and mean total
+# degree K (N*K/2 edges), written by bench/gen (seed 1) as a plain text edge
+# list of integer names, plus the same edges as int32 pairs for Python.
+# Prints the matching time of each library on its own prebuilt graph, the
+# wall time and peak memory of the whole `netsteer drivers FILE --format
+# json` process, and the ratios. Installs python3-igraph and python3-scipy
+# with apt-get when they are missing (go test never needs them).
+# Files go to bench/out/ (ignored by git).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+N=${1:-1000000}
+K=${2:-10}
+OUT=bench/out
+mkdir -p "$OUT"
+PY=/usr/bin/python3
+
+if ! "$PY" -c 'import igraph, scipy, numpy' 2>/dev/null; then
+	echo "== installing python3-igraph python3-scipy (apt-get)" >&2
+	apt-get update -qq >&2
+	DEBIAN_FRONTEND=noninteractive apt-get install -y -qq python3-igraph python3-scipy python3-numpy >&2
+fi
+if [ ! -x /usr/bin/time ]; then
+	echo "== installing time (apt-get)" >&2
+	apt-get update -qq >&2
+	DEBIAN_FRONTEND=noninteractive apt-get install -y -qq time >&2
+fi
+
+echo "== building" >&2
+go build -o "$OUT/netsteer" ./cmd/netsteer
+go build -o "$OUT/gen" ./bench/gen
+EDGES="$OUT/er-$N-$K.edges"
+PAIRS="$OUT/er-$N-$K.i32"
+if [ ! -s "$EDGES" ] || [ ! -s "$PAIRS" ]; then
+	echo "== generating $EDGES" >&2
+	"$OUT/gen" -model er -n "$N" -k "$K" -seed 1 -o "$EDGES" -bin "$PAIRS"
+fi
+
+# netsteer: three runs, the median by wall time is reported (its matching
+# time and memory come from that run). Each peer: two runs, the faster is
+# reported. Both choices lean in the peers' favour.
+echo "== netsteer drivers (3 runs)" >&2
+: >"$OUT/runs.txt"
+for i in 1 2 3; do
+	/usr/bin/time -v -o "$OUT/time.txt" "$OUT/netsteer" drivers "$EDGES" --format json >"$OUT/drivers-$i.json"
+	wall=$(awk -F': ' '/Elapsed \(wall clock\)/ {n=split($2,a,":"); s=0; for(i=1;i<=n;i++) s=s*60+a[i]; print s}' "$OUT/time.txt")
+	rss=$(awk -F': ' '/Maximum resident set size/ {print $2}' "$OUT/time.txt")
+	echo "$wall $rss $i" >>"$OUT/runs.txt"
+done
+read -r median medrss medrun < <(sort -n "$OUT/runs.txt" | sed -n 2p)
+cp "$OUT/drivers-$medrun.json" "$OUT/drivers-median.json"
+maxrss=$(awk 'BEGIN{m=0} {if ($2 > m) m = $2} END {print m}' "$OUT/runs.txt")
+
+echo "== igraph and scipy (2 runs each)" >&2
+"$PY" bench/peers.py "$PAIRS" "$N" 2 >"$OUT/peers.json"
+
+"$PY" - "$OUT/drivers-median.json" "$OUT/peers.json" "$median" "$maxrss" <<'PYEOF'
+import json, os, sys
+ns = json.load(open(sys.argv[1]))
+peers = json.load(open(sys.argv[2]))
+wall, rss_kb = float(sys.argv[3]), int(sys.argv[4])
+t = ns["timings"]
+match = t["match_s"]
+print(f"workload: directed ER, {peers['nodes']} states, {peers['edges']} edges (text edge list)")
+print(f"machine: {os.cpu_count()} cores, {os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30:.0f} GiB")
+print(f"matching size: netsteer {ns['matching_size']}, igraph {peers['igraph_matching_size']}, scipy {peers['scipy_matching_size']}")
+if not (ns["matching_size"] == peers["igraph_matching_size"] == peers["scipy_matching_size"]):
+    print("MISMATCH in matching size")
+print("netsteer stages (s): " + ", ".join(f"{k[:-2]} {v:.3f}" for k, v in t.items()))
+print(f"netsteer matching      {match:8.3f} s")
+print(f"igraph matching        {peers['igraph_match_s']:8.3f} s   (igraph {peers['igraph_version']})")
+print(f"scipy matching         {peers['scipy_match_s']:8.3f} s   (scipy {peers['scipy_version']})")
+print(f"netsteer whole process {wall:8.3f} s   peak RSS {rss_kb / 1024:.0f} MB (largest of 3 runs)")
+print(f"ratio matching netsteer/igraph  {match / peers['igraph_match_s']:.3f}  (target <= 0.333)")
+print(f"ratio matching netsteer/scipy   {match / peers['scipy_match_s']:.3f}  (target <= 0.167)")
+print(f"ratio whole process/igraph match {wall / peers['igraph_match_s']:.3f}  (target <= 1)")
+print(f"peak RSS {rss_kb / 1024:.0f} MB (target <= 350 MB); "
+      f"{rss_kb * 1024 / peers['edges']:.1f} bytes per edge")
+PYEOF
+
+# Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
+# 2.1) and a randomly oriented square grid with the same number of states.
+echo "netsteer on other shapes (one run each; whole process and stages, per edge):"
+for spec in "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
+	set -- $spec
+	name=$(echo "$spec" | tr -d ' -')
+	f="$OUT/$name-$N.edges"
+	[ -s "$f" ] || "$OUT/gen" -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
+	/usr/bin/time -f "%e" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >"$OUT/shape.json"
+	"$PY" - "$OUT/shape.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
+import json, sys
+d = json.load(open(sys.argv[1]))
+t, wall, e = d["timings"], float(sys.argv[2]), d["edges"]
+print(f"  {sys.argv[3]:14s} {e:9d} edges  whole {wall:6.2f} s = {wall / e * 1e9:5.0f} ns/edge;"
+      f"  match {t['match_s'] / e * 1e9:4.0f} ns/edge, read {t['read_s'] / e * 1e9:4.0f} ns/edge")
+PYEOF
+done
