@@ -51,9 +51,11 @@ relative to the Frobenius norm of [A B]: the relative size of the smallest
 change of the numbers that makes some eigenvalue uncontrollable. Beside it,
 the extreme eigenvalues of the controllability Gramian of the stable shift
 A - sI (s = largest real part of an eigenvalue + ||A||_F / sqrt(N)).
-A margin below --warn-margin draws a warning; one at the rounding level
-(100 N eps) means floating point cannot tell the design from an
-uncontrollable one.
+A margin below --warn-margin draws a warning (default 1e-6: the numbers of
+a plant model are rarely known to better than six digits, so a smaller
+change is within their uncertainty); one at the rounding level (100 N eps,
+a generous multiple of the rounding error of the computation) means
+floating point cannot tell the design from an uncontrollable one.
 
 --weights uses the model's own numbers instead: the third column of the
 edge list for A and "name:value" on the input (output) lines for B (C);
@@ -120,8 +122,8 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	switch {
 	case vf.inputs == "" && vf.outputs == "":
 		return usageError(e, c, "give --inputs FILE (and/or --outputs FILE)")
-	case vf.inputs == "-" && vf.outputs == "-":
-		return usageError(e, c, "--inputs and --outputs cannot both read standard input")
+	case (vf.inputs == "-" && vf.outputs == "-") || (fs.Arg(0) == "-" && (vf.inputs == "-" || vf.outputs == "-")):
+		return usageError(e, c, "only one of NET, --inputs and --outputs can read standard input")
 	case vf.trials < 1:
 		return usageError(e, c, "--trials must be at least 1")
 	case vf.maxStates < 1:
@@ -464,8 +466,11 @@ func (v *verifyResult) writeText(w io.Writer) error {
 		}
 		if rep.Weights {
 			fmt.Fprintf(bw, "  Exact over GF(2^61-1) on the model's numbers")
-			if alt := r.Trials[0].AltDimension; alt >= 0 {
+			switch alt := r.Trials[0].AltDimension; {
+			case alt == r.Trials[0].Dimension:
 				fmt.Fprintf(bw, "; confirmed over GF(2^61-31): dimension %d", alt)
+			case alt >= 0:
+				fmt.Fprintf(bw, "; over GF(2^61-31) the dimension is %d and over GF(2^61-1) %d: the first prime divides the minors, and the larger value is kept", alt, r.Trials[0].Dimension)
 			}
 			fmt.Fprintf(bw, ".\n")
 		} else {

@@ -11,6 +11,9 @@ import (
 	"github.com/netsteer/netsteer/structural"
 )
 
+// maxWorkers bounds the trials run at once, and so their memory.
+const maxWorkers = 8
+
 // Defaults of Options.
 const (
 	DefaultTrials         = 3
@@ -201,7 +204,7 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 		rep.Observability.Structural = structural.CheckObservability(g, outputs).ObservableDimension
 		kinds = append(kinds, &kind{name: "observability", res: rep.Observability, signals: outputs, weights: opt.OutputWeights, transpose: true, stream: 3})
 	}
-	workers := min(trials, runtime.GOMAXPROCS(0))
+	workers := min(trials, runtime.GOMAXPROCS(0), maxWorkers)
 	if n > maxStates {
 		var dims []int
 		for _, k := range kinds {
