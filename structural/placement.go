@@ -62,6 +62,10 @@ type Placement struct {
 	p *placer
 }
 
+// CostOf returns the cost of a new device on state v as given in
+// Devices.Cost (1 when it was nil).
+func (pl *Placement) CostOf(v int32) int64 { return pl.p.costOf(v) }
+
 // PlaceActuators returns a cheapest set of dedicated actuators (each
 // driving one state) that, with the existing ones, makes g structurally
 // controllable under the restrictions of d.

@@ -2,11 +2,13 @@ package main
 
 import (
 	"fmt"
+	"io"
 	"time"
 
 	"github.com/spf13/pflag"
 
 	"github.com/netsteer/netsteer/io/netread"
+	"github.com/netsteer/netsteer/io/nodetable"
 	"github.com/netsteer/netsteer/structural"
 )
 
@@ -15,12 +17,28 @@ type netFlags struct {
 	format       string
 	undirected   bool
 	selfDynamics bool
+	nodeTable    string
+
+	// table is the node table read by load (nil without --node-table);
+	// its states are added to the network. tableWarnings are its
+	// warnings (unknown columns, listed states in no edge), for the
+	// command to print with printWarnings.
+	table         *nodetable.Table
+	tableWarnings []string
 }
 
 func (f *netFlags) register(fs *pflag.FlagSet) {
 	fs.StringVar(&f.format, "input-format", "", "network format: edges, mtx or dot (default: from the file extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
+	fs.StringVar(&f.nodeTable, "node-table", "", "CSV node table: device costs, allowed and existing devices, groups, labels")
+}
+
+// printWarnings writes the node table's warnings to w, one a line.
+func (f *netFlags) printWarnings(w io.Writer) {
+	for _, m := range f.tableWarnings {
+		fmt.Fprintln(w, "netsteer: warning: "+m)
+	}
 }
 
 // options turns the flags into reader options.
@@ -48,8 +66,19 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 			return nil, 0, err
 		}
 	}
+	if f.nodeTable != "" {
+		t, err := nodetable.ReadFile(f.nodeTable)
+		if err != nil {
+			return nil, 0, err
+		}
+		f.table = t
+		opt.States = append(opt.States, t.Names()...)
+	}
 	start := time.Now()
 	g, err := netread.ReadFile(path, opt)
+	if err == nil && f.table != nil {
+		f.tableWarnings = append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...)
+	}
 	return g, time.Since(start), err
 }
 
