@@ -448,3 +448,95 @@ func (r *placeResult) unitCost(v int32) int64 {
 	}
 	return r.pl.CostOf(v)
 }
+
+// The check extension: when a design fails, the cheapest dedicated
+// devices that complete it, with costs and allowed states from the node
+// table (its has_actuator and has_sensor columns are not used here: the
+// design file says what is in place).
+func init() {
+	checkExtensions = append(checkExtensions, &checkExtension{run: checkCompletion})
+}
+
+// completion is one completed property of a check.
+type completion struct {
+	w  *placeWords
+	pl *structural.Placement
+}
+
+func checkCompletion(e *env, r *checkResult) (*checkSection, error) {
+	var cs []completion
+	scale := int64(1)
+	if r.net != nil && r.net.table != nil {
+		scale = nodetable.CostScale
+	}
+	devices := func(w *placeWords) structural.Devices {
+		if scale == 1 {
+			return structural.Devices{}
+		}
+		d := w.table(r.net.table, r.g)
+		d.Existing = nil
+		return d
+	}
+	if r.ctrl != nil && !r.ctrl.Controllable {
+		pl, err := structural.CompleteActuators(r.g, r.inputs, devices(actuatorWords))
+		if err != nil {
+			return nil, err
+		}
+		cs = append(cs, completion{actuatorWords, pl})
+	}
+	if r.obs != nil && !r.obs.Observable {
+		pl, err := structural.CompleteSensors(r.g, r.outputs, devices(sensorWords))
+		if err != nil {
+			return nil, err
+		}
+		cs = append(cs, completion{sensorWords, pl})
+	}
+	if len(cs) == 0 {
+		return nil, nil
+	}
+	pr := &placeResult{g: r.g, scale: scale}
+	g := r.g
+	source := "every device costs 1"
+	if scale != 1 {
+		source = "costs and allowed states from the node table"
+	}
+	return &checkSection{
+		text: func(out io.Writer) {
+			for _, c := range cs {
+				pl := c.pl
+				if pl.Feasible {
+					fmt.Fprintf(out, "Cheapest completion (%s): add %d dedicated %s, total cost %s: %s\n",
+						source, len(pl.Added), plural(len(pl.Added), c.w.device, c.w.devices), pr.cost(pl.Cost), nameList(g, pl.Added, maxListed))
+					continue
+				}
+				fmt.Fprintf(out, "No completion by dedicated %s exists (%s):", c.w.devices, source)
+				if pl.Deficit > 0 {
+					fmt.Fprintf(out, " %d %s may not take %s %s but need %d more (%s: %s);", len(pl.Unmatchable),
+						plural(len(pl.Unmatchable), "state", "states"), article(c.w.device), c.w.device, pl.Deficit, c.w.dilation, nameList(g, pl.Unmatchable, maxListed))
+				}
+				for _, comp := range pl.Unreached {
+					fmt.Fprintf(out, " nothing allowed can %s {%s};", c.w.reach, nameList(g, comp, maxListed))
+				}
+				fmt.Fprintf(out, " the rest needs %d: %s\n", len(pl.Added), orNone(nameList(g, pl.Added, maxListed)))
+			}
+		},
+		json: func(j *jsonw) {
+			for _, c := range cs {
+				j.key(c.w.device + "_completion")
+				fmt.Fprintf(j.w, "{\"feasible\": %v, \"added\": ", c.pl.Feasible)
+				writeNameArray(j.w, c.pl.Added, g.Name)
+				fmt.Fprintf(j.w, ", \"added_count\": %d, \"total_cost\": %s}", len(c.pl.Added), pr.cost(c.pl.Cost))
+			}
+		},
+		csv: func(cw *csv.Writer) {
+			for _, c := range cs {
+				k := c.w.device + "_completion"
+				cw.Write([]string{k + "_feasible", strconv.FormatBool(c.pl.Feasible)})
+				for _, v := range c.pl.Added {
+					cw.Write([]string{k + "_added", g.Name(v)})
+				}
+				cw.Write([]string{k + "_total_cost", pr.cost(c.pl.Cost)})
+			}
+		},
+	}, nil
+}

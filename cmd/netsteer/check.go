@@ -88,6 +88,7 @@ type checkResult struct {
 	obs                     *structural.ObservabilityVerdict // nil without --outputs
 	sections                []*checkSection
 	stages                  []stage
+	net                     *netFlags // the network options, node table included
 }
 
 // holds reports whether every property asked for holds.
@@ -135,7 +136,8 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if err != nil {
 		return fail(e, err)
 	}
-	r := &checkResult{file: path, inputsFile: inputsFile, outputsFile: outputsFile, g: g}
+	nf.printWarnings(e.Stderr)
+	r := &checkResult{file: path, inputsFile: inputsFile, outputsFile: outputsFile, g: g, net: &nf}
 	t0 := time.Now()
 	if inputsFile != "" {
 		if r.inputs, err = readDesign(inputsFile, g, "inputs"); err != nil {
