@@ -89,3 +89,50 @@ func BenchmarkRoles(b *testing.B) {
 		})
 	}
 }
+
+// plSourceCycles draws k source 3-cycles, each with one edge into a random
+// state of an ER core of 2k states and 8k edges: every cycle is perfectly
+// matched, so each source component needs a routed path (the hard case of
+// the routing stage).
+func plSourceCycles(b testing.TB, k int, seed uint64) *Network {
+	rng := rand.New(rand.NewPCG(seed, 7))
+	core := 2 * k
+	n := 3*k + core
+	bl := NewIntBuilder(n, 0)
+	for c := 0; c < k; c++ {
+		a := int32(3 * c)
+		bl.AddEdge(a, a+1)
+		bl.AddEdge(a+1, a+2)
+		bl.AddEdge(a+2, a)
+		bl.AddEdge(a+int32(rng.IntN(3)), int32(3*k+rng.IntN(core)))
+	}
+	for i := 0; i < 4*core; i++ {
+		bl.AddEdge(int32(3*k+rng.IntN(core)), int32(3*k+rng.IntN(core)))
+	}
+	g, err := bl.Build(BuildOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return g
+}
+
+// Many perfectly matched source components, unit costs and random costs
+// 1..1000 (2% existing), about 1.2*10^5 and 1.2*10^6 edges.
+func BenchmarkPlaceSourceCycles(b *testing.B) {
+	for _, k := range []int{10_000, 100_000} {
+		g := plSourceCycles(b, k, 1)
+		d := randomDevices(rand.New(rand.NewPCG(5, 5)), g.N(), 1000, 0, 0.02)
+		for _, tc := range []struct {
+			name string
+			d    Devices
+		}{{"unit", Devices{}}, {"costs", d}} {
+			b.Run(fmt.Sprintf("%s/edges=%d", tc.name, g.Edges()), func(b *testing.B) {
+				for i := 0; i < b.N; i++ {
+					if _, err := PlaceActuators(g, tc.d); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}

@@ -397,3 +397,86 @@ func TestPlacementShapes(t *testing.T) {
 		t.Errorf("chain: got %v, want [0]", pl.Devices)
 	}
 }
+
+// Costs too large for the exact tie-break still give the least cost
+// (brute force as above); costs whose sum overflows, negative costs and
+// contradictory or mis-sized tables are errors.
+func TestPlacementLargeCostsAndErrors(t *testing.T) {
+	rng := rand.New(rand.NewPCG(2, 2))
+	fallback := 0
+	for i := 0; i < 100; i++ {
+		n := 4 + rng.IntN(4)
+		g := plRandom(t, rng, n, 0.25)
+		o := newPlOracle(g)
+		d := randomDevices(rng, n, 3, 0.1, 0.1)
+		for v := range d.Cost {
+			d.Cost[v] *= 5e16 // the sum fits, times n+1 it often does not
+		}
+		pl, err := PlaceActuators(g, d)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !pl.FewestDevices {
+			fallback++
+		}
+		want := bruteForce(o, false, d)
+		if pl.Feasible != want.feasible || want.feasible && pl.Cost != want.cost {
+			t.Fatalf("trial %d: feasible %v cost %d, brute force %v cost %d", i, pl.Feasible, pl.Cost, want.feasible, want.cost)
+		}
+		if want.feasible && !o.controllable(maskOf(pl.Devices)) {
+			t.Fatalf("trial %d: set %v fails", i, pl.Devices)
+		}
+	}
+	if fallback < 20 {
+		t.Fatalf("only %d of 100 trials without the exact tie-break", fallback)
+	}
+	g := plNet(t, 3, [][2]int{{0, 1}, {1, 2}})
+	for _, tc := range []struct {
+		name string
+		d    Devices
+	}{
+		{"overflow", Devices{Cost: []int64{1 << 62, 1 << 62, 1}}},
+		{"negative", Devices{Cost: []int64{1, -1, 1}}},
+		{"short", Devices{Forbidden: []bool{true}}},
+		{"contradiction", Devices{Forbidden: []bool{false, true, false}, Existing: []bool{false, true, false}}},
+	} {
+		if _, err := PlaceActuators(g, tc.d); err == nil {
+			t.Errorf("%s: no error", tc.name)
+		}
+	}
+}
+
+// Long chains and deep alternating paths: every traversal is iterative
+// (common practice for 10^7-state networks; here 3*10^5 to keep the test
+// short).
+func TestPlacementLongChain(t *testing.T) {
+	const n = 300_000
+	b := NewIntBuilder(n, 0)
+	for v := 0; v+1 < n; v++ {
+		b.AddEdge(int32(v+1), int32(v)) // the head is the last state
+	}
+	g, err := b.Build(BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := Devices{Cost: make([]int64, n)}
+	for v := range d.Cost {
+		d.Cost[v] = int64(1 + v%7)
+	}
+	for _, dd := range []Devices{{}, d} {
+		pl, err := PlaceActuators(g, dd)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !pl.Feasible || len(pl.Devices) != 1 || pl.Devices[0] != n-1 {
+			t.Fatalf("chain: got %d devices (first %v), want the head %d", len(pl.Devices), pl.Devices[:min(3, len(pl.Devices))], n-1)
+		}
+		if r := pl.Roles(3); len(r) != 1 || !r[0].Forced {
+			t.Fatalf("chain head roles: %+v", r)
+		}
+	}
+	s, err := PlaceSensors(g, Devices{})
+	if err != nil || len(s.Devices) != 1 || s.Devices[0] != 0 {
+		t.Fatalf("chain sensors: %v %v", s.Devices, err)
+	}
+}
