@@ -1,0 +1,324 @@
+package render
+
+import (
+	"encoding/json"
+	"fmt"
+	"image/color"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"sync"
+
+	"github.com/fogleman/gg"
+	"golang.org/x/image/font"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
+	"golang.org/x/image/font/opentype"
+)
+
+// PNG pictures are drawn here from Graphviz's layout (its JSON output with
+// xdot drawing operations), not by go-graphviz's own image renderer, which
+// (v0.2.10) leaves filled shapes without outlines and drops some edges.
+// Text is set in the Go fonts, so a picture looks the same on every
+// machine.
+
+// maxPNGSide bounds the width and height of a PNG in pixels; pngScale is
+// the scale used when the picture fits (2 pixels per point).
+const (
+	maxPNGSide = 6000
+	pngScale   = 2.0
+)
+
+// xdotOp is one xdot drawing operation in Graphviz's JSON output.
+type xdotOp struct {
+	Op       string      `json:"op"`
+	Color    string      `json:"color"`
+	Style    string      `json:"style"`
+	Size     float64     `json:"size"`
+	Face     string      `json:"face"`
+	FontChar int         `json:"fontchar"`
+	Rect     []float64   `json:"rect"`
+	Points   [][]float64 `json:"points"`
+	Pt       []float64   `json:"pt"`
+	Align    string      `json:"align"`
+	Width    float64     `json:"width"`
+	Text     string      `json:"text"`
+}
+
+type xdotObject struct {
+	Draw   []xdotOp `json:"_draw_"`
+	LDraw  []xdotOp `json:"_ldraw_"`
+	HDraw  []xdotOp `json:"_hdraw_"`
+	TDraw  []xdotOp `json:"_tdraw_"`
+	HLDraw []xdotOp `json:"_hldraw_"`
+	TLDraw []xdotOp `json:"_tldraw_"`
+}
+
+type xdotGraph struct {
+	xdotObject
+	BB          string       `json:"bb"`
+	Pad         string       `json:"pad"`
+	OutputOrder string       `json:"outputorder"`
+	Subgraphs   int          `json:"_subgraph_cnt"`
+	Objects     []xdotObject `json:"objects"`
+	Edges       []xdotObject `json:"edges"`
+}
+
+// drawPNG draws a Graphviz JSON layout as PNG.
+func drawPNG(layout []byte, w io.Writer) error {
+	var g xdotGraph
+	if err := json.Unmarshal(layout, &g); err != nil {
+		return fmt.Errorf("render: reading Graphviz layout: %v", err)
+	}
+	var x0, y0, x1, y1 float64
+	if _, err := fmt.Sscanf(g.BB, "%g,%g,%g,%g", &x0, &y0, &x1, &y1); err != nil {
+		return fmt.Errorf("render: Graphviz layout has no bounding box (%q)", g.BB)
+	}
+	pad := 4.0
+	if p, err := strconv.ParseFloat(g.Pad, 64); err == nil {
+		pad = p * 72
+	}
+	x0, y0, x1, y1 = x0-pad, y0-pad, x1+pad, y1+pad
+	s := pngScale
+	if side := math.Max(x1-x0, y1-y0) * s; side > maxPNGSide {
+		s *= maxPNGSide / side
+	}
+	wpx := int(math.Ceil((x1 - x0) * s))
+	hpx := int(math.Ceil((y1 - y0) * s))
+	if wpx < 1 {
+		wpx = 1
+	}
+	if hpx < 1 {
+		hpx = 1
+	}
+	c := &canvas{dc: gg.NewContext(wpx, hpx), s: s, x0: x0, y1: y1}
+	c.dc.SetRGB(1, 1, 1)
+	c.dc.Clear()
+	c.dc.SetLineJoinRound()
+	c.dc.SetLineCapButt()
+	c.ops(g.Draw)
+	c.ops(g.LDraw)
+	n := g.Subgraphs
+	if n > len(g.Objects) {
+		n = len(g.Objects)
+	}
+	for _, o := range g.Objects[:n] {
+		c.ops(o.Draw)
+		c.ops(o.LDraw)
+	}
+	nodes := func() {
+		for _, o := range g.Objects[n:] {
+			c.ops(o.Draw)
+			c.ops(o.LDraw)
+		}
+	}
+	edges := func() {
+		for _, e := range g.Edges {
+			for _, l := range [][]xdotOp{e.Draw, e.HDraw, e.TDraw, e.LDraw, e.HLDraw, e.TLDraw} {
+				c.ops(l)
+			}
+		}
+	}
+	if g.OutputOrder == "edgesfirst" {
+		edges()
+		nodes()
+	} else {
+		nodes()
+		edges()
+	}
+	return c.dc.EncodePNG(w)
+}
+
+type canvas struct {
+	dc     *gg.Context
+	s      float64 // pixels per point
+	x0, y1 float64 // top-left corner in Graphviz points
+
+	pen, fill color.Color
+	width     float64
+	dash      []float64
+	size      float64
+	bold      bool
+}
+
+func (c *canvas) x(v float64) float64 { return (v - c.x0) * c.s }
+func (c *canvas) y(v float64) float64 { return (c.y1 - v) * c.s }
+
+// ops runs one xdot operation list; drawing state starts afresh for each
+// list, as in xdot.
+func (c *canvas) ops(list []xdotOp) {
+	if len(list) == 0 {
+		return
+	}
+	c.pen, c.fill = color.Black, color.Black
+	c.width, c.dash, c.size, c.bold = 1, nil, 14, false
+	for i := range list {
+		op := &list[i]
+		switch op.Op {
+		case "c":
+			c.pen = parseColor(op.Color)
+		case "C":
+			c.fill = parseColor(op.Color)
+		case "S":
+			c.style(op.Style)
+		case "F":
+			c.size = op.Size
+		case "t":
+			c.bold = op.FontChar&1 != 0
+		case "E", "e":
+			if len(op.Rect) == 4 {
+				c.dc.DrawEllipse(c.x(op.Rect[0]), c.y(op.Rect[1]), op.Rect[2]*c.s, op.Rect[3]*c.s)
+				c.paint(op.Op == "E", true)
+			}
+		case "P", "p", "L":
+			if len(op.Points) < 2 {
+				continue
+			}
+			c.dc.MoveTo(c.x(op.Points[0][0]), c.y(op.Points[0][1]))
+			for _, p := range op.Points[1:] {
+				c.dc.LineTo(c.x(p[0]), c.y(p[1]))
+			}
+			if op.Op != "L" {
+				c.dc.ClosePath()
+			}
+			c.paint(op.Op == "P", true)
+		case "B", "b":
+			if len(op.Points) < 4 {
+				continue
+			}
+			c.dc.MoveTo(c.x(op.Points[0][0]), c.y(op.Points[0][1]))
+			for k := 1; k+2 < len(op.Points); k += 3 {
+				p1, p2, p3 := op.Points[k], op.Points[k+1], op.Points[k+2]
+				c.dc.CubicTo(c.x(p1[0]), c.y(p1[1]), c.x(p2[0]), c.y(p2[1]), c.x(p3[0]), c.y(p3[1]))
+			}
+			// Graphviz's JSON writer (12.1) names a filled B-spline "B"
+			// and an unfilled one "b", the reverse of the xdot text
+			// format; edges come as "b".
+			c.paint(op.Op == "B", true)
+		case "T":
+			if len(op.Pt) == 2 && op.Text != "" {
+				c.text(op)
+			}
+		}
+	}
+}
+
+func (c *canvas) style(s string) {
+	switch {
+	case strings.HasPrefix(s, "setlinewidth("):
+		if v, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimPrefix(s, "setlinewidth("), ")"), 64); err == nil {
+			c.width = v
+		}
+	case s == "dashed":
+		c.dash = []float64{5, 2}
+	case s == "dotted":
+		c.dash = []float64{1, 3}
+	case s == "solid":
+		c.dash = nil
+	case s == "bold":
+		c.width = 2
+	case s == "invis", s == "invisible":
+		c.pen = color.Transparent
+		c.fill = color.Transparent
+	}
+}
+
+// paint fills the current path with the fill colour when filled, then
+// strokes it with the pen.
+func (c *canvas) paint(filled, stroke bool) {
+	if filled {
+		c.dc.SetColor(c.fill)
+		c.dc.FillPreserve()
+	}
+	if stroke {
+		c.dc.SetColor(c.pen)
+		c.dc.SetLineWidth(c.width * c.s)
+		if c.dash != nil {
+			d := make([]float64, len(c.dash))
+			for i, v := range c.dash {
+				d[i] = v * c.s * math.Max(1, c.width*0.6)
+			}
+			c.dc.SetDash(d...)
+		} else {
+			c.dc.SetDash()
+		}
+		c.dc.Stroke()
+	}
+	c.dc.ClearPath()
+}
+
+func (c *canvas) text(op *xdotOp) {
+	face := fontFace(c.bold, c.size*c.s)
+	if face == nil {
+		return
+	}
+	c.dc.SetFontFace(face)
+	c.dc.SetColor(c.pen)
+	ax := 0.5
+	switch op.Align {
+	case "l":
+		ax = 0
+	case "r":
+		ax = 1
+	}
+	c.dc.DrawStringAnchored(op.Text, c.x(op.Pt[0]), c.y(op.Pt[1]), ax, 0)
+}
+
+var (
+	fontMu    sync.Mutex
+	fontFaces = map[[2]float64]font.Face{}
+	fontSets  [2]*opentype.Font
+)
+
+// fontFace returns a Go font face of the given pixel size.
+func fontFace(bold bool, px float64) font.Face {
+	fontMu.Lock()
+	defer fontMu.Unlock()
+	k := 0
+	if bold {
+		k = 1
+	}
+	key := [2]float64{float64(k), math.Round(px*4) / 4}
+	if f, ok := fontFaces[key]; ok {
+		return f
+	}
+	if fontSets[k] == nil {
+		data := goregular.TTF
+		if bold {
+			data = gobold.TTF
+		}
+		f, err := opentype.Parse(data)
+		if err != nil {
+			return nil
+		}
+		fontSets[k] = f
+	}
+	face, err := opentype.NewFace(fontSets[k], &opentype.FaceOptions{Size: key[1], DPI: 72, Hinting: font.HintingNone})
+	if err != nil {
+		return nil
+	}
+	fontFaces[key] = face
+	return face
+}
+
+// parseColor reads an xdot colour: #rrggbb or #rrggbbaa (Graphviz writes
+// named colours in this form too); anything else is black.
+func parseColor(s string) color.Color {
+	if strings.HasPrefix(s, "#") && (len(s) == 7 || len(s) == 9) {
+		v, err := strconv.ParseUint(s[1:], 16, 32)
+		if err == nil {
+			if len(s) == 7 {
+				return color.NRGBA{uint8(v >> 16), uint8(v >> 8), uint8(v), 255}
+			}
+			return color.NRGBA{uint8(v >> 24), uint8(v >> 16), uint8(v >> 8), uint8(v)}
+		}
+	}
+	switch s {
+	case "white":
+		return color.White
+	case "transparent", "none", "invis":
+		return color.Transparent
+	}
+	return color.Black
+}
