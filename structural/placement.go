@@ -78,7 +78,7 @@ func (pl *Placement) CostOf(v int32) int64 { return pl.p.costOf(v) }
 // holding an unmatched allowed state, and to every forbidden state being
 // matched. This is the minimum-weight maximum-matching formulation of
 // Pequito, Kar & Aguiar, "Minimum cost input/output design for large-scale
-// linear structural systems", Automatica 68 (2016), solved here as a
+// linear structural systems", Automatica (2016), solved here as a
 // minimum-cost flow that exploits its shape:
 //
 //  1. Without the source components, the sets of states a matching covers

@@ -9,7 +9,7 @@ import (
 // DeviceCount is the minimum number of dedicated devices, with unit costs,
 // in the form of Pequito, Kar & Aguiar, "A framework for structural
 // input/output and control configuration selection in large-scale
-// systems", IEEE TAC 61(2):303-318 (2016): Count = Unmatched +
+// systems", IEEE TAC (2016): Count = Unmatched +
 // SourceComponents - Alpha.
 type DeviceCount struct {
 	// Feasible is false when forbidden states form a dilation that no

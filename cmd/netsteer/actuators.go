@@ -229,9 +229,16 @@ func (r *placeResult) writeText(out io.Writer) error {
 	bw := bufio.NewWriterSize(out, 1<<16)
 	ex := r.existing()
 	if pl.Feasible {
-		fmt.Fprintf(bw, "%s: %d %s make the network %s; the %d new %s cost %s in total.\n",
-			r.file, len(pl.Devices), plural(len(pl.Devices), w.device, w.devices), w.property,
-			len(pl.Added), plural(len(pl.Added), "one", "ones"), r.cost(pl.Cost))
+		nd := len(pl.Devices)
+		head := fmt.Sprintf("%s: %d %s %s the network %s", r.file, nd, plural(nd, w.device, w.devices), plural(nd, "makes", "make"), w.property)
+		switch {
+		case len(pl.Added) == 0:
+			fmt.Fprintf(bw, "%s: the existing %s enough; no new one is needed.\n", head, plural(nd, "one is", "ones are"))
+		case len(ex) == 0:
+			fmt.Fprintf(bw, "%s, at a total cost of %s.\n", head, r.cost(pl.Cost))
+		default:
+			fmt.Fprintf(bw, "%s: %d new (total cost %s) and %d existing.\n", head, len(pl.Added), r.cost(pl.Cost), len(ex))
+		}
 	} else {
 		fmt.Fprintf(bw, "%s: no placement the node table allows makes the network %s.\n", r.file, w.property)
 		if pl.Deficit > 0 {
