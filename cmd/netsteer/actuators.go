@@ -242,8 +242,8 @@ func (r *placeResult) writeText(out io.Writer) error {
 	} else {
 		fmt.Fprintf(bw, "%s: no placement the node table allows makes the network %s.\n", r.file, w.property)
 		if pl.Deficit > 0 {
-			fmt.Fprintf(bw, "Cannot be matched: %d %s form a %s (fewer %s than states) that needs %d more %s, but none of them may take one (%s=no): %s\n",
-				len(pl.Unmatchable), plural(len(pl.Unmatchable), "state", "states"), w.dilation, w.neighbours,
+			fmt.Fprintf(bw, "Cannot be matched: %d %s a %s (fewer %s than states) that needs %d more %s, but none of them may take one (%s=no): %s\n",
+				len(pl.Unmatchable), plural(len(pl.Unmatchable), "state forms", "states form"), w.dilation, w.neighbours,
 				pl.Deficit, plural(pl.Deficit, w.device, w.devices), w.canColumn, nameList(g, pl.Unmatchable, maxListed))
 		}
 		if len(pl.Unreached) > 0 {
@@ -308,7 +308,7 @@ func (r *placeResult) writeRolesText(bw *bufio.Writer) {
 			forced++
 		}
 	}
-	rest := "; the others could move"
+	rest := "; each other one could move, on its own, to a state listed"
 	if forced == len(r.roles) {
 		rest = ""
 	}
