@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"slices"
-	"sort"
 
 	"github.com/netsteer/netsteer/matching"
 )
@@ -107,10 +106,8 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	if n == 0 {
 		return nil, errors.New("structural: empty network")
 	}
-	if b.unindexed {
-		b.names.reindex()
-		b.unindexed = false
-	}
+	reindex := b.unindexed
+	b.unindexed = false
 	b.dense, b.overflow = nil, nil
 	src, dst, w := b.src, b.dst, b.w
 	b.src, b.dst, b.w = nil, nil, nil
@@ -150,7 +147,20 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		return nil, errors.New("structural: too many edges")
 	}
 	g := &Network{names: b.names}
+	// The in-rows are built from the edges at the same time as the
+	// out-rows, on another core, with the name index.
+	inDone := make(chan struct{})
+	go func() {
+		defer close(inDone)
+		inPtr, inAdj, _ := sortBySource(n, dst, src, nil)
+		q := dedupe(inPtr, inAdj)
+		g.In = matching.CSR{Rows: n, Cols: n, Ptr: inPtr, Adj: trim(inAdj, q)}
+		if reindex {
+			b.names.reindex()
+		}
+	}()
 	outPtr, outAdj, outW := sortBySource(n, src, dst, w)
+	<-inDone
 	src, dst, w = nil, nil, nil
 	// Merge repeats in place.
 	merged, loops := 0, 0
@@ -177,23 +187,47 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		}
 	}
 	outPtr[n] = q
-	if int(q) < len(outAdj)-len(outAdj)/8 {
-		// Many repeats: release the tail.
-		outAdj = append([]int32(nil), outAdj[:q]...)
-		if outW != nil {
+	outAdj = trim(outAdj, q)
+	if outW != nil {
+		if int(q) < len(outW)-len(outW)/8 {
 			outW = append([]float64(nil), outW[:q]...)
 		}
-	}
-	outAdj = outAdj[:q:q]
-	if outW != nil {
 		outW = outW[:q:q]
 	}
 	g.Out = matching.CSR{Rows: n, Cols: n, Ptr: outPtr, Adj: outAdj}
 	g.OutW = outW
-	g.In = *matching.Transpose(&g.Out)
 	g.SelfLoops = loops
 	g.DuplicatesMerged = merged
 	return g, nil
+}
+
+// dedupe drops repeated entries from the sorted rows in place, updating
+// ptr, and returns the number of entries kept.
+func dedupe(ptr []int64, adj []int32) int64 {
+	n := len(ptr) - 1
+	var q int64
+	for u := 0; u < n; u++ {
+		lo, hi := ptr[u], ptr[u+1]
+		ptr[u] = q
+		for k := lo; k < hi; k++ {
+			if k > lo && adj[k] == adj[k-1] {
+				continue
+			}
+			adj[q] = adj[k]
+			q++
+		}
+	}
+	ptr[n] = q
+	return q
+}
+
+// trim returns adj[:q], copied when many entries were dropped so that the
+// tail's memory is released.
+func trim(adj []int32, q int64) []int32 {
+	if int(q) < len(adj)-len(adj)/8 {
+		return append([]int32(nil), adj[:q]...)
+	}
+	return adj[:q:q]
 }
 
 // sortBySource returns the edges as rows by source: a counting sort by
@@ -227,23 +261,80 @@ func sortBySource(n int, src, dst []int32, w []float64) ([]int64, []int32, []flo
 		}
 	}
 	ptr = ptr[:n+1]
+	var rs radixSorter
 	for u := 0; u < n; u++ {
 		lo, hi := ptr[u], ptr[u+1]
 		if hi-lo < 2 {
 			continue
 		}
 		row := adj[lo:hi]
-		if ow == nil {
-			if len(row) <= 24 {
+		var rw []float64
+		if ow != nil {
+			rw = ow[lo:hi]
+		}
+		switch {
+		case len(row) <= 24:
+			if rw == nil {
 				insertionSort(row)
 			} else {
-				slices.Sort(row)
+				sortWeighted(row, rw)
 			}
-			continue
+		case len(row) < 256 && rw == nil:
+			slices.Sort(row)
+		default:
+			// Hubs: a stable LSD radix sort keeps scale-free inputs as
+			// cheap per edge as uniform ones.
+			rs.sort(row, rw, n)
 		}
-		sortWeighted(row, ow[lo:hi])
 	}
 	return ptr, adj, ow
+}
+
+// radixSorter sorts rows by bytes, least significant first, stably,
+// reusing its buffers.
+type radixSorter struct {
+	a []int32
+	w []float64
+}
+
+// sort sorts a (and w with it, when not nil); values are below n.
+func (s *radixSorter) sort(a []int32, w []float64, n int) {
+	if cap(s.a) < len(a) {
+		s.a = make([]int32, len(a))
+	}
+	ta := s.a[:len(a)]
+	var tw []float64
+	if w != nil {
+		if cap(s.w) < len(w) {
+			s.w = make([]float64, len(w))
+		}
+		tw = s.w[:len(w)]
+	}
+	for shift := uint(0); shift < 32 && n>>shift > 0; shift += 8 {
+		var count [257]int
+		for _, x := range a {
+			count[int(uint32(x)>>shift&0xff)+1]++
+		}
+		if count[int(uint32(a[0])>>shift&0xff)+1] == len(a) {
+			continue // one digit for all: nothing moves
+		}
+		for i := 1; i < 257; i++ {
+			count[i] += count[i-1]
+		}
+		for i, x := range a {
+			d := uint32(x) >> shift & 0xff
+			p := count[d]
+			count[d] = p + 1
+			ta[p] = x
+			if w != nil {
+				tw[p] = w[i]
+			}
+		}
+		copy(a, ta)
+		if w != nil {
+			copy(w, tw)
+		}
+	}
 }
 
 func insertionSort(a []int32) {
@@ -258,31 +349,16 @@ func insertionSort(a []int32) {
 	}
 }
 
-// sortWeighted sorts a row by target, stably, carrying the weights along.
+// sortWeighted insertion-sorts a short row by target, stably, carrying the
+// weights along.
 func sortWeighted(a []int32, w []float64) {
-	if len(a) <= 24 {
-		for i := 1; i < len(a); i++ {
-			x, y := a[i], w[i]
-			j := i
-			for j > 0 && a[j-1] > x {
-				a[j], w[j] = a[j-1], w[j-1]
-				j--
-			}
-			a[j], w[j] = x, y
+	for i := 1; i < len(a); i++ {
+		x, y := a[i], w[i]
+		j := i
+		for j > 0 && a[j-1] > x {
+			a[j], w[j] = a[j-1], w[j-1]
+			j--
 		}
-		return
+		a[j], w[j] = x, y
 	}
-	sort.Stable(weightedRow{a, w})
-}
-
-type weightedRow struct {
-	a []int32
-	w []float64
-}
-
-func (r weightedRow) Len() int           { return len(r.a) }
-func (r weightedRow) Less(i, j int) bool { return r.a[i] < r.a[j] }
-func (r weightedRow) Swap(i, j int) {
-	r.a[i], r.a[j] = r.a[j], r.a[i]
-	r.w[i], r.w[j] = r.w[j], r.w[i]
 }
