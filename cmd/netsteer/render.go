@@ -481,21 +481,24 @@ func runRender(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if err != nil {
 		return usageError(e, c, "%v", err)
 	}
-	var v *render.View
+	v, err := render.Select(in, opt)
+	if err != nil {
+		return fail(e, err)
+	}
+	if v.Nodes() > render.SlowNodes && f != render.FormatDOT {
+		fmt.Fprintf(e.Stderr, "netsteer: drawing %d nodes: the layout may take minutes (see --max-nodes)\n", v.Nodes())
+	}
 	t0 := time.Now()
 	err = fileout.Write(*output, e.Stdout, func(w io.Writer) error {
-		var err error
-		v, err = render.Draw(context.Background(), in, opt, pf.layout, f, w)
-		return err
+		return render.DrawView(context.Background(), in, v, pf.layout, f, w)
 	})
 	if err != nil {
 		return fail(e, err)
 	}
 	if *output != "-" {
-		drawn := len(v.States)
-		what := "states"
+		drawn, what := v.Nodes(), "states"
 		if v.Kind == render.Condensation {
-			drawn, what = len(v.Comps), "nodes"
+			what = "nodes"
 		}
 		fmt.Fprintf(e.Stdout, "%s: %s; %d %s drawn (%s).\n", *output, render.Summary(in), drawn, what, v.Desc)
 		for _, n := range in.Notes {

@@ -141,7 +141,13 @@ func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "%v", err)
 	}
 	var svg bytes.Buffer
-	v, err := render.Draw(context.Background(), in, opt, pf.layout, render.FormatSVG, &svg)
+	v, err := render.Select(in, opt)
+	if err == nil {
+		if v.Nodes() > render.SlowNodes {
+			fmt.Fprintf(e.Stderr, "netsteer: drawing %d nodes: the layout may take minutes (see --max-nodes)\n", v.Nodes())
+		}
+		err = render.DrawView(context.Background(), in, v, pf.layout, render.FormatSVG, &svg)
+	}
 	if err != nil {
 		r.PictureError = "The picture could not be drawn: " + err.Error()
 	} else {
