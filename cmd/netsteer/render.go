@@ -496,9 +496,9 @@ func runRender(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return fail(e, err)
 	}
 	if *output != "-" {
-		drawn, what := v.Nodes(), "states"
+		drawn, what := v.Nodes(), plural(v.Nodes(), "state", "states")
 		if v.Kind == render.Condensation {
-			what = "nodes"
+			what = plural(drawn, "node", "nodes")
 		}
 		fmt.Fprintf(e.Stdout, "%s: %s; %d %s drawn (%s).\n", *output, render.Summary(in), drawn, what, v.Desc)
 		for _, n := range in.Notes {

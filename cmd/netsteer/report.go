@@ -272,7 +272,7 @@ func (a *analysis) answers(r *htmlreport.Review, pf *pictureFlags) {
 	nd := len(a.ds.Drivers)
 	r.Answers = append(r.Answers, htmlreport.Answer{
 		Topic:    "Network",
-		Headline: fmt.Sprintf("%d states, %d edges; %d independent control %s needed (N_D).", n, g.Edges(), nd, plural(nd, "signal", "signals")),
+		Headline: fmt.Sprintf("%d %s, %d %s; %d independent control %s needed (N_D).", n, plural(n, "state", "states"), g.Edges(), plural(g.Edges(), "edge", "edges"), nd, plural(nd, "signal", "signals")),
 		Facts: []htmlreport.Fact{
 			fact("States", strconv.Itoa(n)),
 			fact("Edges", fmt.Sprintf("%d (%d self-loops, %d repeats merged)", g.Edges(), g.SelfLoops, g.DuplicatesMerged)),
@@ -316,7 +316,7 @@ func (a *analysis) placementAnswer(topic, kind, property string, p *structural.P
 	ans := htmlreport.Answer{Topic: topic}
 	if p.Feasible {
 		ans.OK = htmlreport.Yes()
-		ans.Headline = fmt.Sprintf("%d dedicated %s make it structurally %s.", len(p.Devices), plural(len(p.Devices), kind, kind+"s"), property)
+		ans.Headline = fmt.Sprintf("%d dedicated %s it structurally %s.", len(p.Devices), plural(len(p.Devices), kind+" makes", kind+"s make"), property)
 	} else {
 		ans.OK = htmlreport.No()
 		ans.Headline = fmt.Sprintf("No placement of dedicated %ss can make it structurally %s under the restrictions.", kind, property)

@@ -8,6 +8,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -116,6 +117,18 @@ func TestBrowser(t *testing.T) {
 	pages := len(regexp.MustCompile(`/Type\s*/Page[^s]`).FindAll(data, -1))
 	if !bytes.HasPrefix(data, []byte("%PDF")) || pages < 2 || pages > 12 {
 		t.Errorf("PDF of %d bytes and %d pages, want 2..12 pages", len(data), pages)
+	}
+	// The wide picture gets a landscape page of its own.
+	landscape := 0
+	for _, m := range regexp.MustCompile(`/MediaBox\s*\[\s*0 0 ([0-9.]+) ([0-9.]+)\s*\]`).FindAllSubmatch(data, -1) {
+		w, _ := strconv.ParseFloat(string(m[1]), 64)
+		h, _ := strconv.ParseFloat(string(m[2]), 64)
+		if w > h {
+			landscape++
+		}
+	}
+	if landscape != 1 {
+		t.Errorf("%d landscape pages, want 1 (the picture's)", landscape)
 	}
 	t.Logf("printed to %d pages", pages)
 }

@@ -2,9 +2,12 @@ package htmlreport
 
 import (
 	"bufio"
+	"bytes"
 	_ "embed"
+	"encoding/xml"
 	"html/template"
 	"io"
+	"strconv"
 	"strings"
 )
 
@@ -88,7 +91,8 @@ var page = template.Must(template.New("page").Funcs(template.FuncMap{
 func Write(w io.Writer, r *Review) error {
 	data := struct {
 		*Review
-		SVG template.HTML
+		SVG  template.HTML
+		Wide bool // print the picture on a landscape page
 	}{Review: r}
 	if len(r.Picture) > 0 && r.PictureError == "" {
 		svg, err := SanitizeSVG(r.Picture)
@@ -96,10 +100,36 @@ func Write(w io.Writer, r *Review) error {
 			return err
 		}
 		data.SVG = svg
+		w, h := svgSize(r.Picture)
+		data.Wide = w > 1.2*h
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
 	if err := page.Execute(bw, data); err != nil {
 		return err
 	}
 	return bw.Flush()
+}
+
+// svgSize returns the width and height of an SVG document's root element
+// in its own units (Graphviz writes points), or zeros.
+func svgSize(svg []byte) (w, h float64) {
+	dec := xml.NewDecoder(bytes.NewReader(svg))
+	for {
+		tok, err := dec.RawToken()
+		if err != nil {
+			return 0, 0
+		}
+		if e, ok := tok.(xml.StartElement); ok {
+			for _, a := range e.Attr {
+				v, _ := strconv.ParseFloat(strings.TrimRight(a.Value, "ptxm"), 64)
+				switch a.Name.Local {
+				case "width":
+					w = v
+				case "height":
+					h = v
+				}
+			}
+			return w, h
+		}
+	}
 }

@@ -270,7 +270,7 @@ func aroundView(in *Input, opt Options) (*View, error) {
 		}
 		names += g.Name(c)
 	}
-	v.Desc = fmt.Sprintf("neighbourhood of %s within %d %s: %d states", names, hops, plural(hops, "link", "links"), len(states))
+	v.Desc = fmt.Sprintf("neighbourhood of %s within %d %s: %d %s", names, hops, plural(hops, "link", "links"), len(states), plural(len(states), "state", "states"))
 	if truncated {
 		v.Desc += fmt.Sprintf(" (cut at the limit of %d, nearest first)", max)
 	}
@@ -317,7 +317,7 @@ func drivenView(in *Input, opt Options) (*View, error) {
 	v := statesView(in, opt, states, true)
 	v.Kind = OnlyDriven
 	kind := in.inputKind()
-	v.Desc = fmt.Sprintf("driven states and their stems: %d states", len(states))
+	v.Desc = fmt.Sprintf("driven states and their stems: %d %s", len(states), plural(len(states), "state", "states"))
 	if signals < len(in.Inputs) || cut {
 		v.Desc += fmt.Sprintf(", first %d of %d %ss (limit %d states)", signals, len(in.Inputs), kind, max)
 	}
