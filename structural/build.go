@@ -23,7 +23,12 @@ type BuildOptions struct {
 // Builder collects named states and edges and builds a Network. The zero
 // value is not usable; call NewBuilder or NewIntBuilder.
 type Builder struct {
-	names    *Names
+	names *Names
+	// Edges are kept in segments, so that growing never copies them: the
+	// full ones in segs, the one being filled in src, dst and w (w only
+	// once an edge has had a weight).
+	segs     []segment
+	sealed   int // edges in segs
 	src, dst []int32
 	w        []float64
 	weighted bool
@@ -43,17 +48,41 @@ func NewIntBuilder(n, base int) *Builder { return &Builder{names: IntNames(n, ba
 
 // Grow reserves room for n more edges.
 func (b *Builder) Grow(n int) {
-	if n <= 0 {
-		return
+	if n > 0 && cap(b.src)-len(b.src) < n {
+		b.newSegment(n)
 	}
-	if cap(b.src)-len(b.src) < n {
-		src := make([]int32, len(b.src), len(b.src)+n)
-		copy(src, b.src)
-		b.src = src
-		dst := make([]int32, len(b.dst), len(b.dst)+n)
-		copy(dst, b.dst)
-		b.dst = dst
+}
+
+// segment is a run of edges.
+type segment struct {
+	src, dst []int32
+	w        []float64
+}
+
+// maxSegment is the size of a segment once segments stop doubling.
+const maxSegment = 1 << 20
+
+// newSegment seals the segment being filled and starts one with room for
+// at least min edges.
+func (b *Builder) newSegment(min int) {
+	size := max(min, 1024, minInt(2*cap(b.src), maxSegment))
+	if len(b.src) > 0 {
+		b.segs = append(b.segs, segment{b.src, b.dst, b.w})
+		b.sealed += len(b.src)
 	}
+	b.src = make([]int32, 0, size)
+	b.dst = make([]int32, 0, size)
+	b.w = nil
+	if b.weighted {
+		b.w = make([]float64, 0, size)
+	}
+}
+
+func minInt(a, b int) int {
+	if a < b {
+		return a
+	}
+	return b
 }
 
 // Intern returns the index of the named state, adding it when new.
@@ -74,10 +103,13 @@ func (b *Builder) Intern(name []byte) (int32, error) {
 func (b *Builder) States() int { return b.names.n }
 
 // Edges returns the number of edges added so far, repeats included.
-func (b *Builder) Edges() int { return len(b.src) }
+func (b *Builder) Edges() int { return b.sealed + len(b.src) }
 
 // AddEdge records u -> v.
 func (b *Builder) AddEdge(u, v int32) {
+	if len(b.src) == cap(b.src) {
+		b.newSegment(0)
+	}
 	b.src = append(b.src, u)
 	b.dst = append(b.dst, v)
 	if b.weighted {
@@ -90,14 +122,26 @@ func (b *Builder) AddEdge(u, v int32) {
 func (b *Builder) AddWeightedEdge(u, v int32, w float64) {
 	if !b.weighted {
 		b.weighted = true
-		b.w = make([]float64, len(b.src), cap(b.src))
-		for i := range b.w {
-			b.w[i] = 1
+		for i := range b.segs {
+			b.segs[i].w = ones(len(b.segs[i].src), len(b.segs[i].src))
 		}
+		b.w = ones(len(b.src), cap(b.src))
+	}
+	if len(b.src) == cap(b.src) {
+		b.newSegment(0)
 	}
 	b.src = append(b.src, u)
 	b.dst = append(b.dst, v)
 	b.w = append(b.w, w)
+}
+
+// ones returns n weights of 1 with room for c.
+func ones(n, c int) []float64 {
+	w := make([]float64, n, c)
+	for i := range w {
+		w[i] = 1
+	}
+	return w
 }
 
 // Build returns the Network. The Builder must not be used afterwards.
@@ -109,16 +153,18 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	reindex := b.unindexed
 	b.unindexed = false
 	b.dense, b.overflow = nil, nil
-	src, dst, w := b.src, b.dst, b.w
-	b.src, b.dst, b.w = nil, nil, nil
 	if opt.Undirected {
-		m := len(src)
-		for i := 0; i < m; i++ {
-			if src[i] != dst[i] {
-				src = append(src, dst[i])
-				dst = append(dst, src[i])
-				if w != nil {
-					w = append(w, w[i])
+		// Every edge u -> v, u != v, gains v -> u. The loop runs over a
+		// copy of the segment list, which grows meanwhile.
+		segs := append(append([]segment(nil), b.segs...), segment{b.src, b.dst, b.w})
+		for _, sg := range segs {
+			for i, u := range sg.src {
+				if v := sg.dst[i]; u != v {
+					if sg.w != nil {
+						b.AddWeightedEdge(v, u, sg.w[i])
+					} else {
+						b.AddEdge(v, u)
+					}
 				}
 			}
 		}
@@ -127,24 +173,32 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		// Only states without a loop of their own get one, so an input
 		// loop keeps its weight and is not counted as a repeat.
 		has := make([]bool, n)
-		for i, u := range src {
-			if u == dst[i] {
-				has[u] = true
+		for _, sg := range append(b.segs, segment{b.src, b.dst, b.w}) {
+			for i, u := range sg.src {
+				if u == sg.dst[i] {
+					has[u] = true
+				}
 			}
 		}
 		for u := 0; u < n; u++ {
-			if has[u] {
-				continue
-			}
-			src = append(src, int32(u))
-			dst = append(dst, int32(u))
-			if w != nil {
-				w = append(w, 1)
+			if !has[u] {
+				b.AddEdge(int32(u), int32(u))
 			}
 		}
 	}
-	if int64(len(src)) >= 1<<40 {
+	if int64(b.Edges()) >= 1<<40 {
 		return nil, errors.New("structural: too many edges")
+	}
+	segs := append(b.segs, segment{b.src, b.dst, b.w})
+	b.segs, b.src, b.dst, b.w = nil, nil, nil, nil
+	m := b.sealed + len(segs[len(segs)-1].src)
+	var src, dst [][]int32
+	var w [][]float64
+	for _, sg := range segs {
+		src, dst = append(src, sg.src), append(dst, sg.dst)
+		if b.weighted {
+			w = append(w, sg.w)
+		}
 	}
 	g := &Network{names: b.names}
 	// The in-rows are built from the edges at the same time as the
@@ -152,16 +206,16 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	inDone := make(chan struct{})
 	go func() {
 		defer close(inDone)
-		inPtr, inAdj, _ := sortBySource(n, dst, src, nil)
+		inPtr, inAdj, _ := sortBySource(n, m, dst, src, nil)
 		q := dedupe(inPtr, inAdj)
 		g.In = matching.CSR{Rows: n, Cols: n, Ptr: inPtr, Adj: trim(inAdj, q)}
 		if reindex {
 			b.names.reindex()
 		}
 	}()
-	outPtr, outAdj, outW := sortBySource(n, src, dst, w)
+	outPtr, outAdj, outW := sortBySource(n, m, src, dst, w)
 	<-inDone
-	src, dst, w = nil, nil, nil
+	src, dst, w, segs = nil, nil, nil, nil
 	// Merge repeats in place.
 	merged, loops := 0, 0
 	var q int64
@@ -233,30 +287,38 @@ func trim(adj []int32, q int64) []int32 {
 // sortBySource returns the edges as rows by source: a counting sort by
 // source, stable in input order, then each row sorted by target, stably,
 // so repeated edges stay in input order and their weights add up in it.
-func sortBySource(n int, src, dst []int32, w []float64) ([]int64, []int32, []float64) {
+func sortBySource(n, m int, src, dst [][]int32, w [][]float64) ([]int64, []int32, []float64) {
 	// ptr[u+2] counts u's edges; after the prefix sum ptr[u+1] is where
 	// row u starts, and the scatter advances it to where row u ends.
 	ptr := make([]int64, n+2)
-	for _, u := range src {
-		ptr[u+2]++
+	for _, seg := range src {
+		for _, u := range seg {
+			ptr[u+2]++
+		}
 	}
 	for u := 2; u <= n; u++ {
 		ptr[u] += ptr[u-1]
 	}
-	adj := make([]int32, len(src))
+	adj := make([]int32, m)
 	var ow []float64
 	if w != nil {
-		ow = make([]float64, len(src))
-		for i, u := range src {
-			p := ptr[u+1]
-			adj[p] = dst[i]
-			ow[p] = w[i]
-			ptr[u+1] = p + 1
+		ow = make([]float64, m)
+	}
+	for s, seg := range src {
+		ds := dst[s][:len(seg)]
+		if w != nil {
+			ws := w[s][:len(seg)]
+			for i, u := range seg {
+				p := ptr[u+1]
+				adj[p] = ds[i]
+				ow[p] = ws[i]
+				ptr[u+1] = p + 1
+			}
+			continue
 		}
-	} else {
-		for i, u := range src {
+		for i, u := range seg {
 			p := ptr[u+1]
-			adj[p] = dst[i]
+			adj[p] = ds[i]
 			ptr[u+1] = p + 1
 		}
 	}

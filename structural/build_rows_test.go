@@ -13,12 +13,19 @@ import (
 // CSR rows sorted and duplicate-free is the convention of doc.go).
 func TestBuildHubRows(t *testing.T) {
 	r := rand.New(rand.NewPCG(8, 9))
-	for trial := 0; trial < 12; trial++ {
-		n := []int{300, 5000, 70000}[trial%3]
+	for trial := 0; trial < 24; trial++ {
+		n := []int{300, 3000, 30000}[trial%3]
 		weighted := trial%2 == 0
+		// Trials 12.. add the options, on inputs spanning many segments.
+		opt := BuildOptions{Undirected: trial >= 12 && trial%4 < 2, SelfDynamics: trial >= 12 && trial%4 >= 1}
 		b := NewIntBuilder(n, 0)
 		type key struct{ u, v int32 }
 		want := map[key]float64{}
+		type wedge struct {
+			u, v int32
+			w    float64
+		}
+		var in []wedge
 		for k := 0; k < 6*n; k++ {
 			u := int32(r.IntN(n))
 			if r.IntN(3) == 0 {
@@ -32,12 +39,33 @@ func TestBuildHubRows(t *testing.T) {
 				x := float64(1+r.IntN(7)) / 10 // sums depend on order: repeats must add up in input order
 				b.AddWeightedEdge(u, v, x)
 				want[key{u, v}] += x
+				in = append(in, wedge{u, v, x})
 			} else {
 				b.AddEdge(u, v)
 				want[key{u, v}] = 1
+				in = append(in, wedge{u, v, 1})
 			}
 		}
-		g, err := b.Build(BuildOptions{})
+		if opt.Undirected {
+			// The reversed copies follow all input edges, in input order.
+			for _, e := range in {
+				if e.u != e.v {
+					if weighted {
+						want[key{e.v, e.u}] += e.w
+					} else {
+						want[key{e.v, e.u}] = 1
+					}
+				}
+			}
+		}
+		if opt.SelfDynamics {
+			for u := int32(0); int(u) < n; u++ {
+				if _, ok := want[key{u, u}]; !ok {
+					want[key{u, u}] = 1
+				}
+			}
+		}
+		g, err := b.Build(opt)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -42,8 +42,11 @@ func SCC(g *matching.CSR) Components {
 	// is above it.
 	rindex := make([]int32, n)
 	notSource := make([]bool, n+1) // by c
-	call := make([]sccFrame, 0, 64)
-	stack := make([]int32, 0, 64)
+	// Both stacks can hold every state (a chain); the capacity is reserved
+	// up front, so deep searches never copy them, and memory is touched only
+	// as deep as the search goes.
+	call := make([]sccFrame, 0, n)
+	stack := make([]int32, 0, n)
 	index := int32(1)
 	c := int32(n)
 	ptr, adj := g.Ptr, g.Adj
