@@ -84,8 +84,11 @@ func run(e *env, args []string) int {
 	case "help", "-h", "--help":
 		if len(args) > 1 {
 			if c, ok := commands[args[1]]; ok {
-				fmt.Fprint(e.Stdout, c.usage)
-				return exitOK
+				// The same text as "netsteer COMMAND --help", options included.
+				fs := pflag.NewFlagSet(c.name, pflag.ContinueOnError)
+				fs.SetOutput(io.Discard)
+				fs.SortFlags = false
+				return c.run(e, c, fs, []string{"--help"})
 			}
 			fmt.Fprintf(e.Stderr, "netsteer: unknown command %q\n", args[1])
 			return exitError
