@@ -68,7 +68,7 @@ type xdotGraph struct {
 // drawPNG draws a Graphviz JSON layout as PNG.
 func drawPNG(layout []byte, w io.Writer) error {
 	var g xdotGraph
-	if err := json.Unmarshal(layout, &g); err != nil {
+	if err := json.Unmarshal(jsonControls(layout), &g); err != nil {
 		return fmt.Errorf("render: reading Graphviz layout: %v", err)
 	}
 	var x0, y0, x1, y1 float64
@@ -204,24 +204,53 @@ func (c *canvas) ops(list []xdotOp) {
 	}
 }
 
+// style applies an xdot style. Graphviz 12.1's JSON writer sometimes
+// runs past the end of a style string (a missing terminator in the wasm
+// build: "dashed" comes out followed by whatever lies behind it in
+// memory), so styles are recognised by their prefix.
 func (c *canvas) style(s string) {
 	switch {
 	case strings.HasPrefix(s, "setlinewidth("):
-		if v, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimPrefix(s, "setlinewidth("), ")"), 64); err == nil {
-			c.width = v
+		v := strings.TrimPrefix(s, "setlinewidth(")
+		if i := strings.IndexByte(v, ')'); i >= 0 {
+			if w, err := strconv.ParseFloat(v[:i], 64); err == nil {
+				c.width = w
+			}
 		}
-	case s == "dashed":
+	case strings.HasPrefix(s, "dashed"):
 		c.dash = []float64{5, 2}
-	case s == "dotted":
+	case strings.HasPrefix(s, "dotted"):
 		c.dash = []float64{1, 3}
-	case s == "solid":
+	case strings.HasPrefix(s, "solid"):
 		c.dash = nil
-	case s == "bold":
+	case strings.HasPrefix(s, "bold"):
 		c.width = 2
-	case s == "invis", s == "invisible":
+	case strings.HasPrefix(s, "invis"):
 		c.pen = color.Transparent
 		c.fill = color.Transparent
 	}
+}
+
+// jsonControls replaces raw control bytes inside JSON strings with
+// spaces, in place: the overrun described at style can carry them, and
+// encoding/json rejects them.
+func jsonControls(b []byte) []byte {
+	in, esc := false, false
+	for i, c := range b {
+		switch {
+		case !in:
+			in = c == '"'
+		case esc:
+			esc = false
+		case c == '\\':
+			esc = true
+		case c == '"':
+			in = false
+		case c < 0x20:
+			b[i] = ' '
+		}
+	}
+	return b
 }
 
 // paint fills the current path with the fill colour when filled, then

@@ -5,7 +5,6 @@ import (
 	"context"
 	"encoding/xml"
 	"flag"
-	"image"
 	"image/color"
 	"image/png"
 	"io"
@@ -387,7 +386,6 @@ func TestPNG(t *testing.T) {
 			t.Errorf("%s: %d pixels, want at least 200", c.name, n)
 		}
 	}
-	_ = image.Point{}
 }
 
 // TestSelectViews checks the views against independent computations on
@@ -533,4 +531,57 @@ func undirectedDistances(g *structural.Network) [][]int {
 		}
 	}
 	return d
+}
+
+// TestPNGFromDamagedLayout feeds drawPNG the kind of JSON Graphviz 12.1's
+// writer sometimes produces: a style string run on into raw memory, with
+// control bytes. The picture must still be drawn.
+func TestPNGFromDamagedLayout(t *testing.T) {
+	layout := "{\"bb\": \"0,0,100,50\", \"pad\": \"0.1\", \"_subgraph_cnt\": 0, \"objects\": [],\n" +
+		"\"edges\": [{\"_draw_\": [{\"op\": \"S\", \"style\": \"dashed(limit\x1a\n\\\"%s\\\",\x89PNG\"}," +
+		"{\"op\": \"c\", \"grad\": \"none\", \"color\": \"#0072b2\"}, {\"op\": \"S\", \"style\": \"setlinewidth(3)garbage)\"}," +
+		"{\"op\": \"b\", \"points\": [[0,0],[30,10],[60,40],[100,50]]}]}]}"
+	var b bytes.Buffer
+	if err := drawPNG([]byte(layout), &b); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(&b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	blue := 0
+	r := img.Bounds()
+	for y := r.Min.Y; y < r.Max.Y; y++ {
+		for x := r.Min.X; x < r.Max.X; x++ {
+			if c := color.NRGBAModel.Convert(img.At(x, y)).(color.NRGBA); c.B > 0x90 && c.R < 0x40 {
+				blue++
+			}
+		}
+	}
+	if blue < 50 {
+		t.Errorf("the edge was not drawn (%d blue pixels)", blue)
+	}
+}
+
+// TestPNGForceDirected draws a deep random network (the sfdp layout) as
+// PNG.
+func TestPNGForceDirected(t *testing.T) {
+	rng := rand.New(rand.NewPCG(4, 4))
+	g := randomNet(t, rng, 60, 2.5)
+	ds := structural.MinimumDrivers(g)
+	in := &Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching}
+	v, err := Select(in, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if l, _ := ChooseLayout(AutoLayout, v); l != "sfdp" {
+		t.Fatalf("layout %s, want sfdp for a deep random network", l)
+	}
+	var b bytes.Buffer
+	if err := DrawView(context.Background(), in, v, AutoLayout, FormatPNG, &b); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := png.Decode(&b); err != nil {
+		t.Fatal(err)
+	}
 }
