@@ -271,7 +271,7 @@ func (v verdictView) fix(g *structural.Network) string {
 	}
 	if s := v.dilation; s != nil {
 		if len(s) == 1 {
-			parts = append(parts, fmt.Sprintf("%s has no %s at all: it needs its own %s", g.Name(s[0]), strings.TrimSuffix(v.words.neighbours, "s"), v.words.device))
+			parts = append(parts, fmt.Sprintf("%s has no %s at all: it needs its own %s", textName(g.Name(s[0])), strings.TrimSuffix(v.words.neighbours, "s"), v.words.device))
 		} else {
 			m := len(v.neighbours) + len(v.signals)
 			parts = append(parts, fmt.Sprintf("these %d states share only %d %s: one more %s needed among them (%s)",
@@ -289,7 +289,7 @@ func (r *checkResult) writeText(w io.Writer) error {
 	for i, v := range vs {
 		heads[i] = v.headline(g.N())
 	}
-	fmt.Fprintf(bw, "%s: %s.\n", r.file, strings.Join(heads, "; "))
+	fmt.Fprintf(bw, "%s: %s.\n", displayFile(r.file), strings.Join(heads, "; "))
 	for _, v := range vs {
 		if !v.holds {
 			lead := "To fix"
@@ -299,13 +299,14 @@ func (r *checkResult) writeText(w io.Writer) error {
 			fmt.Fprintf(bw, "%s: %s.\n", lead, v.fix(g))
 		}
 	}
-	fmt.Fprintf(bw, "\nNetwork: %d states, %d edges (%d %s).\n", g.N(), g.Edges(), g.SelfLoops, plural(g.SelfLoops, "self-loop", "self-loops"))
+	fmt.Fprintf(bw, "\nNetwork: %d %s, %d %s (%d %s).\n", g.N(), plural(g.N(), "state", "states"),
+		g.Edges(), plural(g.Edges(), "edge", "edges"), g.SelfLoops, plural(g.SelfLoops, "self-loop", "self-loops"))
 	for _, v := range vs {
 		file := r.inputsFile
 		if v.words.signal == "output" {
 			file = r.outputsFile
 		}
-		fmt.Fprintf(bw, "\n%d %s from %s:\n", v.count, plural(v.count, v.words.signal, v.words.signals), file)
+		fmt.Fprintf(bw, "\n%d %s from %s:\n", v.count, plural(v.count, v.words.signal, v.words.signals), displayFile(file))
 		fmt.Fprintf(bw, "  %s dimension: %d of %d (generic, Hosoe 1980)\n", v.words.adj, v.dimension, g.N())
 		fmt.Fprintf(bw, "  term rank of %s: %d of %d", v.words.matrix, g.N()-v.deficiency, g.N())
 		if v.deficiency > 0 {
@@ -362,7 +363,7 @@ func writeWrapped(w *bufio.Writer, g *structural.Network, ids []int32, indent st
 	}
 	col := 0
 	for i, v := range ids {
-		name := g.Name(v)
+		name := textName(g.Name(v))
 		if i > 0 {
 			w.WriteString(",")
 			col++

@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/spf13/pflag"
 
@@ -182,7 +184,7 @@ func (r *driversResult) writeText(w io.Writer) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
 	nd := len(ds.Drivers)
 	fmt.Fprintf(bw, "%s needs %d independent control %s for %d states (driver fraction %.4f).\n",
-		r.file, nd, plural(nd, "signal", "signals"), g.N(), r.fraction())
+		displayFile(r.file), nd, plural(nd, "signal", "signals"), g.N(), r.fraction())
 	fmt.Fprintf(bw, "Drive: %s\n", nameList(g, ds.Drivers, maxListed))
 	attached := 0
 	for _, in := range ds.Inputs {
@@ -192,13 +194,15 @@ func (r *driversResult) writeText(w io.Writer) error {
 		fmt.Fprintf(bw, "Also wired to existing signals: %d %s in source components that hold no driver.\n",
 			attached, plural(attached, "state", "states"))
 	}
-	fmt.Fprintf(bw, "\nNetwork: %d states, %d edges (%d self-loops, %d repeated edges merged); maximum matching %d.\n",
-		g.N(), g.Edges(), g.SelfLoops, g.DuplicatesMerged, ds.Matching.Size)
+	fmt.Fprintf(bw, "\nNetwork: %d %s, %d %s (%d %s, %d repeated %s merged); maximum matching %d.\n",
+		g.N(), plural(g.N(), "state", "states"), g.Edges(), plural(g.Edges(), "edge", "edges"),
+		g.SelfLoops, plural(g.SelfLoops, "self-loop", "self-loops"),
+		g.DuplicatesMerged, plural(g.DuplicatesMerged, "edge", "edges"), ds.Matching.Size)
 	fmt.Fprintf(bw, "\nsignal  driven states (the first is the driver node)\n")
 	for i, in := range ds.Inputs {
 		names := make([]string, len(in))
 		for k, v := range in {
-			names[k] = g.Name(v)
+			names[k] = textName(g.Name(v))
 		}
 		fmt.Fprintf(bw, "%6d  %s\n", i+1, strings.Join(names, ", "))
 	}
@@ -233,7 +237,62 @@ func nameList(g *structural.Network, ids []int32, max int) string {
 		if i > 0 {
 			b.WriteString(", ")
 		}
-		b.WriteString(g.Name(v))
+		b.WriteString(textName(g.Name(v)))
 	}
 	return b.String()
+}
+
+// textName returns a state name as the text reports print it: verbatim
+// when it reads unambiguously in a comma-separated list, otherwise
+// double-quoted CSV-style (inner quotes doubled), as design files accept
+// it. Characters a terminal would not show (control and format
+// characters, invalid UTF-8) are written as Go escapes inside the quotes,
+// so a name never corrupts the report or hides its difference from
+// another.
+func textName(s string) string {
+	if plainName(s) {
+		return s
+	}
+	var b strings.Builder
+	b.WriteByte('"')
+	for i := 0; i < len(s); {
+		r, size := utf8.DecodeRuneInString(s[i:])
+		switch {
+		case r == utf8.RuneError && size == 1:
+			fmt.Fprintf(&b, `\x%02x`, s[i])
+		case r == '"':
+			b.WriteString(`""`)
+		case r == ' ' || unicode.IsPrint(r):
+			b.WriteString(s[i : i+size])
+		default:
+			q := strconv.QuoteRune(r)
+			b.WriteString(q[1 : len(q)-1])
+		}
+		i += size
+	}
+	b.WriteByte('"')
+	return b.String()
+}
+
+// plainName reports whether s prints unquoted: not empty, no comment mark
+// at its start, and only printable characters other than white space,
+// commas and quotes.
+func plainName(s string) bool {
+	if s == "" || s[0] == '#' || s[0] == '%' {
+		return false
+	}
+	for _, r := range s {
+		if r == utf8.RuneError || r == ',' || r == '"' || unicode.IsSpace(r) || !unicode.IsPrint(r) {
+			return false
+		}
+	}
+	return true
+}
+
+// displayFile names an input file in a text report ("-" is standard input).
+func displayFile(path string) string {
+	if path == "-" {
+		return "standard input"
+	}
+	return path
 }
