@@ -2,6 +2,8 @@ package design
 
 import (
 	"bufio"
+	"bytes"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -35,6 +37,9 @@ func ReadFile(path string, g *structural.Network, weights bool) ([]Signal, error
 		return nil, &netread.Error{File: path, Msg: strings.TrimPrefix(err.Error(), "open "+path+": ")}
 	}
 	defer f.Close()
+	if st, err := f.Stat(); err == nil && st.IsDir() {
+		return nil, &netread.Error{File: path, Msg: "is a directory, not a design file"}
+	}
 	return Read(f, path, g, weights)
 }
 
@@ -47,7 +52,13 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 	seen := map[int32]int{} // state -> index of the last signal naming it
 	for sc.Scan() {
 		line++
-		fields, msg := netread.SplitFields(sc.Bytes())
+		text := sc.Bytes()
+		if line == 1 {
+			// A byte-order mark, as some editors write, is not part of
+			// the first name.
+			text = bytes.TrimPrefix(text, []byte("\xef\xbb\xbf"))
+		}
+		fields, msg := netread.SplitFields(text)
 		if msg != "" {
 			return nil, &netread.Error{File: file, Line: line, Msg: msg}
 		}
@@ -73,7 +84,13 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 			}
 			id, ok := g.Lookup(name)
 			if !ok {
-				return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("no state named %q in the network", name)}
+				msg := fmt.Sprintf("no state named %q in the network", name)
+				if k := strings.LastIndexByte(name, ':'); !weights && k > 0 {
+					if _, ok := g.Lookup(name[:k]); ok {
+						msg += fmt.Sprintf(" (%q is a state: values written name:value are read only with weights, verify --weights)", name[:k])
+					}
+				}
+				return nil, &netread.Error{File: file, Line: line, Msg: msg}
 			}
 			if k, dup := seen[id]; dup && k == len(out) {
 				return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("state %q named twice on one line", name)}
@@ -87,7 +104,11 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 		out = append(out, s)
 	}
 	if err := sc.Err(); err != nil {
-		return nil, &netread.Error{File: file, Line: line + 1, Msg: err.Error()}
+		msg := err.Error()
+		if errors.Is(err, bufio.ErrTooLong) {
+			msg = "line longer than 16 MiB"
+		}
+		return nil, &netread.Error{File: file, Line: line + 1, Msg: msg}
 	}
 	return out, nil
 }

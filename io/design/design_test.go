@@ -1,0 +1,69 @@
+package design
+
+import (
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/netsteer/netsteer/structural"
+)
+
+func testNetwork(t *testing.T) *structural.Network {
+	t.Helper()
+	b := structural.NewBuilder()
+	for _, e := range [][2]string{{"feed_pump", "drum_level"}, {"drum_level", "steam_flow"}} {
+		u, _ := b.Intern([]byte(e[0]))
+		v, _ := b.Intern([]byte(e[1]))
+		b.AddEdge(u, v)
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return g
+}
+
+// A byte-order mark at the start of the file is not part of the first name.
+func TestReadByteOrderMark(t *testing.T) {
+	g := testNetwork(t)
+	sigs, err := Read(strings.NewReader("\ufefffeed_pump\n"), "act.txt", g, false)
+	if err != nil {
+		t.Fatalf("got error %v, want the design read", err)
+	}
+	want, _ := g.Lookup("feed_pump")
+	if len(sigs) != 1 || len(sigs[0].States) != 1 || sigs[0].States[0] != want {
+		t.Errorf("got %+v, want one input driving feed_pump (state %d)", sigs, want)
+	}
+}
+
+// Errors are one line, FILE[:LINE]: message, and say what to do.
+func TestReadErrors(t *testing.T) {
+	g := testNetwork(t)
+	dir := t.TempDir()
+	for _, tc := range []struct {
+		name, path, text string
+		weights          bool
+		want             string
+	}{
+		{"directory", dir, "", false, dir + ": is a directory, not a design file"},
+		{"missing", filepath.Join(dir, "none.txt"), "", false, "none.txt: no such file or directory"},
+		{"value without weights", "", "feed_pump:2\n", false,
+			`act.txt:1: no state named "feed_pump:2" in the network ("feed_pump" is a state: values written name:value are read only with weights, verify --weights)`},
+		{"unknown", "", "# c\nfeed_pmp\n", false, `act.txt:2: no state named "feed_pmp" in the network`},
+		{"long line", "", "feed_pump " + strings.Repeat("x", 17<<20) + "\n", false, "act.txt:1: line longer than 16 MiB"},
+	} {
+		var err error
+		if tc.path != "" {
+			_, err = ReadFile(tc.path, g, tc.weights)
+		} else {
+			_, err = Read(strings.NewReader(tc.text), "act.txt", g, tc.weights)
+		}
+		if err == nil {
+			t.Errorf("%s: got no error, want %q", tc.name, tc.want)
+			continue
+		}
+		if got := err.Error(); !strings.HasSuffix(got, tc.want) || strings.Contains(got, "\n") {
+			t.Errorf("%s: got %q, want one line ending in %q", tc.name, got, tc.want)
+		}
+	}
+}
