@@ -121,6 +121,10 @@ func (p *Params) set(s ParamSpec, v string) error {
 		if iv, err = strconv.Atoi(v); err != nil || iv < 0 {
 			return bad()
 		}
+		if s.Name == "width" && iv == 0 {
+			// 0 would silently mean auto.
+			return fmt.Errorf("gen: width 0: want a whole number of at least 1, or auto")
+		}
 	case kindFloat:
 		if v == "inf" {
 			fv = math.Inf(1)
