@@ -38,6 +38,9 @@ type Builder struct {
 	dense     []int32
 	overflow  []overflowName
 	unindexed bool // some names are missing from the hash index
+	// idx indexes the other names while building (see internName).
+	idx     []nameSlot
+	idxUsed int
 }
 
 // NewBuilder returns a Builder whose states are named by Intern.
@@ -96,7 +99,7 @@ func (b *Builder) Intern(name []byte) (int32, error) {
 	if b.names.n >= MaxStates {
 		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
 	}
-	return b.names.Intern(name), nil
+	return b.internName(name), nil
 }
 
 // States returns the number of states so far.
@@ -152,7 +155,7 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	}
 	reindex := b.unindexed
 	b.unindexed = false
-	b.dense, b.overflow = nil, nil
+	b.dense, b.overflow, b.idx = nil, nil, nil
 	if opt.Undirected {
 		// Every edge u -> v, u != v, gains v -> u. The loop runs over a
 		// copy of the segment list, which grows meanwhile.

@@ -16,7 +16,9 @@ import (
 // values below a bound that grows with the number of states, so sparse
 // large identifiers cannot make it huge; canonical names beyond it are
 // hashed like any other name and move into the table when it grows past
-// them. The hash index of the name table is completed in one pass by Build.
+// them. Other names go through the Builder's own index (internName), built
+// for lookups during reading. Every name is kept verbatim in the arena of the
+// name table, whose hash index (for Lookup) Build completes in one pass.
 
 // canonicalDecimal reports the value of a canonical decimal name below
 // 2^31-1.
@@ -108,11 +110,102 @@ func (b *Builder) internOverflow(v uint32) (int32, error) {
 	var buf [10]byte
 	name := strconv.AppendUint(buf[:0], uint64(v), 10)
 	n := b.names.n
-	id := b.names.Intern(name)
+	id := b.internName(name)
 	if b.names.n > n {
 		b.overflow = append(b.overflow, overflowName{v, id})
 	}
 	return id, nil
+}
+
+// nameSeed keys the Builder's own name index.
+var nameSeed = maphash.MakeSeed()
+
+// nameSlot is a slot of the Builder's name index. tag holds the top 24
+// bits of the name's hash and, in its low byte, the name's length when it
+// is at most 8 bytes (then data holds the name itself) or 9 (then data is
+// the name's arena offset << 13 | its length). id is the state plus one, 0
+// for an empty slot.
+type nameSlot struct {
+	tag  uint32
+	id   int32
+	data uint64
+}
+
+// slotKey returns the tag and data that identify name.
+func slotKey(name []byte, h uint64) (uint32, uint64, bool) {
+	tag := uint32(h>>32) &^ 0xff
+	if len(name) <= 8 {
+		var d uint64
+		for i, c := range name {
+			d |= uint64(c) << (8 * i)
+		}
+		return tag | uint32(len(name)), d, true
+	}
+	return tag | 9, 0, false
+}
+
+// internName interns a name that the dense table does not cover, through
+// the Builder's own open-addressing index (linear probing, at most half
+// full). A slot holds a hash tag beside the state and either the name
+// itself (up to 8 bytes) or where it lies in the arena, so a lookup costs
+// one cache miss for a short name and two for a long one, instead of a
+// miss for the slot, the offsets and the arena at every probe. The name
+// table's own index is completed by Build.
+func (b *Builder) internName(name []byte) int32 {
+	if 2*(b.idxUsed+1) > len(b.idx) {
+		b.growIndex()
+	}
+	h := maphash.Bytes(nameSeed, name)
+	tag, data, short := slotKey(name, h)
+	mask := uint64(len(b.idx) - 1)
+	i := h & mask
+	t := b.names
+	for {
+		s := &b.idx[i]
+		if s.id == 0 {
+			break
+		}
+		if s.tag == tag {
+			if short {
+				if s.data == data {
+					return s.id - 1
+				}
+			} else if off, n := s.data>>13, s.data&(1<<13-1); int(n) == len(name) && string(t.arena[off:off+n]) == string(name) {
+				return s.id - 1
+			}
+		}
+		i = (i + 1) & mask
+	}
+	id := int32(t.n)
+	t.n++
+	if !short {
+		data = uint64(len(t.arena))<<13 | uint64(len(name))
+	}
+	t.arena = append(t.arena, name...)
+	t.off = append(t.off, int64(len(t.arena)))
+	b.idx[i] = nameSlot{tag: tag, id: id + 1, data: data}
+	b.idxUsed++
+	b.unindexed = true
+	return id
+}
+
+// growIndex doubles the Builder's name index.
+func (b *Builder) growIndex() {
+	old := b.idx
+	b.idx = make([]nameSlot, max(2*len(old), 1024))
+	mask := uint64(len(b.idx) - 1)
+	t := b.names
+	for _, s := range old {
+		if s.id == 0 {
+			continue
+		}
+		h := maphash.Bytes(nameSeed, t.arena[t.off[s.id-1]:t.off[s.id]])
+		i := h & mask
+		for b.idx[i].id != 0 {
+			i = (i + 1) & mask
+		}
+		b.idx[i] = s
+	}
 }
 
 // overflowName is a canonical decimal name interned through the hash index.

@@ -7,8 +7,8 @@ import (
 )
 
 // TestInternIntMatchesNames interns a random mix of canonical decimal
-// names (through Intern and InternInt), non-canonical ones ("007", "+7")
-// and words, and checks the numbering against a plain map (first
+// names (through Intern and InternInt), non-canonical ones ("007"), short
+// and long words and names with zero bytes, and checks the numbering against a plain map (first
 // appearance order) and Lookup after Build.
 func TestInternIntMatchesNames(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
@@ -22,7 +22,19 @@ func TestInternIntMatchesNames(t *testing.T) {
 			var got int32
 			var err error
 			v := r.IntN(spread)
-			switch r.IntN(6) {
+			switch r.IntN(9) {
+			case 6:
+				name = "station-" + strconv.Itoa(v%700) + "-valve" // longer than 8 bytes
+				got, err = b.Intern([]byte(name))
+			case 7:
+				name = "a\x00" + strconv.Itoa(v%5) // zero bytes: "a\x001" is not "a1"
+				if v%2 == 0 {
+					name = "a" + strconv.Itoa(v%5)
+				}
+				got, err = b.Intern([]byte(name))
+			case 8:
+				name = strconv.Itoa(v%3) + "abcdefg"[:v%8] // lengths 1..8
+				got, err = b.Intern([]byte(name))
 			case 0:
 				name = "0" + strconv.Itoa(v)
 				got, err = b.Intern([]byte(name))
