@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"regexp"
 	"sort"
 	"strings"
 
@@ -129,14 +130,23 @@ func parse(e *env, c *command, fs *pflag.FlagSet, args []string) (bool, int) {
 
 // fail prints a one-line error and returns the error status.
 func fail(e *env, err error) int {
-	msg := err.Error()
-	msg = strings.ReplaceAll(msg, "\n", " ")
-	fmt.Fprintln(e.Stderr, "netsteer: "+msg)
+	fmt.Fprintln(e.Stderr, "netsteer: "+userMessage(err.Error()))
 	return exitError
 }
 
 // usageError prints a usage problem for command c.
 func usageError(e *env, c *command, format string, args ...any) int {
-	fmt.Fprintf(e.Stderr, "netsteer %s: %s (see netsteer %s --help)\n", c.name, fmt.Sprintf(format, args...), c.name)
+	fmt.Fprintf(e.Stderr, "netsteer %s: %s (see netsteer %s --help)\n", c.name, userMessage(fmt.Sprintf(format, args...)), c.name)
 	return exitError
+}
+
+// pkgPrefix matches the package names that library errors start with
+// ("structural: ..."), at the start of a message or after a colon.
+var pkgPrefix = regexp.MustCompile(`(^|: )(structural|gen|matching|numeric|netread|netwrite|nodetable|design|sweepcsv|plot|render|htmlreport|fileout): `)
+
+// userMessage turns a library error into the line a user reads: one
+// line, without the package names, which mean nothing to a user.
+func userMessage(msg string) string {
+	msg = strings.NewReplacer("\r\n", " ", "\n", " ", "\r", " ").Replace(msg)
+	return pkgPrefix.ReplaceAllString(msg, "$1")
 }

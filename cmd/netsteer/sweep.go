@@ -173,7 +173,7 @@ func runSweep(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 // prediction at each grid point.
 func writeSweepSummary(w io.Writer, path, plotPath string, res *sweepcsv.Result) error {
 	bw := bufio.NewWriter(w)
-	fmt.Fprintf(bw, "Wrote %d rows to %s (%d computed now, %d already there", len(res.Rows), path, res.Computed, res.Skipped)
+	fmt.Fprintf(bw, "Wrote %d %s to %s (%d computed now, %d already there", len(res.Rows), plural(len(res.Rows), "row", "rows"), path, res.Computed, res.Skipped)
 	if res.Share != 0 && res.Share != res.Computed+res.Skipped {
 		fmt.Fprintf(bw, "; this share has %d", res.Share)
 	}
@@ -250,7 +250,7 @@ func runSweepMerge(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		}
 	}
 	if *output != "-" {
-		fmt.Fprintf(e.Stdout, "Merged %d files into %s: %d rows.\n", fs.NArg(), *output, len(rows))
+		fmt.Fprintf(e.Stdout, "Merged %d %s into %s: %d %s.\n", fs.NArg(), plural(fs.NArg(), "file", "files"), *output, len(rows), plural(len(rows), "row", "rows"))
 	}
 	return exitOK
 }

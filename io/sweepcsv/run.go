@@ -144,7 +144,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		res.Share++
 		if s, ok := done[p.Key()]; ok {
 			if s != p.Seed {
-				return nil, fmt.Errorf("sweepcsv: %s holds row %s with seed %d, not %d: it comes from another --seed; choose another output file", opt.Output, p.Key(), s, p.Seed)
+				return nil, fmt.Errorf("sweepcsv: %s holds row %s with seed %d, not %d: it comes from another --seed; choose another output file", opt.Output, p.describe(), s, p.Seed)
 			}
 			res.Skipped++
 			continue
@@ -166,7 +166,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				}
 			}
 			if _, err := gen.FromSettings(pl.Model, vals); err != nil {
-				return nil, fmt.Errorf("%s: %v", p.Params, err)
+				return nil, fmt.Errorf("sweepcsv: grid point %s: %v", p.Params, err)
 			}
 		}
 	}
@@ -192,7 +192,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		go func() {
 			for p := range jobs {
 				row, err := pl.Compute(p)
-				results <- result{row, err, p.Key()}
+				results <- result{row, err, p.describe()}
 			}
 		}()
 	}
@@ -232,7 +232,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				if err := checkpoint(); err != nil {
 					return nil, err
 				}
-				return nil, fmt.Errorf("row %s: %v", r.key, r.err)
+				return nil, fmt.Errorf("sweepcsv: row %s: %v", r.key, r.err)
 			}
 			if opt.NoTiming {
 				r.row.Seconds = 0
@@ -258,6 +258,11 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		return res, WriteFile(opt.Output, append([]Row(nil), rows...), nil)
 	}
 	return res, WriteFile("-", append([]Row(nil), rows...), opt.Stdout)
+}
+
+// describe names a point for messages: model, coordinates, replicate.
+func (p *Point) describe() string {
+	return fmt.Sprintf("(model %s, %s, replicate %d)", p.Model, p.Params, p.Replicate)
 }
 
 func fileExists(path string) bool {
