@@ -219,6 +219,15 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		opt.Progress(res.Skipped, res.Share)
 	}
 	for i := 0; i < len(todo); i++ {
+		// A cancellation seen here wins over rows still arriving, so that
+		// a run stops at the row where it was interrupted.
+		if ctx.Err() != nil {
+			close(stop)
+			if err := checkpoint(); err != nil {
+				return nil, err
+			}
+			return res, ctx.Err()
+		}
 		select {
 		case <-ctx.Done():
 			close(stop)
