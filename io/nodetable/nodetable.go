@@ -298,6 +298,7 @@ func (t *Table) Lookup(name string) (*Row, bool) {
 // be a misspelt name.
 func (t *Table) Isolated(g *structural.Network) []string {
 	var out []string
+	isolated := 0
 	for _, r := range t.Rows {
 		v, ok := g.Lookup(r.Node)
 		if !ok {
@@ -311,12 +312,23 @@ func (t *Table) Isolated(g *structural.Network) []string {
 			linked = linked || w != v
 		}
 		if !linked {
-			out = append(out, fmt.Sprintf("%s:%d: node %q is in no edge of the network: it is an isolated state and needs its own device (a misspelt name?)",
-				t.File, r.Line, r.Node))
+			isolated++
+			if isolated <= maxIsolatedNamed {
+				out = append(out, fmt.Sprintf("%s:%d: node %q is in no edge of the network: it is an isolated state and needs its own device (a misspelt name?)",
+					t.File, r.Line, r.Node))
+			}
 		}
+	}
+	if isolated > maxIsolatedNamed {
+		out = append(out, fmt.Sprintf("%s: %d more nodes of the table are in no edge of the network (isolated states, %d in all)",
+			t.File, isolated-maxIsolatedNamed, isolated))
 	}
 	return out
 }
+
+// maxIsolatedNamed bounds the isolated states Isolated names one by one; a
+// generated network's table can list thousands.
+const maxIsolatedNamed = 10
 
 // Actuators returns the actuator facts of the table for the states of g,
 // in CostScale units; states the table does not list cost 1 (CostScale)

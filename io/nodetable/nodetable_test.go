@@ -2,6 +2,7 @@ package nodetable
 
 import (
 	"errors"
+	"fmt"
 	"strings"
 	"testing"
 
@@ -140,5 +141,30 @@ func TestNetworkBinding(t *testing.T) {
 	sen := tab.Sensors(g)
 	if sen.Cost[id("lonely")] != 2000 || !sen.Forbidden[id("b")] || sen.Existing != nil {
 		t.Errorf("sensors: %+v", sen)
+	}
+}
+
+// A table listing many isolated states (a generated network's table, say)
+// names the first ones and summarises the rest in one line.
+func TestIsolatedSummarised(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("node\n")
+	for i := 0; i < 25; i++ {
+		fmt.Fprintf(&b, "z%d\n", i)
+	}
+	tab, err := Read(strings.NewReader(b.String()), "many.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	g, err := netread.Read(strings.NewReader("a b\n"), "n.edges", netread.Options{States: tab.Names()})
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := tab.Isolated(g)
+	if len(w) != maxIsolatedNamed+1 {
+		t.Fatalf("got %d warnings, want %d", len(w), maxIsolatedNamed+1)
+	}
+	if want := "many.csv: 15 more nodes of the table are in no edge of the network (isolated states, 25 in all)"; w[len(w)-1] != want {
+		t.Errorf("last warning %q, want %q", w[len(w)-1], want)
 	}
 }
