@@ -17,14 +17,16 @@ const maxWorkers = 8
 // Defaults of Options.
 const (
 	DefaultTrials         = 3
+	MaxTrials             = 1000
 	DefaultMaxStates      = 2000
 	DefaultMaxFloatStates = 1000
 )
 
 // Options configure Verify.
 type Options struct {
-	// Trials is the number of independent random samples (default 3). It
-	// is ignored with Weights: the model's values are one system.
+	// Trials is the number of independent random samples (default 3, at
+	// most MaxTrials). It is ignored with Weights: the model's values are
+	// one system.
 	Trials int
 	// Seed makes the samples reproducible: trial t draws A's exact values
 	// from the PCG stream (Seed, 4t), A's real values from (Seed, 4t+1),
@@ -180,6 +182,9 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 	if trials <= 0 {
 		trials = DefaultTrials
 	}
+	if trials > MaxTrials {
+		return nil, fmt.Errorf("numeric: %d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", trials, MaxTrials)
+	}
 	if opt.Weights {
 		trials = 1
 	}
@@ -227,53 +232,62 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 		}
 	}
 	// Values of A: one set per trial, shared by both properties so that a
-	// trial checks one sampled system (A, B, C).
-	aExact := make([][]uint64, trials)
-	aReal := make([][]float64, trials)
+	// trial checks one sampled system (A, B, C). They are drawn when a
+	// trial runs (and drawn again, identically, for the floating-point
+	// check), so memory holds the systems of the running trials only.
+	var wExact []uint64
+	var wReal []float64
 	if opt.Weights {
 		p := &Pattern{Out: &g.Out}
 		x, inexact := ExactFromWeights(p, f, g.OutW, nil)
 		rep.Inexact += inexact
-		aExact[0] = x.A
-		aReal[0] = RealFromWeights(p, g.OutW, nil).A
-		for _, v := range aReal[0] {
+		wExact = x.A
+		wReal = RealFromWeights(p, g.OutW, nil).A
+		for _, v := range wReal {
 			if v == 0 {
 				rep.ZeroEntries++
 			}
 		}
-	} else {
-		for t := range aExact {
-			rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)))
-			aExact[t] = make([]uint64, g.Edges())
-			for k := range aExact[t] {
-				aExact[t][k] = 1 + rng.Uint64N(f.P-1)
-			}
-			rr := rand.New(rand.NewPCG(opt.Seed, uint64(4*t+1)))
-			aReal[t] = make([]float64, g.Edges())
-			for k := range aReal[t] {
-				aReal[t][k] = drawReal(rr)
-			}
-		}
 	}
-	// Values of B (C): per property and trial.
+	drawA := func(t int) ([]uint64, []float64) {
+		if opt.Weights {
+			return wExact, wReal
+		}
+		rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)))
+		ax := make([]uint64, g.Edges())
+		for k := range ax {
+			ax[k] = 1 + rng.Uint64N(f.P-1)
+		}
+		rr := rand.New(rand.NewPCG(opt.Seed, uint64(4*t+1)))
+		ar := make([]float64, g.Edges())
+		for k := range ar {
+			ar[k] = drawReal(rr)
+		}
+		return ax, ar
+	}
+	// Values of B (C): per property and trial; the model's own values are
+	// one system.
 	for _, k := range kinds {
 		k.pat = &Pattern{Out: &g.Out, Signals: k.signals}
 		k.res.Trials = make([]Trial, trials)
-		k.exact = make([]*Exact, trials)
-		k.real = make([]*Real, trials)
-		for t := 0; t < trials; t++ {
+		for t := range k.res.Trials {
 			k.res.Trials[t].AltDimension = -1
-			if opt.Weights {
-				b, inexact := exactSignals(&f, k.signals, k.weights)
-				rep.Inexact += inexact
-				k.exact[t] = &Exact{F: f, A: aExact[0], B: b}
-				k.real[t] = &Real{A: aReal[0], B: realSignals(k.signals, k.weights)}
-				continue
-			}
-			rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)+k.stream))
-			k.exact[t] = &Exact{F: f, A: aExact[t], B: drawExactSignals(k.signals, f, rng)}
-			k.real[t] = &Real{A: aReal[t], B: drawRealSignals(k.signals, rng)}
 		}
+		if opt.Weights {
+			b, inexact := exactSignals(&f, k.signals, k.weights)
+			rep.Inexact += inexact
+			k.wExact = &Exact{F: f, A: wExact, B: b}
+			k.wReal = &Real{A: wReal, B: realSignals(k.signals, k.weights)}
+		}
+	}
+	system := func(k *kind, t int) (*Exact, *Real) {
+		if opt.Weights {
+			return k.wExact, k.wReal
+		}
+		ax, ar := drawA(t)
+		rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)+k.stream))
+		x := &Exact{F: f, A: ax, B: drawExactSignals(k.signals, f, rng)}
+		return x, &Real{A: ar, B: drawRealSignals(k.signals, rng)}
 	}
 	// Exact check: trials in parallel, each property in turn.
 	start := time.Now()
@@ -295,7 +309,8 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 					report(Progress{Stage: "exact", Kind: k.name, Trial: t + 1, Trials: trials, Done: dim, Total: k.res.Structural})
 				}
 				tr := &k.res.Trials[t]
-				tr.Dimension = Dimension(k.pat, k.exact[t], k.transpose, prog)
+				x, _ := system(k, t)
+				tr.Dimension = Dimension(k.pat, x, k.transpose, prog)
 				if opt.Weights && tr.Dimension < k.res.Structural {
 					alt := NewField(Alt61)
 					x, _ := ExactFromWeights(k.pat, alt, g.OutW, k.weights)
@@ -331,7 +346,8 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 		}
 		for t := 0; t < trials; t++ {
 			report(Progress{Stage: "float", Kind: k.name, Trial: t + 1, Trials: trials})
-			a, b := k.real[t].Dense(k.pat, k.transpose)
+			_, re := system(k, t)
+			a, b := re.Dense(k.pat, k.transpose)
 			fr, err := Float(a, b, n, len(k.signals), opt.Float)
 			if err != nil {
 				return nil, err
@@ -355,6 +371,7 @@ type kind struct {
 	transpose bool
 	stream    uint64 // PCG stream of the signal values, plus 4t
 	pat       *Pattern
-	exact     []*Exact
-	real      []*Real
+	// The system of the model's own values (with Weights).
+	wExact *Exact
+	wReal  *Real
 }

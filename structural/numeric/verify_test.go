@@ -6,6 +6,7 @@ import (
 	"math"
 	"math/big"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
@@ -301,4 +302,14 @@ func ExampleVerify() {
 	// Output:
 	// weights false: dimension 3 of 3, structure 3, agrees true
 	// weights true: dimension 2 of 3, structure 3, agrees false
+}
+
+// A trial count beyond MaxTrials is refused before anything is drawn: the
+// samples of every trial once stayed in memory together, and 10^8 trials
+// of a three-state network exhausted it.
+func TestVerifyTrialsLimit(t *testing.T) {
+	g, in := erNetwork(20, 3, 5)
+	if _, err := Verify(g, in, nil, Options{Seed: 1, Trials: MaxTrials + 1}); err == nil || !strings.Contains(err.Error(), "at most 1000") {
+		t.Errorf("Trials %d: got error %v, want one saying at most %d", MaxTrials+1, err, MaxTrials)
+	}
 }
