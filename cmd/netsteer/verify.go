@@ -124,8 +124,8 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "give --inputs FILE (and/or --outputs FILE)")
 	case (vf.inputs == "-" && vf.outputs == "-") || (fs.Arg(0) == "-" && (vf.inputs == "-" || vf.outputs == "-")):
 		return usageError(e, c, "only one of NET, --inputs and --outputs can read standard input")
-	case vf.trials < 1:
-		return usageError(e, c, "--trials must be at least 1")
+	case vf.trials < 1 || vf.trials > numeric.MaxTrials:
+		return usageError(e, c, "--trials must be between 1 and %d", numeric.MaxTrials)
 	case vf.maxStates < 1:
 		return usageError(e, c, "--max-states must be at least 1")
 	case vf.maxFloat < 0:
@@ -313,15 +313,16 @@ type verifyResult struct {
 type property struct {
 	r                          *numeric.Result
 	noun, adj, dimKey, verdict string
+	countKey                   string // the number of signals, named as in check
 }
 
 func (v *verifyResult) properties() []property {
 	var ps []property
 	if r := v.rep.Controllability; r != nil {
-		ps = append(ps, property{r, "controllability", "controllable", "controllable_dimension", "controllable"})
+		ps = append(ps, property{r, "controllability", "controllable", "controllable_dimension", "controllable", "inputs_count"})
 	}
 	if r := v.rep.Observability; r != nil {
-		ps = append(ps, property{r, "observability", "observable", "observable_dimension", "observable"})
+		ps = append(ps, property{r, "observability", "observable", "observable_dimension", "observable", "outputs_count"})
 	}
 	return ps
 }
@@ -527,7 +528,7 @@ func (v *verifyResult) writeText(w io.Writer) error {
 		}
 	}
 	fmt.Fprint(bw, "\nNumeric results describe the numbers checked; the margin is for unstructured\nchanges of A and B and is evaluated at the eigenvalues of A only, so the true\ndistance to an uncontrollable design can be smaller.\n")
-	fmt.Fprint(bw, caution)
+	fmt.Fprint(bw, "\n"+caution)
 	return bw.Flush()
 }
 
@@ -628,7 +629,7 @@ func (v *verifyResult) writeProperty(j *jsonw, p property, indent string) {
 	j.w.WriteString(strconv.Itoa(r.Structural))
 	key("agrees")
 	j.w.WriteString(strconv.FormatBool(r.Agrees))
-	key("signals")
+	key(p.countKey)
 	j.w.WriteString(strconv.Itoa(r.Signals))
 	num("margin", r.Margin)
 	num("failure_bound", r.FailureBound)
