@@ -57,7 +57,15 @@ func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, er
 		return nil, e
 	}
 	if len(sc.graphs) == 0 {
-		return nil, &Error{File: file, Msg: "empty network: no graph in the file"}
+		if len(sc.ids) == 0 && len(sc.ops) == 0 {
+			return nil, &Error{File: file, Msg: "empty network: no graph in the file"}
+		}
+		// Text, but no graph: most likely not a DOT file at all.
+		line := sc.ops
+		if len(sc.ids) > 0 {
+			line = sc.ids
+		}
+		return nil, errorf(file, int(line[0]), "not a DOT graph: want \"digraph { u -> v; ... }\" (is this an edge list? then give --input-format edges)")
 	}
 	if len(sc.graphs) > 1 {
 		return nil, errorf(file, int(sc.graphs[1]), "a second graph; a DOT file must hold one network")

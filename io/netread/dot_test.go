@@ -59,6 +59,8 @@ func TestDOT(t *testing.T) {
 		{name: "empty file", in: "", err: "empty network: no graph"},
 		{name: "only comments", in: "// nothing\n\n/* here */\n", err: "empty network: no graph"},
 		{name: "empty graph", in: "digraph plant {\n}\n", err: "empty network"},
+		{name: "an edge list read as DOT", in: "# plant\n\nvalve flow\nflow level\n", line: 3, err: "not a DOT graph"},
+		{name: "only an edge operator", in: "\n->\n", line: 2, err: "not a DOT graph"},
 		{name: "syntax error", in: "digraph {\n a -> b\n c -> \n}\n", line: 4, err: "DOT syntax"},
 		{name: "unterminated quote", in: "digraph {\n a -> \"b\n}\n", line: 2, err: "DOT syntax"},
 		{name: "unclosed brace", in: "digraph {\n a -> b\n", line: 3, err: "end-of-file"},
