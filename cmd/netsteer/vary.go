@@ -153,7 +153,11 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if written.NodeTable != "" {
 		fmt.Fprintf(bw, "; node table %s", written.NodeTable)
 	}
-	fmt.Fprintf(bw, ".\n\ntransforms: %s; seed %d\n\n%s", strings.Join(*specs, ", "), *seed, caution)
+	fmt.Fprintf(bw, ".\n")
+	if written.Format == netwrite.MatrixMarket && !netwrite.NamesAreIndices(h) {
+		fmt.Fprintf(bw, "Matrix Market numbers the states 1..%d; their names are in the file's comment lines \"%% state I NAME\".\n", h.N())
+	}
+	fmt.Fprintf(bw, "\ntransforms: %s; seed %d\n\n%s", strings.Join(*specs, ", "), *seed, caution)
 	return genFinish(e, bw.Flush())
 }
 

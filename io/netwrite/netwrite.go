@@ -141,8 +141,9 @@ func WriteIntNodeTable(w io.Writer, n, base int) error {
 
 // WriteMatrixMarket writes g as a Matrix Market coordinate matrix A with
 // A[v][u] != 0 for every edge u -> v: "pattern" entries, or "real" ones
-// holding the weights. States become their 1-based indices; a comment line
-// records the original names only when they differ from those indices.
+// holding the weights. States become their 1-based indices; when the
+// names differ from those indices, comment lines "% state I NAME" (NAME
+// written as in an edge list) record them, so that nothing is lost.
 func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
 	field := "pattern"
@@ -151,8 +152,21 @@ func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 	}
 	fmt.Fprintf(bw, "%%%%MatrixMarket matrix coordinate %s general\n", field)
 	fmt.Fprintf(bw, "%% entry (i, j): state j acts on state i (A[i][j] != 0)\n")
-	fmt.Fprintf(bw, "%d %d %d\n", g.N(), g.N(), g.Edges())
 	var line []byte
+	if !NamesAreIndices(g) {
+		fmt.Fprintf(bw, "%% state names: state I is the I-th row and column\n")
+		for v := int32(0); int(v) < g.N(); v++ {
+			line = append(strconv.AppendInt(append(line[:0], "% state "...), int64(v)+1, 10), ' ')
+			var err error
+			if line, err = appendName(line, g.Name(v)); err != nil {
+				return err
+			}
+			if _, err := bw.Write(append(line, '\n')); err != nil {
+				return err
+			}
+		}
+	}
+	fmt.Fprintf(bw, "%d %d %d\n", g.N(), g.N(), g.Edges())
 	for u := int32(0); int(u) < g.N(); u++ {
 		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
 			line = strconv.AppendInt(line[:0], int64(g.Out.Adj[k])+1, 10)
@@ -169,6 +183,19 @@ func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 		}
 	}
 	return bw.Flush()
+}
+
+// NamesAreIndices reports whether state i of g is named i+1 for every i,
+// as in a Matrix Market file or a generated network.
+func NamesAreIndices(g *structural.Network) bool {
+	var b []byte
+	for v := int32(0); int(v) < g.N(); v++ {
+		b = strconv.AppendInt(b[:0], int64(v)+1, 10)
+		if g.Name(v) != string(b) {
+			return false
+		}
+	}
+	return true
 }
 
 // Written says which files WriteFile wrote.

@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -167,5 +168,51 @@ func TestLineBreakInName(t *testing.T) {
 	g := build(t, [][2]string{{"a\nb", "c"}})
 	if err := WriteEdges(&bytes.Buffer{}, g); err == nil {
 		t.Error("a name with a line break: got no error")
+	}
+}
+
+// Matrix Market has indices only: names that differ from them are kept in
+// comment lines, quoted as in an edge list, and the matrix reads back the
+// same (the comments are ignored by readers, as the format says).
+func TestMatrixMarketKeepsNames(t *testing.T) {
+	g := build(t, [][2]string{{"feed pump", "drum_level"}, {"drum_level", "steam_flow"}})
+	var buf bytes.Buffer
+	if err := WriteMatrixMarket(&buf, g); err != nil {
+		t.Fatal(err)
+	}
+	out := buf.String()
+	for i := int32(0); int(i) < g.N(); i++ {
+		name := g.Name(i)
+		if strings.Contains(name, " ") {
+			name = `"` + name + `"`
+		}
+		want := "% state " + strconv.Itoa(int(i)+1) + " " + name + "\n"
+		if !strings.Contains(out, want) {
+			t.Errorf("no line %q in\n%s", want, out)
+		}
+	}
+	var data []string
+	for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
+		if !strings.HasPrefix(l, "%") {
+			data = append(data, l)
+		}
+	}
+	if len(data) != 3 || data[0] != "3 3 2" {
+		t.Errorf("size line and entries %q, want 3 3 2 and two entries", data)
+	}
+	back, err := netread.Read(strings.NewReader(out), "named.mtx", netread.Options{Format: netread.MatrixMarket})
+	if err != nil || back.N() != 3 || back.Edges() != 2 {
+		t.Errorf("read back: %v, want 3 states and 2 edges", err)
+	}
+	// Integer names equal to the indices need no comments.
+	b := structural.NewIntBuilder(3, 1)
+	b.AddEdge(0, 2)
+	h, _ := b.Build(structural.BuildOptions{})
+	buf.Reset()
+	if err := WriteMatrixMarket(&buf, h); err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(buf.String(), "% state ") {
+		t.Errorf("index names written as comments:\n%s", buf.String())
 	}
 }
