@@ -84,6 +84,7 @@ type checkResult struct {
 	inputsFile, outputsFile string // "" when not given
 	g                       *structural.Network
 	inputs, outputs         [][]int32
+	inputLines, outputLines []int                            // the file line of each input (output)
 	ctrl                    *structural.Verdict              // nil without --inputs
 	obs                     *structural.ObservabilityVerdict // nil without --outputs
 	sections                []*checkSection
@@ -140,12 +141,12 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	r := &checkResult{file: path, inputsFile: inputsFile, outputsFile: outputsFile, g: g, net: &nf}
 	t0 := time.Now()
 	if inputsFile != "" {
-		if r.inputs, err = readDesign(inputsFile, g, "inputs"); err != nil {
+		if r.inputs, r.inputLines, err = readDesign(inputsFile, g, "inputs"); err != nil {
 			return fail(e, err)
 		}
 	}
 	if outputsFile != "" {
-		if r.outputs, err = readDesign(outputsFile, g, "outputs"); err != nil {
+		if r.outputs, r.outputLines, err = readDesign(outputsFile, g, "outputs"); err != nil {
 			return fail(e, err)
 		}
 	}
@@ -186,17 +187,21 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	return exitOK
 }
 
-// readDesign reads a design file; an empty one is an error, as it is most
-// likely the wrong file.
-func readDesign(path string, g *structural.Network, what string) ([][]int32, error) {
+// readDesign reads a design file: the states of each signal and the line
+// it is on. An empty file is an error, as it is most likely the wrong one.
+func readDesign(path string, g *structural.Network, what string) ([][]int32, []int, error) {
 	sigs, err := design.ReadFile(path, g, false)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	if len(sigs) == 0 {
-		return nil, errors.New(path + ": no " + what + " in the file")
+		return nil, nil, errors.New(displayFile(path) + ": no " + what + " in the file")
 	}
-	return design.States(sigs), nil
+	lines := make([]int, len(sigs))
+	for i, s := range sigs {
+		lines[i] = s.Line
+	}
+	return design.States(sigs), lines, nil
 }
 
 // The two properties differ only in words; dual holds them.
@@ -228,6 +233,7 @@ type verdictView struct {
 	dilation   []int32 // S, nil when none
 	neighbours []int32 // its state neighbours
 	signals    []int   // its signal neighbours, 0-based
+	lines      []int   // the file line of every signal
 	deficiency int
 	dimension  int
 }
@@ -236,7 +242,7 @@ func (r *checkResult) views() []verdictView {
 	var vs []verdictView
 	if v := r.ctrl; v != nil {
 		x := verdictView{words: ctrlWords, holds: v.Controllable, count: v.Inputs, unreached: v.Unreached,
-			deficiency: v.Deficiency, dimension: v.ControllableDimension}
+			deficiency: v.Deficiency, dimension: v.ControllableDimension, lines: r.inputLines}
 		if d := v.Dilation; d != nil {
 			x.dilation, x.neighbours, x.signals = d.States, d.InNeighbours, d.Inputs
 		}
@@ -244,7 +250,7 @@ func (r *checkResult) views() []verdictView {
 	}
 	if v := r.obs; v != nil {
 		x := verdictView{words: obsWords, holds: v.Observable, count: v.Outputs, unreached: v.Unobserved,
-			deficiency: v.Deficiency, dimension: v.ObservableDimension}
+			deficiency: v.Deficiency, dimension: v.ObservableDimension, lines: r.outputLines}
 		if d := v.Dilation; d != nil {
 			x.dilation, x.neighbours, x.signals = d.States, d.OutNeighbours, d.Outputs
 		}
@@ -335,9 +341,10 @@ func (r *checkResult) writeText(w io.Writer) error {
 			if len(v.signals) > 0 {
 				nums := make([]string, len(v.signals))
 				for i, s := range v.signals {
-					nums[i] = strconv.Itoa(s + 1)
+					nums[i] = strconv.Itoa(signalLine(v.lines, s))
 				}
-				fmt.Fprintf(bw, "    %s %s (line order in the file)\n", v.words.signal, strings.Join(nums, ", "))
+				fmt.Fprintf(bw, "    the %s on %s %s of %s\n", plural(len(nums), v.words.signal, v.words.signals),
+					plural(len(nums), "line", "lines"), strings.Join(nums, ", "), displayFile(file))
 			}
 		}
 	}
@@ -402,7 +409,7 @@ func (r *checkResult) writeJSON(w io.Writer) error {
 		if d := v.Dilation; d == nil {
 			j.w.WriteString("null")
 		} else {
-			writeDilationJSON(j, g, d.States, "in_neighbours", d.InNeighbours, "inputs", d.Inputs)
+			writeDilationJSON(j, g, d.States, "in_neighbours", d.InNeighbours, "input_lines", signalLines(r.inputLines, d.Inputs))
 		}
 		j.int("term_rank", g.N()-v.Deficiency)
 		j.int("controllable_dimension", v.ControllableDimension)
@@ -416,7 +423,7 @@ func (r *checkResult) writeJSON(w io.Writer) error {
 		if d := v.Dilation; d == nil {
 			j.w.WriteString("null")
 		} else {
-			writeDilationJSON(j, g, d.States, "out_neighbours", d.OutNeighbours, "outputs", d.Outputs)
+			writeDilationJSON(j, g, d.States, "out_neighbours", d.OutNeighbours, "output_lines", signalLines(r.outputLines, d.Outputs))
 		}
 		j.int("observation_term_rank", g.N()-v.Deficiency)
 		j.int("observable_dimension", v.ObservableDimension)
@@ -435,26 +442,44 @@ func (r *checkResult) writeJSON(w io.Writer) error {
 	return j.end()
 }
 
-// writeDilationJSON writes {"states": [...], nbKey: [...], sigKey: [1-based numbers]}.
-func writeDilationJSON(j *jsonw, g *structural.Network, states []int32, nbKey string, nb []int32, sigKey string, sigs []int) {
+// signalLine returns the design-file line of signal s (0-based), or its
+// 1-based number when the lines are unknown.
+func signalLine(lines []int, s int) int {
+	if s < len(lines) {
+		return lines[s]
+	}
+	return s + 1
+}
+
+// signalLines maps signals (0-based) to their design-file lines.
+func signalLines(lines []int, sigs []int) []int {
+	out := make([]int, len(sigs))
+	for i, s := range sigs {
+		out[i] = signalLine(lines, s)
+	}
+	return out
+}
+
+// writeDilationJSON writes {"states": [...], nbKey: [...], lineKey: [file lines]}.
+func writeDilationJSON(j *jsonw, g *structural.Network, states []int32, nbKey string, nb []int32, lineKey string, lines []int) {
 	w := j.w
 	w.WriteString("{\"states\": ")
 	writeNameArray(w, states, g.Name)
 	w.WriteString(", " + strconv.Quote(nbKey) + ": ")
 	writeNameArray(w, nb, g.Name)
-	w.WriteString(", " + strconv.Quote(sigKey) + ": [")
-	for i, s := range sigs {
+	w.WriteString(", " + strconv.Quote(lineKey) + ": [")
+	for i, l := range lines {
 		if i > 0 {
 			w.WriteString(", ")
 		}
-		w.WriteString(strconv.Itoa(s + 1))
+		w.WriteString(strconv.Itoa(l))
 	}
 	w.WriteString("]}")
 }
 
 // writeCSV writes key,value rows: one per number and one per listed state,
 // with the JSON names as keys (lists use the singular: unreached,
-// dilation_state, dilation_in_neighbour, dilation_input, ...).
+// dilation_state, dilation_in_neighbour, dilation_input_line, ...).
 func (r *checkResult) writeCSV(w io.Writer) error {
 	g := r.g
 	cw := csv.NewWriter(w)
@@ -466,7 +491,7 @@ func (r *checkResult) writeCSV(w io.Writer) error {
 	}
 	nums := func(k string, xs []int) {
 		for _, x := range xs {
-			row(k, strconv.Itoa(x+1))
+			row(k, strconv.Itoa(x))
 		}
 	}
 	row("key", "value")
@@ -483,7 +508,7 @@ func (r *checkResult) writeCSV(w io.Writer) error {
 		if d := v.Dilation; d != nil {
 			list("dilation_state", d.States)
 			list("dilation_in_neighbour", d.InNeighbours)
-			nums("dilation_input", d.Inputs)
+			nums("dilation_input_line", signalLines(r.inputLines, d.Inputs))
 		}
 	}
 	if v := r.obs; v != nil {
@@ -496,7 +521,7 @@ func (r *checkResult) writeCSV(w io.Writer) error {
 		if d := v.Dilation; d != nil {
 			list("observation_dilation_state", d.States)
 			list("observation_dilation_out_neighbour", d.OutNeighbours)
-			nums("observation_dilation_output", d.Outputs)
+			nums("observation_dilation_output_line", signalLines(r.outputLines, d.Outputs))
 		}
 	}
 	for _, s := range r.sections {
