@@ -20,6 +20,10 @@ type Coupling struct {
 	States []string
 }
 
+// maxVariantEdges bounds the edges Replicate builds, as the generators
+// bound theirs.
+const maxVariantEdges = 1<<31 - 1
+
 // CouplingPatterns lists the accepted Coupling.Pattern values.
 var CouplingPatterns = []string{"chain", "ring", "star", "all", "none"}
 
@@ -33,6 +37,32 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 	}
 	if int64(n)*int64(k) > MaxStates {
 		return nil, fmt.Errorf("structural: %d copies of %d states exceed %d states", k, n, MaxStates)
+	}
+	// Count the couplings before building them: "all" grows as k^2.
+	var npairs int64
+	kk := int64(k)
+	switch c.Pattern {
+	case "", "chain", "star":
+		npairs = kk - 1
+	case "ring":
+		npairs = kk - 1
+		if k > 2 {
+			npairs = kk
+		}
+	case "all":
+		npairs = kk * (kk - 1)
+	}
+	if c.TwoWay && c.Pattern != "all" {
+		npairs *= 2
+	}
+	ncoupled := int64(n)
+	if len(c.States) > 0 {
+		ncoupled = int64(len(c.States))
+	}
+	if copyEdges := int64(g.Edges()) * kk; copyEdges > maxVariantEdges ||
+		ncoupled > 0 && npairs > (maxVariantEdges-copyEdges)/ncoupled {
+		return nil, fmt.Errorf("structural: %d copies of %d edges with %d couplings of %d states exceed %d edges",
+			k, g.Edges(), npairs, ncoupled, int64(maxVariantEdges))
 	}
 	var pairs [][2]int // (from copy, to copy), 0-based
 	switch c.Pattern {
@@ -60,15 +90,10 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 		return nil, fmt.Errorf("structural: coupling %q: want chain, ring, star, all or none", c.Pattern)
 	}
 	if c.TwoWay && c.Pattern != "all" {
+		// No reverse repeats a pair: chains and rings run j -> j+1 (and
+		// k-1 -> 0 only for k > 2), stars 0 -> j.
 		for _, p := range pairs[:len(pairs):len(pairs)] {
-			rev := [2]int{p[1], p[0]}
-			dup := false
-			for _, q := range pairs {
-				dup = dup || q == rev
-			}
-			if !dup {
-				pairs = append(pairs, rev)
-			}
+			pairs = append(pairs, [2]int{p[1], p[0]})
 		}
 	}
 	var coupled []int32

@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"sort"
+	"strings"
 	"testing"
 )
 
@@ -322,5 +323,42 @@ func TestParseTransform(t *testing.T) {
 		if (err == nil) != tc.ok || (tc.ok && tr.Value != tc.val) {
 			t.Errorf("ParseTransform(%q) = %+v, %v", tc.in, tr, err)
 		}
+	}
+}
+
+// Two-way couplings of many copies are linear in the copies (the reverse
+// pairs were once deduplicated in quadratic time: 200,000 copies took
+// hours), never repeat a coupling, and a fleet beyond the edge limit is
+// refused before anything is built. Edge counts by hand: k copies of m
+// edges plus the couplings times the coupled states.
+func TestReplicateScale(t *testing.T) {
+	b := NewBuilder()
+	u, _ := b.Intern([]byte("tank"))
+	b.AddEdge(u, u)
+	g, err := b.Build(BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		k    int
+		c    Coupling
+		want int // edges
+	}{
+		{200000, Coupling{Pattern: "chain", TwoWay: true}, 200000 + 2*199999},
+		{2, Coupling{Pattern: "ring", TwoWay: true}, 2 + 2},
+		{3, Coupling{Pattern: "ring", TwoWay: true}, 3 + 6},
+		{4, Coupling{Pattern: "star", TwoWay: true}, 4 + 6},
+		{4, Coupling{Pattern: "all", TwoWay: true}, 4 + 12},
+	} {
+		h, err := Replicate(g, tc.k, tc.c)
+		if err != nil {
+			t.Fatalf("%d copies, %+v: %v", tc.k, tc.c, err)
+		}
+		if h.Edges() != tc.want || h.DuplicatesMerged != 0 {
+			t.Errorf("%d copies, %+v: got %d edges (%d repeats merged), want %d and none", tc.k, tc.c, h.Edges(), h.DuplicatesMerged, tc.want)
+		}
+	}
+	if _, err := Replicate(g, 100000, Coupling{Pattern: "all"}); err == nil || !strings.Contains(err.Error(), "exceed") {
+		t.Errorf("100000 copies coupled all to all (10^10 edges): got %v, want an edge-limit error", err)
 	}
 }
