@@ -244,7 +244,7 @@ func (s *genSummary) writeJSON(w io.Writer) error {
 		params[kv[0]] = kv[1]
 	}
 	j.val("params", params)
-	j.val("file", s.written.Network)
+	j.val("output", s.written.Network)
 	j.val("node_table", s.written.NodeTable)
 	if s.predicted >= 0 {
 		j.float("predicted_fraction", s.predicted)
@@ -264,7 +264,7 @@ func (s *genSummary) writeCSV(w io.Writer) error {
 	for _, kv := range s.params() {
 		ps = append(ps, kv[0]+"="+kv[1])
 	}
-	cw.Write([]string{"model", "nodes", "edges", "mean_degree", "seed", "params", "file", "node_table", "predicted_fraction"})
+	cw.Write([]string{"model", "nodes", "edges", "mean_degree", "seed", "params", "output", "node_table", "predicted_fraction"})
 	cw.Write([]string{s.model, strconv.Itoa(s.p.Nodes), strconv.FormatInt(s.edges, 10),
 		strconv.FormatFloat(s.meanDegree(), 'g', 12, 64), strconv.FormatUint(s.seed, 10),
 		strings.Join(ps, ";"), s.written.Network, s.written.NodeTable, pred})

@@ -10,6 +10,7 @@ import (
 	"os"
 	"os/signal"
 	"path/filepath"
+	"slices"
 	"strings"
 	"syscall"
 	"time"
@@ -18,6 +19,7 @@ import (
 
 	"github.com/netsteer/netsteer/io/plot"
 	"github.com/netsteer/netsteer/io/sweepcsv"
+	"github.com/netsteer/netsteer/structural"
 )
 
 var sweepCmd = &command{
@@ -100,6 +102,9 @@ func runSweep(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		if ext := strings.ToLower(filepath.Ext(*plotPath)); ext != ".svg" && ext != ".png" {
 			return usageError(e, c, "--plot %s: want a .svg or .png file", *plotPath)
 		}
+	}
+	if !slices.Contains(structural.CouplingPatterns, cf.pattern) {
+		return usageError(e, c, "--coupling %q: want %s", cf.pattern, strings.Join(structural.CouplingPatterns, ", "))
 	}
 	pl := &sweepcsv.Plan{Model: *model, Replicates: *replicates, Seed: *seed, Coupling: cf.coupling()}
 	if *model != "" {

@@ -2,7 +2,10 @@ package main
 
 import (
 	"bufio"
+	"encoding/csv"
 	"fmt"
+	"slices"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/pflag"
@@ -72,7 +75,7 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	output := fs.StringP("output", "o", "", "network file to write (- for standard output)")
 	outFormat := fs.String("output-format", "", "network file format: edges or mtx (default: from the file name)")
 	nodeTable := fs.String("output-node-table", "", "where the node table goes (default: beside the edge list)")
-	format := fs.String("format", "text", "summary format: text or json")
+	format := fs.String("format", "text", "summary format: text, json or csv")
 	if ok, st := parse(e, c, fs, args); !ok {
 		return st
 	}
@@ -85,8 +88,11 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if *output == "" {
 		return usageError(e, c, "-o FILE is required")
 	}
-	if *format != "text" && *format != "json" {
-		return usageError(e, c, "--format %q: want text or json", *format)
+	if err := (&outFlags{format: *format}).check(); err != nil {
+		return usageError(e, c, "%v", err)
+	}
+	if !slices.Contains(structural.CouplingPatterns, cf.pattern) {
+		return usageError(e, c, "--coupling %q: want %s", cf.pattern, strings.Join(structural.CouplingPatterns, ", "))
 	}
 	var ts []structural.Transform
 	for _, s := range *specs {
@@ -129,6 +135,20 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		w = e.Stderr
 	}
 	bw := bufio.NewWriter(w)
+	if *format == "csv" {
+		cw := csv.NewWriter(bw)
+		cw.Write([]string{"file", "transforms", "seed", "output", "node_table", "nodes_before", "edges_before", "driver_count_before",
+			"nodes", "edges", "driver_count", "driver_fraction", "predicted_fraction"})
+		cw.Write([]string{path, strings.Join(*specs, ";"), strconv.FormatUint(*seed, 10), written.Network, written.NodeTable,
+			strconv.Itoa(g.N()), strconv.Itoa(g.Edges()), strconv.Itoa(before),
+			strconv.Itoa(h.N()), strconv.Itoa(h.Edges()), strconv.Itoa(after),
+			strconv.FormatFloat(float64(after)/float64(h.N()), 'g', -1, 64), strconv.FormatFloat(expect, 'g', 10, 64)})
+		cw.Flush()
+		if err := cw.Error(); err != nil {
+			return fail(e, err)
+		}
+		return genFinish(e, bw.Flush())
+	}
 	if *format == "json" {
 		j := newJSON(bw)
 		j.val("file", path)
