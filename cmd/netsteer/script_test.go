@@ -5,14 +5,21 @@ import (
 	"testing"
 
 	"github.com/rogpeppe/go-internal/testscript"
+
+	"github.com/netsteer/netsteer/io/render/gvlayout"
 )
 
-// TestMain lets the script tests run this binary as the "netsteer" command.
+// TestMain lets the script tests run this binary as the "netsteer" command,
+// and as "netsteer-layout", the layout program render and report start
+// (found beside "netsteer" in the script's $PATH).
 func TestMain(m *testing.M) {
 	testscript.Main(m, map[string]func(){
 		"netsteer": func() {
 			e := &env{Stdin: os.Stdin, Stdout: os.Stdout, Stderr: os.Stderr}
 			os.Exit(run(e, os.Args[1:]))
+		},
+		"netsteer-layout": func() {
+			os.Exit(gvlayout.Main(os.Stdin, os.Stdout, os.Stderr, os.Args[1:]))
 		},
 	})
 }

@@ -21,9 +21,17 @@
 // DOT, SVG and HTML. Layout lays the DOT text out with Graphviz, compiled to
 // WebAssembly (github.com/goccy/go-graphviz), into SVG or PNG.
 //
-// Graphviz runs in one global WebAssembly instance, so Layout renders one
-// graph at a time (a package mutex). A layout cannot be cancelled once
-// started; Select caps the size of what reaches it instead.
+// Graphviz runs in a program of its own, netsteer-layout (package
+// gvlayout below this one; cmd/netsteer-layout), which Layout starts for
+// each picture, DOT text on its standard input and the layout on its
+// standard output. This package does not import go-graphviz: Go runs every
+// linked package's initialisation in every command, and go-graphviz's
+// starts a WebAssembly runtime (tens of megabytes, a tenth of a second, a
+// compilation cache under the temporary directory), which the commands
+// that do not draw must not pay. FindLayoutProgram says where the program
+// is looked for. Layout renders one graph at a time (a package mutex);
+// Select caps the size of what reaches it, and LayoutTimeout stops a
+// layout that runs away.
 //
 // Visual language. Colours come from the Okabe–Ito palette (Okabe & Ito,
 // "Color Universal Design", 2008), chosen to stay distinct under the common

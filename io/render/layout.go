@@ -1,24 +1,17 @@
 package render
 
 import (
-	"bytes"
-	"context"
-	"errors"
 	"fmt"
-	"io"
 	"path/filepath"
 	"sort"
 	"strings"
-	"sync"
-
-	"github.com/goccy/go-graphviz"
 )
 
 // layoutEngine is a Graphviz engine with the graph attributes netsteer
 // sets for it.
 type layoutEngine struct {
 	name   string // the name a user gives
-	engine graphviz.Layout
+	engine string // the Graphviz engine
 	attrs  []string
 	help   string
 }
@@ -34,15 +27,15 @@ type layoutEngine struct {
 // force-directed and fast, with prism overlap removal (without it nodes
 // pile up); "neato" is force-directed for small graphs.
 var layouts = []*layoutEngine{
-	{name: "dot", engine: graphviz.DOT, attrs: []string{"rankdir=LR", "splines=line", "nslimit=1", "nslimit1=1", "mclimit=0.1", "ranksep=0.45", "nodesep=0.18"},
+	{name: "dot", engine: "dot", attrs: []string{"rankdir=LR", "splines=line", "nslimit=1", "nslimit1=1", "mclimit=0.1", "ranksep=0.45", "nodesep=0.18"},
 		help: "left to right in layers, straight edges, tuned for speed"},
-	{name: "dot-splines", engine: graphviz.DOT, attrs: []string{"rankdir=LR", "nslimit=1", "nslimit1=1", "mclimit=0.1", "ranksep=0.45", "nodesep=0.18"},
+	{name: "dot-splines", engine: "dot", attrs: []string{"rankdir=LR", "nslimit=1", "nslimit1=1", "mclimit=0.1", "ranksep=0.45", "nodesep=0.18"},
 		help: "left to right in layers, curved edges; slow past about 100 nodes"},
-	{name: "sfdp", engine: graphviz.SFDP, attrs: []string{"overlap=prism", "splines=line", "K=0.6"},
+	{name: "sfdp", engine: "sfdp", attrs: []string{"overlap=prism", "splines=line", "K=0.6"},
 		help: "force-directed, for loosely layered networks"},
-	{name: "neato", engine: graphviz.NEATO, attrs: []string{"overlap=false", "splines=line"},
+	{name: "neato", engine: "neato", attrs: []string{"overlap=false", "splines=line"},
 		help: "force-directed (spring model), small networks"},
-	{name: "circo", engine: graphviz.CIRCO, attrs: []string{"splines=line"},
+	{name: "circo", engine: "circo", attrs: []string{"splines=line"},
 		help: "circular, for networks made of loops"},
 }
 
@@ -106,70 +99,4 @@ func FormatOf(path string) (Format, error) {
 		return FormatDOT, nil
 	}
 	return "", fmt.Errorf("render: cannot tell the format of %q: want a name ending in .svg, .png or .dot", path)
-}
-
-// gvMu serialises every use of Graphviz: go-graphviz keeps one global
-// WebAssembly instance that is not safe for concurrent use.
-var gvMu sync.Mutex
-
-// Layout lays out the DOT text with the named layout's engine and writes
-// the picture in format f (SVG or PNG) to w. Only one layout runs at a
-// time in a process. The SVG has no DOCTYPE (and so no reference to an
-// external DTD).
-func Layout(ctx context.Context, dot []byte, layout string, f Format, w io.Writer) error {
-	eng, err := engine(layout)
-	if err != nil {
-		return err
-	}
-	if f != FormatSVG && f != FormatPNG {
-		return fmt.Errorf("render: Graphviz output format %q not supported (want svg or png)", f)
-	}
-	gvMu.Lock()
-	defer gvMu.Unlock()
-	gv, err := graphviz.New(ctx)
-	if err != nil {
-		return fmt.Errorf("render: starting Graphviz: %v", err)
-	}
-	defer gv.Close()
-	graph, err := graphviz.ParseBytes(dot)
-	if err != nil {
-		return fmt.Errorf("render: Graphviz rejected the DOT text: %v", err)
-	}
-	defer graph.Close()
-	gv.SetLayout(eng.engine)
-	gvFormat := graphviz.SVG
-	if f == FormatPNG {
-		gvFormat = "json"
-	}
-	var buf bytes.Buffer
-	if err := gv.Render(ctx, graph, gvFormat, &buf); err != nil {
-		return fmt.Errorf("render: Graphviz layout: %v", err)
-	}
-	out := buf.Bytes()
-	if len(out) == 0 {
-		return errors.New("render: Graphviz produced no output")
-	}
-	if f == FormatPNG {
-		return drawPNG(out, w)
-	}
-	_, err = w.Write(stripDoctype(out))
-	return err
-}
-
-// stripDoctype removes the <!DOCTYPE ...> declaration Graphviz writes,
-// which names an external DTD; SVG needs none.
-func stripDoctype(svg []byte) []byte {
-	i := bytes.Index(svg, []byte("<!DOCTYPE"))
-	if i < 0 {
-		return svg
-	}
-	j := bytes.IndexByte(svg[i:], '>')
-	if j < 0 {
-		return svg
-	}
-	end := i + j + 1
-	if end < len(svg) && svg[end] == '\n' {
-		end++
-	}
-	return append(svg[:i:i], svg[end:]...)
 }
