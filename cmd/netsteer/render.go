@@ -51,8 +51,15 @@ driven states and their stems. The title says which view it is.
 
 Layouts (--layout): auto picks dot (left to right in layers) when the view
 has few layers and sfdp (force-directed) otherwise; both take a few seconds
-at 150 nodes. Graphviz runs as WebAssembly inside netsteer (go-graphviz);
-nothing needs to be installed.
+at 150 nodes.
+
+SVG and PNG are laid out by Graphviz, compiled to WebAssembly (go-graphviz),
+in a companion program, netsteer-layout, so that the commands that do not
+draw start fast. netsteer looks for it in $NETSTEER_LAYOUT, then next to the
+netsteer program, then on $PATH. Install both with
+  go install github.com/netsteer/netsteer/cmd/...
+or, in the source tree, go build -o DIR ./cmd/... . The .dot output needs
+no layout program.
 
 Exit status: 0 when the picture was written (whatever it shows), 2 on error.
 
@@ -452,6 +459,12 @@ func runRender(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		f = render.Format(*format)
 	default:
 		return usageError(e, c, "--format %q: want svg, png or dot", *format)
+	}
+	if f != render.FormatDOT {
+		// Before the analysis, which may take long on a large network.
+		if _, err := render.FindLayoutProgram(); err != nil {
+			return fail(e, err)
+		}
 	}
 	sh, err := parseShow(pf.show)
 	if err != nil {

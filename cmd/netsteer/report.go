@@ -43,6 +43,10 @@ options, and the cautions.
 The page needs nothing else: no scripts, no fonts, style sheets or images
 from elsewhere. Every name is escaped.
 
+The picture is laid out by the companion program netsteer-layout, as for
+"netsteer render" (see its help): install both with
+  go install github.com/netsteer/netsteer/cmd/...
+
 Exit status: 0 when the page was written (whatever it says), 2 on error.
 
 Example:
@@ -92,6 +96,10 @@ func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	path := fs.Arg(0)
 	if path == "-" {
 		return usageError(e, c, "report reads the network from a file, to record its checksum")
+	}
+	// The picture needs the layout program: say so before the analysis.
+	if _, err := render.FindLayoutProgram(); err != nil {
+		return fail(e, err)
 	}
 	sh := showSet{actuators: pf.inputs == "", sensors: pf.outputs == ""}
 	roles := pf.roles
@@ -149,7 +157,8 @@ func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		err = render.DrawView(context.Background(), in, v, pf.layout, render.FormatSVG, &svg)
 	}
 	if err != nil {
-		r.PictureError = "The picture could not be drawn: " + err.Error()
+		r.PictureError = "The picture could not be drawn: " + userMessage(err.Error())
+		fmt.Fprintln(e.Stderr, "netsteer: warning: the page has no picture: "+userMessage(err.Error()))
 	} else {
 		r.Picture = svg.Bytes()
 		r.PictureNote = "View: " + v.Desc + ". Hover over a node for its full name and findings."
