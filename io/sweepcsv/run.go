@@ -185,6 +185,13 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		err error
 		key string
 	}
+	// Write what there is now, so that an output that cannot be written
+	// is reported before the first row is computed, not after.
+	if toFile {
+		if err := WriteFile(opt.Output, append([]Row(nil), rows...), nil); err != nil {
+			return nil, err
+		}
+	}
 	jobs := make(chan Point)
 	results := make(chan result, len(todo)+1)
 	stop := make(chan struct{})

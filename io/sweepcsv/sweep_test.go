@@ -242,3 +242,19 @@ func TestPointsOrderAndSeeds(t *testing.T) {
 		}
 	}
 }
+
+// An output that cannot be written is reported before any row is
+// computed: a long sweep must not run for hours to fail at its first
+// checkpoint.
+func TestRunUnwritableOutput(t *testing.T) {
+	computed := 0
+	out := filepath.Join(t.TempDir(), "missing", "er.csv")
+	_, err := erPlan(t, 11).Run(context.Background(), RunOptions{Output: out, Workers: 1,
+		Progress: func(done, total int) { computed = done }})
+	if err == nil || !strings.Contains(err.Error(), "does not exist") {
+		t.Fatalf("got %v, want an error about the missing directory", err)
+	}
+	if computed != 0 {
+		t.Errorf("%d rows computed before the error, want 0", computed)
+	}
+}
