@@ -124,6 +124,9 @@ func runGenerate(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 			return usageError(e, c, "--output-format: %v", err)
 		}
 	}
+	if f == netwrite.MatrixMarket && *nodeTable != "" {
+		return usageError(e, c, "--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
+	}
 	rng := gen.NewRand(*seed)
 	var edges int64
 	written := netwrite.Written{Network: *output, Format: f}

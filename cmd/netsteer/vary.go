@@ -111,6 +111,9 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		}
 		opt.Format = f
 	}
+	if (opt.Format == netwrite.MatrixMarket || opt.Format == "" && netwrite.FormatOf(*output) == netwrite.MatrixMarket) && *nodeTable != "" {
+		return usageError(e, c, "--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
+	}
 	path := fs.Arg(0)
 	g, _, err := nf.load(path, nil)
 	if err != nil {

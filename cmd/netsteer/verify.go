@@ -134,6 +134,8 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "--hops and --sample must not be negative")
 	case !(vf.warnMargin >= 0):
 		return usageError(e, c, "--warn-margin must be a number >= 0")
+	case fs.Changed("hops") && vf.around == "" && vf.sample == 0:
+		return usageError(e, c, "--hops needs --around NAMES (or --sample K)")
 	}
 	if !fs.Changed("seed") {
 		vf.seed = rand.Uint64N(1_000_000_000)
