@@ -33,6 +33,7 @@ fi
 echo "== building" >&2
 go build -o "$OUT/netsteer" ./cmd/netsteer
 go build -o "$OUT/gen" ./bench/gen
+go build -o "$OUT/stages" ./bench/stages
 EDGES="$OUT/er-$N-$K.edges"
 PAIRS="$OUT/er-$N-$K.i32"
 if [ ! -s "$EDGES" ] || [ ! -s "$PAIRS" ]; then
@@ -55,47 +56,57 @@ read -r median medrss medrun < <(sort -n "$OUT/runs.txt" | sed -n 2p)
 cp "$OUT/drivers-$medrun.json" "$OUT/drivers-median.json"
 maxrss=$(awk 'BEGIN{m=0} {if ($2 > m) m = $2} END {print m}' "$OUT/runs.txt")
 
+echo "== netsteer stages (matching and components 3 times each)" >&2
+"$OUT/stages" -runs 3 "$EDGES" >"$OUT/stages.json"
+
 echo "== igraph and scipy (2 runs each)" >&2
 "$PY" bench/peers.py "$PAIRS" "$N" 2 >"$OUT/peers.json"
 
-"$PY" - "$OUT/drivers-median.json" "$OUT/peers.json" "$median" "$maxrss" <<'PYEOF'
+"$PY" - "$OUT/drivers-median.json" "$OUT/peers.json" "$median" "$maxrss" "$OUT/stages.json" <<'PYEOF'
 import json, os, sys
 ns = json.load(open(sys.argv[1]))
 peers = json.load(open(sys.argv[2]))
 wall, rss_kb = float(sys.argv[3]), int(sys.argv[4])
+st = json.load(open(sys.argv[5]))
 t = ns["timings"]
-match = t["match_s"]
+mw, mc = st["match"]["wall_s"], st["match"]["cpu_s"]
+iw, ic = peers["igraph_match_s"], peers["igraph_match_cpu_s"]
+sw, sc = peers["scipy_match_s"], peers["scipy_match_cpu_s"]
 print(f"workload: directed ER, {peers['nodes']} states, {peers['edges']} edges (text edge list)")
-print(f"machine: {os.cpu_count()} cores, {os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30:.0f} GiB")
+print(f"machine: {os.cpu_count()} cores, {os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30:.0f} GiB, "
+      f"load average {os.getloadavg()[0]:.1f}")
 print(f"matching size: netsteer {ns['matching_size']}, igraph {peers['igraph_matching_size']}, scipy {peers['scipy_matching_size']}")
-if not (ns["matching_size"] == peers["igraph_matching_size"] == peers["scipy_matching_size"]):
+if not (ns["matching_size"] == st["matching_size"] == peers["igraph_matching_size"] == peers["scipy_matching_size"]):
     print("MISMATCH in matching size")
-print("netsteer stages (s): " + ", ".join(f"{k[:-2]} {v:.3f}" for k, v in t.items()))
-print(f"netsteer matching      {match:8.3f} s")
-print(f"igraph matching        {peers['igraph_match_s']:8.3f} s   (igraph {peers['igraph_version']})")
-print(f"scipy matching         {peers['scipy_match_s']:8.3f} s   (scipy {peers['scipy_version']})")
-print(f"netsteer whole process {wall:8.3f} s   peak RSS {rss_kb / 1024:.0f} MB (largest of 3 runs)")
-print(f"ratio matching netsteer/igraph  {match / peers['igraph_match_s']:.3f}  (target <= 0.333)")
-print(f"ratio matching netsteer/scipy   {match / peers['scipy_match_s']:.3f}  (target <= 0.167)")
-print(f"ratio whole process/igraph match {wall / peers['igraph_match_s']:.3f}  (target <= 1)")
-print(f"peak RSS {rss_kb / 1024:.0f} MB (target <= 350 MB); "
+print("netsteer drivers stages, median run (s): " + ", ".join(f"{k[:-2]} {v:.3f}" for k, v in t.items()))
+print("matching on a prebuilt graph (fastest run)   wall s    CPU s")
+print(f"  netsteer                                 {mw:8.3f} {mc:8.3f}")
+print(f"  igraph {peers['igraph_version']:34s}{iw:8.3f} {ic:8.3f}")
+print(f"  scipy {peers['scipy_version']:35s}{sw:8.3f} {sc:8.3f}")
+print(f"netsteer components (fastest run)         {st['components']['wall_s']:8.3f} {st['components']['cpu_s']:8.3f}")
+print(f"ratio matching netsteer/igraph   wall {mw / iw:.3f}  CPU {mc / ic:.3f}  (target <= 0.333)")
+print(f"ratio matching netsteer/scipy    wall {mw / sw:.3f}  CPU {mc / sc:.3f}  (target <= 0.167)")
+print(f"whole `netsteer drivers --format json` process, median of 3: {wall:.3f} s wall; "
+      f"ratio to igraph's matching (wall) {wall / iw:.3f}  (target <= 1)")
+print(f"peak RSS {rss_kb / 1024:.0f} MB, largest of 3 runs (target <= 350 MB); "
       f"{rss_kb * 1024 / peers['edges']:.1f} bytes per edge")
 PYEOF
 
 # Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
-# 2.1) and a randomly oriented square grid with the same number of states.
-echo "netsteer on other shapes (one run each; whole process and stages, per edge):"
-for spec in "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
-	set -- $spec
+# 2.1) and a randomly oriented square grid with the same number of states,
+# against the ER workload; CPU time (user + system) of the whole process.
+echo "netsteer drivers on other shapes, whole process, one run each:"
+for spec in "er" "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
 	name=$(echo "$spec" | tr -d ' -')
-	f="$OUT/$name-$N.edges"
+	f="$OUT/$name-$N-$K.edges"
+	[ "$spec" = er ] && f="$EDGES"
 	[ -s "$f" ] || "$OUT/gen" -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
-	/usr/bin/time -f "%e" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >"$OUT/shape.json"
+	/usr/bin/time -f "%e %U %S" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >"$OUT/shape.json"
 	"$PY" - "$OUT/shape.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
 import json, sys
 d = json.load(open(sys.argv[1]))
-t, wall, e = d["timings"], float(sys.argv[2]), d["edges"]
-print(f"  {sys.argv[3]:14s} {e:9d} edges  whole {wall:6.2f} s = {wall / e * 1e9:5.0f} ns/edge;"
-      f"  match {t['match_s'] / e * 1e9:4.0f} ns/edge, read {t['read_s'] / e * 1e9:4.0f} ns/edge")
+wall, user, sys_ = map(float, sys.argv[2].split())
+e = d["edges"]
+print(f"  {sys.argv[3]:14s} {e:9d} edges  {wall:6.2f} s wall, {user + sys_:6.2f} s CPU = {(user + sys_) / e * 1e9:4.0f} ns CPU per edge")
 PYEOF
 done
