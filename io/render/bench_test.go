@@ -14,6 +14,9 @@ import (
 // per state (fixed seed), the workload behind the layout choices: run
 //
 //	go test ./io/render -run XXX -bench Layout -benchtime 3x
+//
+// Each operation starts the layout program (this test binary, see
+// TestMain), about 0.1 s of the time at any size.
 func BenchmarkLayout(b *testing.B) {
 	for _, n := range []int{50, 100, 150, 200} {
 		rng := rand.New(rand.NewPCG(uint64(n), 3))
