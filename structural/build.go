@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"slices"
+	"sync/atomic"
 
 	"github.com/netsteer/netsteer/matching"
 )
@@ -35,9 +36,10 @@ type Builder struct {
 
 	// Canonical decimal names (see intern.go): dense[v] is the state named
 	// v plus one, 0 when absent; overflow lists those hashed instead.
-	dense     []int32
-	overflow  []overflowName
-	unindexed bool // some names are missing from the hash index
+	dense       []int32
+	denseShared atomic.Pointer[[]int32] // dense as published to LookupInt
+	overflow    []overflowName
+	unindexed   bool // some names are missing from the hash index
 	// idx indexes the other names while building (see internName).
 	idx     []nameSlot
 	idxUsed int
@@ -156,6 +158,7 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	reindex := b.unindexed
 	b.unindexed = false
 	b.dense, b.overflow, b.idx = nil, nil, nil
+	b.denseShared.Store(nil)
 	if opt.Undirected {
 		// Every edge u -> v, u != v, gains v -> u. The loop runs over a
 		// copy of the segment list, which grows meanwhile.

@@ -6,6 +6,7 @@ import (
 	"hash/maphash"
 	"math"
 	"strconv"
+	"sync/atomic"
 )
 
 // Integer names. Most large networks name their states by decimal
@@ -47,7 +48,7 @@ func canonicalDecimal(name []byte) (uint32, bool) {
 // integer-named inputs. v must be below 2^31-1.
 func (b *Builder) InternInt(v uint32) (int32, error) {
 	if int(v) < len(b.dense) {
-		if s := b.dense[v]; s != 0 {
+		if s := atomic.LoadInt32(&b.dense[v]); s != 0 {
 			return s - 1, nil
 		}
 	}
@@ -61,7 +62,7 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 		if !b.growDense(v) {
 			return b.internOverflow(v)
 		}
-		if s := b.dense[v]; s != 0 {
+		if s := atomic.LoadInt32(&b.dense[v]); s != 0 {
 			return s - 1, nil // it was hashed before and has just moved in
 		}
 	}
@@ -71,8 +72,24 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 	t.arena = strconv.AppendUint(t.arena, uint64(v), 10)
 	t.off = append(t.off, int64(len(t.arena)))
 	b.unindexed = true
-	b.dense[v] = id + 1
+	atomic.StoreInt32(&b.dense[v], id+1)
 	return id, nil
+}
+
+// LookupInt returns the state named by the canonical decimal form of v if
+// the Builder has it in its dense table, as InternInt would, without adding
+// it. It may be called from any number of goroutines while one other
+// goroutine calls InternInt and Intern: it then sees a subset of the names
+// interned so far (a state, once seen, never changes), so a reader that
+// parses ahead of the goroutine interning in order can resolve the names
+// already known and leave the rest to it.
+func (b *Builder) LookupInt(v uint32) (int32, bool) {
+	p := b.denseShared.Load()
+	if p == nil || int(v) >= len(*p) {
+		return -1, false
+	}
+	s := atomic.LoadInt32(&(*p)[v])
+	return s - 1, s != 0
 }
 
 // growDense extends the dense table to cover v when v is within the bound
@@ -101,6 +118,8 @@ func (b *Builder) growDense(v uint32) bool {
 		}
 	}
 	b.overflow = b.overflow[:k]
+	shared := b.dense // readers get their own header: b.dense is reassigned
+	b.denseShared.Store(&shared)
 	return true
 }
 

@@ -38,7 +38,8 @@ type block struct {
 	readErr error  // the read failed after data
 
 	lines int       // lines in data
-	toks  []int32   // two per edge: a name's value (>= 0) or ^index into names
+	toks  []int32   // two per edge: a known state (>= 0) or ^index into pend
+	pend  []int64   // names to intern in order: a value (>= 0) or ^index into the arena
 	ws    []float64 // one per edge when weights are kept; NaN for none
 	arena []byte    // names that are not canonical decimals
 	offs  []int32   // name i is arena[offs[2i]:offs[2i+1]]
@@ -46,12 +47,13 @@ type block struct {
 	done  chan struct{}
 	buf   []byte // backing store of data
 	tok   tokenizer
+	b     *structural.Builder // for LookupInt while parsing; nil in lineOfEdge
 }
 
 // readEdgeList parses "source target [weight]" lines into b.
 func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
 	rd := &blockReader{r: r}
-	first := newBlock()
+	first := newBlock(b)
 	rd.fill(first)
 	if first.readErr != nil || rd.eof || parseWorkers == 1 {
 		// Small input, or sequential on request: parse in turn.
@@ -79,7 +81,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 	order := make(chan *block, nblocks)
 	quit := make(chan struct{})
 	for i := 1; i < nblocks; i++ {
-		free <- newBlock()
+		free <- newBlock(b)
 	}
 	for i := 0; i < workers; i++ {
 		go func() {
@@ -131,8 +133,8 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 
 var errStop = errors.New("stop")
 
-func newBlock() *block {
-	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1)}
+func newBlock(b *structural.Builder) *block {
+	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1), b: b}
 }
 
 // blockReader cuts its input into blocks of whole lines.
@@ -182,6 +184,7 @@ func (rd *blockReader) fill(blk *block) {
 func parseBlock(blk *block, weights bool) {
 	blk.lines = 0
 	blk.toks = blk.toks[:0]
+	blk.pend = blk.pend[:0]
 	blk.ws = blk.ws[:0]
 	blk.arena = blk.arena[:0]
 	blk.offs = blk.offs[:0]
@@ -302,10 +305,20 @@ func (blk *block) addFields(fields [][]byte, weights bool) string {
 	}
 	for _, f := range fields[:2] {
 		if v, ok := decimalValue(f); ok {
-			blk.toks = append(blk.toks, int32(v))
+			// A name already interned (in an earlier block) resolves
+			// now, in parallel; the rest waits for the in-order merge.
+			if blk.b != nil {
+				if id, ok := blk.b.LookupInt(v); ok {
+					blk.toks = append(blk.toks, id)
+					continue
+				}
+			}
+			blk.toks = append(blk.toks, ^int32(len(blk.pend)))
+			blk.pend = append(blk.pend, int64(v))
 			continue
 		}
-		blk.toks = append(blk.toks, ^int32(len(blk.offs)/2))
+		blk.toks = append(blk.toks, ^int32(len(blk.pend)))
+		blk.pend = append(blk.pend, ^int64(len(blk.offs)/2))
 		blk.offs = append(blk.offs, int32(len(blk.arena)))
 		blk.arena = append(blk.arena, f...)
 		blk.offs = append(blk.offs, int32(len(blk.arena)))
@@ -376,15 +389,19 @@ func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, li
 
 func (blk *block) intern(b *structural.Builder, t int32) (int32, error) {
 	if t >= 0 {
-		return b.InternInt(uint32(t))
+		return t, nil
 	}
-	k := 2 * int(^t)
+	p := blk.pend[^t]
+	if p >= 0 {
+		return b.InternInt(uint32(p))
+	}
+	k := 2 * int(^p)
 	return b.Intern(blk.arena[blk.offs[k]:blk.offs[k+1]])
 }
 
 // lineOfEdge returns the line, counted within blk, that holds edge k.
 func (blk *block) lineOfEdge(k int, weights bool) int {
-	scratch := &block{}
+	scratch := &block{} // no Builder: every name stays pending
 	data, line := blk.data, 0
 	for len(data) > 0 {
 		var l []byte
