@@ -183,8 +183,8 @@ func (r *driversResult) writeText(w io.Writer) error {
 	g, ds := r.g, r.ds
 	bw := bufio.NewWriterSize(w, 1<<16)
 	nd := len(ds.Drivers)
-	fmt.Fprintf(bw, "%s needs %d independent control %s for %d states (driver fraction %.4f).\n",
-		displayFile(r.file), nd, plural(nd, "signal", "signals"), g.N(), r.fraction())
+	fmt.Fprintf(bw, "%s needs %d independent control %s for %s (driver fraction %.4f).\n",
+		displayFile(r.file), nd, plural(nd, "signal", "signals"), count(g.N(), "state", "states"), r.fraction())
 	fmt.Fprintf(bw, "Drive: %s\n", nameList(g, ds.Drivers, maxListed))
 	attached := 0
 	for _, in := range ds.Inputs {
@@ -218,6 +218,11 @@ const caution = `Structural result: it holds for almost all parameter values, no
 one. Use it as a screening step; it does not replace dynamic studies, safety
 analysis, local codes or licensed engineering review.
 `
+
+// count returns "n things", singular when n is 1.
+func count(n int, one, many string) string {
+	return strconv.Itoa(n) + " " + plural(n, one, many)
+}
 
 func plural(n int, one, many string) string {
 	if n == 1 {

@@ -217,8 +217,8 @@ func (s *genSummary) meanDegree() float64 { return 2 * float64(s.edges) / float6
 
 func (s *genSummary) writeText(w io.Writer) error {
 	bw := bufio.NewWriter(w)
-	fmt.Fprintf(bw, "Wrote %s: %d states, %d edges (model %s, mean degree <k> = 2L/N = %.4g).\n",
-		s.written.Network, s.p.Nodes, s.edges, s.model, s.meanDegree())
+	fmt.Fprintf(bw, "Wrote %s: %s, %s (model %s, mean degree <k> = 2L/N = %.4g).\n",
+		s.written.Network, count(s.p.Nodes, "state", "states"), count(int(s.edges), "edge", "edges"), s.model, s.meanDegree())
 	if s.written.NodeTable != "" {
 		fmt.Fprintf(bw, "Node table with all %d states: %s (read back with --node-table %s).\n", s.p.Nodes, s.written.NodeTable, s.written.NodeTable)
 	} else if s.written.Format == netwrite.EdgeList {

@@ -169,10 +169,10 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		j.float("predicted_fraction", expect)
 		return genFinish(e, j.end())
 	}
-	fmt.Fprintf(bw, "The variant needs %d independent control %s for %d states (driver fraction %.4f); %s needed %d for %d.\n",
-		after, plural(after, "signal", "signals"), h.N(), float64(after)/float64(h.N()), path, before, g.N())
+	fmt.Fprintf(bw, "The variant needs %d independent control %s for %s (driver fraction %.4f); %s needed %d for %d.\n",
+		after, plural(after, "signal", "signals"), count(h.N(), "state", "states"), float64(after)/float64(h.N()), path, before, g.N())
 	fmt.Fprintf(bw, "Degree-preserving expectation for the variant: %.4f (cavity prediction for its degree sequence).\n", expect)
-	fmt.Fprintf(bw, "Wrote %s: %d states, %d edges (was %d and %d)", written.Network, h.N(), h.Edges(), g.N(), g.Edges())
+	fmt.Fprintf(bw, "Wrote %s: %s, %s (was %d and %d)", written.Network, count(h.N(), "state", "states"), count(h.Edges(), "edge", "edges"), g.N(), g.Edges())
 	if written.NodeTable != "" {
 		fmt.Fprintf(bw, "; node table %s", written.NodeTable)
 	}

@@ -189,9 +189,9 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		keep := numeric.Around(g, centres, hops, vf.sample)
 		switch {
 		case vf.sample > 0 && hops < 0:
-			res.subnet = fmt.Sprintf("the first %d states met from %s", len(keep), from)
+			res.subnet = fmt.Sprintf("the first %s met from %s", count(len(keep), "state", "states"), from)
 		case vf.sample > 0:
-			res.subnet = fmt.Sprintf("the first %d states met within %d %s of %s", len(keep), hops, plural(hops, "step", "steps"), from)
+			res.subnet = fmt.Sprintf("the first %s met within %d %s of %s", count(len(keep), "state", "states"), hops, plural(hops, "step", "steps"), from)
 		default:
 			res.subnet = fmt.Sprintf("the states within %d %s of %s", hops, plural(hops, "step", "steps"), from)
 		}
@@ -482,7 +482,7 @@ func (v *verifyResult) writeText(w io.Writer) error {
 		}
 		warn = append(warn, v.warnings(p)...)
 	}
-	fmt.Fprintf(bw, "\nNetwork: %d states, %d edges (%d %s)", rep.N, rep.Edges, v.g.SelfLoops, plural(v.g.SelfLoops, "self-loop", "self-loops"))
+	fmt.Fprintf(bw, "\nNetwork: %s, %s (%s)", count(rep.N, "state", "states"), count(rep.Edges, "edge", "edges"), count(v.g.SelfLoops, "self-loop", "self-loops"))
 	if v.subnet != "" {
 		fmt.Fprintf(bw, ": the part of %s made of %s (%d of %d states)", v.file, v.subnet, rep.N, v.full)
 	}
