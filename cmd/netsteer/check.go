@@ -132,6 +132,9 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	case stdin > 1:
 		return usageError(e, c, "only one of NET, --inputs and --outputs can read standard input")
 	}
+	if err := overwritesInput(of.output, path, inputsFile, outputsFile, nf.nodeTable); err != nil {
+		return usageError(e, c, "%v", err)
+	}
 	start := time.Now()
 	g, readT, err := nf.load(path, nil)
 	if err != nil {

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"regexp"
 	"sort"
 	"strings"
@@ -138,6 +139,27 @@ func fail(e *env, err error) int {
 func usageError(e *env, c *command, format string, args ...any) int {
 	fmt.Fprintf(e.Stderr, "netsteer %s: %s (see netsteer %s --help)\n", c.name, userMessage(fmt.Sprintf(format, args...)), c.name)
 	return exitError
+}
+
+// overwritesInput reports an error when the output file out is one of the
+// files the command reads ("-" and "" are never files).
+func overwritesInput(out string, inputs ...string) error {
+	if out == "" || out == "-" {
+		return nil
+	}
+	ost, err := os.Stat(out)
+	if err != nil {
+		return nil
+	}
+	for _, in := range inputs {
+		if in == "" || in == "-" {
+			continue
+		}
+		if ist, err := os.Stat(in); err == nil && os.SameFile(ost, ist) {
+			return fmt.Errorf("-o %s would overwrite the input file %s", out, in)
+		}
+	}
+	return nil
 }
 
 // pkgPrefix matches the package names that library errors start with

@@ -66,6 +66,9 @@ func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "%v", err)
 	}
 	path := fs.Arg(0)
+	if err := overwritesInput(of.output, path, nf.nodeTable); err != nil {
+		return usageError(e, c, "%v", err)
+	}
 	start := time.Now()
 	g, readT, err := nf.load(path, nil)
 	if err != nil {

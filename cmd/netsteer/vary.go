@@ -115,6 +115,15 @@ func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return usageError(e, c, "--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
 	}
 	path := fs.Arg(0)
+	nt := *nodeTable
+	if nt == "" && *output != "-" {
+		nt = netwrite.NodeTablePath(*output)
+	}
+	for _, out := range []string{*output, nt} {
+		if err := overwritesInput(out, path, nf.nodeTable); err != nil {
+			return usageError(e, c, "%v", err)
+		}
+	}
 	g, _, err := nf.load(path, nil)
 	if err != nil {
 		return fail(e, err)

@@ -141,6 +141,9 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		vf.seed = rand.Uint64N(1_000_000_000)
 	}
 	path := fs.Arg(0)
+	if err := overwritesInput(of.output, path, vf.inputs, vf.outputs, nf.nodeTable); err != nil {
+		return usageError(e, c, "%v", err)
+	}
 	g, _, err := nf.load(path, func(o *netread.Options) error { o.Weights = vf.weights; return nil })
 	if err != nil {
 		return fail(e, err)
