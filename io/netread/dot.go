@@ -2,6 +2,7 @@ package netread
 
 import (
 	"bufio"
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -48,6 +49,7 @@ func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, er
 	if len(src) > MaxDOTBytes {
 		return nil, &Error{File: file, Msg: fmt.Sprintf("DOT input larger than %d MiB; write big networks as an edge list or a Matrix Market file", MaxDOTBytes>>20)}
 	}
+	src = bytes.TrimPrefix(src, []byte(utf8BOM))
 	// gonum's lexer ends a // or # comment at a newline only.
 	if len(src) == 0 || src[len(src)-1] != '\n' {
 		src = append(src, '\n')

@@ -54,6 +54,7 @@ func TestDOT(t *testing.T) {
 		{name: "self-dynamics", in: "digraph { a -> b; b -> b }", opt: Options{Build: structural.BuildOptions{SelfDynamics: true}},
 			edges: []string{"a>b", "a>a", "b>b"}, loops: 2},
 		{name: "isolated only", in: "digraph { x }", nodes: []string{"x"}},
+		{name: "byte-order mark", in: "\ufeffdigraph { a -> b }", edges: []string{"a>b"}},
 		{name: "extra states", in: "digraph { a -> b }", opt: Options{States: []string{"c"}}, edges: []string{"a>b"}, nodes: []string{"a", "b", "c"}},
 
 		{name: "empty file", in: "", err: "empty network: no graph"},

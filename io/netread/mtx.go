@@ -25,6 +25,9 @@ const (
 	mtxFreeStates = 1 << 20
 )
 
+// utf8BOM is the UTF-8 byte-order mark.
+const utf8BOM = "\xef\xbb\xbf"
+
 // mtxHeader is what the banner and size line say.
 type mtxHeader struct {
 	field    string // pattern, real or integer
@@ -161,6 +164,8 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 	if err != nil {
 		return h, err
 	}
+	// A byte-order mark, as some editors write, is not part of the banner.
+	line = bytes.TrimPrefix(line, []byte(utf8BOM))
 	var f [6][]byte
 	k := mtxSplit(line, f[:])
 	if k == 0 || !bytes.EqualFold(f[0], []byte("%%MatrixMarket")) {

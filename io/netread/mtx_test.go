@@ -22,6 +22,7 @@ func TestMatrixMarket(t *testing.T) {
 	cases := []readCase{
 		{name: "pattern", in: gen + "% a comment\n3 3 3\n2 1\n3 2\n1 3\n",
 			edges: []string{"1>2", "2>3", "3>1"}, nodes: []string{"1", "2", "3"}},
+		{name: "byte-order mark", in: "\ufeff" + gen + "2 2 1\n2 1\n", edges: []string{"1>2"}},
 		{name: "isolated states", in: gen + "4 4 1\n2 1\n", edges: []string{"1>2"}, nodes: []string{"1", "2", "3", "4"}},
 		{name: "comments and blanks among entries", in: gen + "%c\n\n2 2 2\n% mid\n1 2\n\n2 2\n", edges: []string{"2>1", "2>2"}, loops: 1},
 		{name: "crlf", in: strings.ReplaceAll(gen+"2 2 1\n1 2\n", "\n", "\r\n"), edges: []string{"2>1"}},
