@@ -94,19 +94,24 @@ PYEOF
 
 # Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
 # 2.1) and a randomly oriented square grid with the same number of states,
-# against the ER workload; CPU time (user + system) of the whole process.
-echo "netsteer drivers on other shapes, whole process, one run each:"
+# against the ER workload: stage times from bench/stages (matching and
+# components in thread CPU time, fastest of 3; reading in wall time) and
+# the CPU time (user + system) of the whole drivers process.
+echo "per edge on other shapes (ns/edge; match and components: CPU, fastest of 3; read: wall; drivers: whole-process CPU):"
 for spec in "er" "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
 	name=$(echo "$spec" | tr -d ' -')
 	f="$OUT/$name-$N-$K.edges"
 	[ "$spec" = er ] && f="$EDGES"
 	[ -s "$f" ] || "$OUT/gen" -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
-	/usr/bin/time -f "%e %U %S" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >"$OUT/shape.json"
-	"$PY" - "$OUT/shape.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
+	"$OUT/stages" -runs 3 "$f" >"$OUT/shape-stages.json"
+	/usr/bin/time -f "%e %U %S" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >/dev/null
+	"$PY" - "$OUT/shape-stages.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
 import json, sys
 d = json.load(open(sys.argv[1]))
 wall, user, sys_ = map(float, sys.argv[2].split())
-e = d["edges"]
-print(f"  {sys.argv[3]:14s} {e:9d} edges  {wall:6.2f} s wall, {user + sys_:6.2f} s CPU = {(user + sys_) / e * 1e9:4.0f} ns CPU per edge")
+e, n = d["edges"], d["nodes"]
+ns = lambda x: x / e * 1e9
+print(f"  {sys.argv[3]:14s} {n:8d} states {e:9d} edges  match {ns(d['match']['cpu_s']):4.0f}  "
+      f"components {ns(d['components']['cpu_s']):4.0f}  read {ns(d['read']['wall_s']):4.0f}  drivers {ns(user + sys_):4.0f}")
 PYEOF
 done

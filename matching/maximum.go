@@ -14,21 +14,23 @@ type Matching struct {
 //
 // The matching is initialised by Karp–Sipser (degree-one reductions first,
 // then the free edge to the column of fewest free neighbours) and completed
-// by augmenting paths. A search that fails proves that the columns it
-// visited lead to no free column, now or after later augmentations (they
+// by augmenting paths. A search that fails proves that the vertices it
+// visited lead to no free vertex, now or after later augmentations (they
 // and their mates form a closed alternating set); they are marked dead and
-// never entered again. A first pass searches from each free row in turn,
-// breadth-first with lookahead (Kuhn's method with dead marks), so failing
-// searches together cost one pass over the graph; if successful searches
-// grow expensive, the remaining free rows go on in phases of Pothen–Fan
-// with lookahead and fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2):13,
-// 2011), depth-first with a visit mark shared by the phase, so a phase costs
-// at most one pass.
+// never entered again, so failing searches together scan each edge once.
+// Searches run breadth-first with lookahead, one per free vertex (Kuhn's
+// method with dead marks), from the free rows and from the free columns in
+// turn, and stop as soon as one side is exhausted, since an augmenting path
+// needs a free vertex on both sides: on many networks one side is far
+// cheaper to exhaust than the other. If successful searches grow expensive,
+// the remaining free rows go on in phases of Pothen–Fan with lookahead and
+// fairness (PF+; Duff, Kaya & Uçar, ACM TOMS 38(2):13, 2011), depth-first
+// with a visit mark shared by the phase, so a phase costs at most one pass.
 //
 // Every search is iterative. Time is O(|E|) for the initialisation and
 // O(|V||E|) in the worst case for the augmentation, near-linear on the
-// sparse networks met in practice; memory is about 24 bytes per row and
-// column beyond the graph.
+// sparse networks met in practice; memory is about 16 bytes per row and
+// column during Karp–Sipser and 32 during augmentation, beyond the graph.
 func Maximum(g, gt *CSR) *Matching {
 	if gt == nil {
 		gt = Transpose(g)
