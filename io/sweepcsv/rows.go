@@ -194,8 +194,8 @@ func Read(r io.Reader, file string) ([]Row, error) {
 		num("driver_fraction", &row.DriverFraction)
 		num("predicted_fraction", &row.PredictedFraction)
 		num("seconds", &row.Seconds)
-		if perr == nil && row.Model == "" {
-			perr = errors.New("empty model")
+		if perr == nil {
+			perr = row.check()
 		}
 		if perr != nil {
 			return nil, &netread.Error{File: file, Line: line, Msg: perr.Error()}
@@ -203,6 +203,30 @@ func Read(r io.Reader, file string) ([]Row, error) {
 		rows = append(rows, row)
 	}
 	return rows, nil
+}
+
+// check reports a row whose numbers contradict each other, as a damaged
+// or hand-edited file has them: a resumed sweep must not keep it.
+func (r *Row) check() error {
+	switch {
+	case r.Model == "":
+		return errors.New("empty model")
+	case r.Nodes < 1:
+		return fmt.Errorf("nodes %d: want at least 1", r.Nodes)
+	case r.Replicate < 1:
+		return fmt.Errorf("replicate %d: want at least 1", r.Replicate)
+	case r.Edges < 0:
+		return fmt.Errorf("edges %d: want 0 or more", r.Edges)
+	case r.DriverCount < 1 || r.DriverCount > r.Nodes:
+		return fmt.Errorf("driver_count %d out of range [1, %d] (nodes)", r.DriverCount, r.Nodes)
+	case math.Abs(r.DriverFraction-float64(r.DriverCount)/float64(r.Nodes)) > 1e-9:
+		return fmt.Errorf("driver_fraction %v is not driver_count/nodes = %d/%d", r.DriverFraction, r.DriverCount, r.Nodes)
+	case !math.IsNaN(r.PredictedFraction) && !(r.PredictedFraction >= 0 && r.PredictedFraction <= 1):
+		return fmt.Errorf("predicted_fraction %v is not in [0, 1]", r.PredictedFraction)
+	case r.PredictionFrom != "" && r.PredictionFrom != "model" && r.PredictionFrom != "degrees":
+		return fmt.Errorf("prediction_from %q: want model or degrees", r.PredictionFrom)
+	}
+	return nil
 }
 
 func csvError(file string, err error) error {

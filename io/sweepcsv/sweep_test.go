@@ -258,3 +258,26 @@ func TestRunUnwritableOutput(t *testing.T) {
 		t.Errorf("%d rows computed before the error, want 0", computed)
 	}
 }
+
+// A row whose numbers contradict each other (a damaged or hand-edited
+// file) is refused with its line, so that a resumed sweep does not keep
+// it. The consistent row is the one a run writes (N_D/N, Liu et al. 2011).
+func TestReadRejectsInconsistentRows(t *testing.T) {
+	const header = "model,nodes,mean_degree,replicate,seed,edges,driver_count,driver_fraction,predicted_fraction,seconds,params,prediction_from\n"
+	good := "er,2000,1,1,7,1000,1298,0.649,0.6543680523,0.005,nodes=2000;mean_degree=1,model\n"
+	if _, err := Read(strings.NewReader(header+good), "ok.csv"); err != nil {
+		t.Fatalf("consistent row: %v", err)
+	}
+	for _, tc := range []struct{ row, want string }{
+		{"er,2000,1,1,7,1000,9999,0.649,0.65,0.005,nodes=2000;mean_degree=1,model\n", "driver_count 9999 out of range"},
+		{"er,2000,1,1,7,1000,1298,0.5,0.65,0.005,nodes=2000;mean_degree=1,model\n", "driver_fraction 0.5 is not driver_count/nodes"},
+		{"er,2000,1,0,7,1000,1298,0.649,0.65,0.005,nodes=2000;mean_degree=1,model\n", "replicate 0"},
+		{"er,2000,1,1,7,1000,1298,0.649,1.5,0.005,nodes=2000;mean_degree=1,model\n", "predicted_fraction 1.5"},
+		{"er,2000,1,1,7,1000,1298,0.649,0.65,0.005,nodes=2000;mean_degree=1,modelX\n", `prediction_from "modelX"`},
+	} {
+		_, err := Read(strings.NewReader(header+good+tc.row), "bad.csv")
+		if err == nil || !strings.Contains(err.Error(), "bad.csv:3: "+tc.want) {
+			t.Errorf("row %q: got %v, want bad.csv:3: %s...", tc.row, err, tc.want)
+		}
+	}
+}
