@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/structural"
 )
 
 // benchInputs are fixed-seed edge lists of integer names: directed
@@ -36,7 +37,8 @@ func benchInput(model string, n int) []byte {
 }
 
 // BenchmarkRead times reading an integer-named edge list into a Network:
-// parsing, interning and building both CSR directions.
+// parsing, interning and building both CSR directions. Inputs are generated
+// once per size (not timed).
 //
 //	go test -run '^$' -bench Read -benchmem ./io/netread
 func BenchmarkRead(b *testing.B) {
@@ -48,6 +50,31 @@ func BenchmarkRead(b *testing.B) {
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
 					if _, err := Read(bytes.NewReader(data), "bench", Options{}); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
+
+// BenchmarkParse times the parse stage alone: blocks, tokens and names
+// interned into a Builder, without Build.
+//
+//	go test -run '^$' -bench Parse -benchmem ./io/netread
+func BenchmarkParse(b *testing.B) {
+	for _, model := range []string{"er", "sf", "grid"} {
+		for _, n := range []int{10_000, 100_000, 1_000_000} {
+			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
+				data := benchInput(model, n)
+				b.SetBytes(int64(len(data)))
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					br, err := maybeGunzip(bytes.NewReader(data), "bench")
+					if err != nil {
+						b.Fatal(err)
+					}
+					if err := readEdgeList(br, "bench", structural.NewBuilder(), false); err != nil {
 						b.Fatal(err)
 					}
 				}
