@@ -211,13 +211,7 @@ func augment(g, gt *CSR, m *Matching) int {
 	}
 	var spent int64 // scans by successful searches
 	for spent <= budget {
-		// The side with less work so far gets the next slice of scans.
-		// Searches are suspended between slices, so one huge failing
-		// search on the expensive side cannot hold up the cheap side.
-		s := &side[0]
-		if side[1].work < side[0].work {
-			s = &side[1]
-		}
+		s := pickSide(&side[0], &side[1])
 		if s.cur >= 0 {
 			if s.own[s.cur].mate >= 0 {
 				s.abandon() // the other side matched this root
@@ -275,6 +269,39 @@ func augment(g, gt *CSR, m *Matching) int {
 		m.ColMate[c] = x.mate
 	}
 	return added
+}
+
+// pickSide returns the side that gets the next slice of scans: the one
+// whose remaining roots, at its cost per root so far, should take less work
+// to exhaust, unless it has already done more than ahead times the other's
+// work, which bounds the loss when the estimate misleads. Searches are
+// suspended between slices, so one huge failing search on the expensive
+// side cannot hold up the cheap side.
+func pickSide(a, b *kuhnSide) *kuhnSide {
+	const ahead = 3
+	switch {
+	case a.work > ahead*b.work+searchSlice:
+		return b
+	case b.work > ahead*a.work+searchSlice:
+		return a
+	}
+	if b.estimate() < a.estimate() {
+		return b
+	}
+	return a
+}
+
+// estimate is the work this side's remaining roots should take, at the
+// mean cost of the roots finished so far (counting the current search as
+// finished), plus the work of the current search.
+func (s *kuhnSide) estimate() float64 {
+	done := float64(s.next)
+	if s.cur >= 0 {
+		done-- // started, not finished
+	}
+	left := float64(len(s.roots) - s.next)
+	perRoot := float64(s.work) / max(done, 1)
+	return perRoot * left
 }
 
 // searchSlice is the number of edge scans a side runs before the other
