@@ -108,6 +108,7 @@ func Layout(ctx context.Context, dot []byte, layout string, f Format, w io.Write
 	case FormatSVG:
 	case FormatPNG:
 		kind = "json"
+		dot = pngDOT(dot) // Graphviz's JSON loses labels after a dashed cell
 	default:
 		return fmt.Errorf("render: Graphviz output format %q not supported (want svg or png)", f)
 	}
