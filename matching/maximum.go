@@ -1,5 +1,7 @@
 package matching
 
+import "github.com/netsteer/netsteer/internal/bigmem"
+
 // Matching is a matching of a bipartite graph: RowMate[r] is the column
 // matched to row r and ColMate[c] the row matched to column c, -1 when
 // unmatched. Size is the number of matched pairs.
@@ -35,7 +37,7 @@ func Maximum(g, gt *CSR) *Matching {
 	if gt == nil {
 		gt = Transpose(g)
 	}
-	m := &Matching{RowMate: make([]int32, g.Rows), ColMate: make([]int32, g.Cols)}
+	m := &Matching{RowMate: bigmem.Make[int32](g.Rows, g.Rows), ColMate: bigmem.Make[int32](g.Cols, g.Cols)}
 	m.Size = karpSipser(g, gt, m)
 	m.Size += augment(g, gt, m)
 	return m
@@ -52,8 +54,8 @@ func Maximum(g, gt *CSR) *Matching {
 // pairs as they leave together).
 func karpSipser(g, gt *CSR, m *Matching) int {
 	nr, nc := g.Rows, g.Cols
-	rs := make([]ksState, nr)
-	cs := make([]ksState, nc)
+	rs := bigmem.Make[ksState](nr, nr)
+	cs := bigmem.Make[ksState](nc, nc)
 	queue := make([]int32, 0, 1024) // degree-one vertices: rows r, columns as ^c
 	gp, ga, tp, ta := g.Ptr, g.Adj, gt.Ptr, gt.Adj
 	for r := 0; r < nr; r++ {
@@ -194,8 +196,8 @@ func augment(g, gt *CSR, m *Matching) int {
 	if len(side[0].roots) == 0 || len(side[1].roots) == 0 {
 		return 0 // no augmenting path can start or end anywhere
 	}
-	rows := make([]vinfo, nr)
-	cols := make([]vinfo, nc)
+	rows := bigmem.Make[vinfo](nr, nr)
+	cols := bigmem.Make[vinfo](nc, nc)
 	for r, c := range m.RowMate {
 		rows[r].mate = c
 	}

@@ -6,6 +6,7 @@ import (
 	"slices"
 	"sync/atomic"
 
+	"github.com/netsteer/netsteer/internal/bigmem"
 	"github.com/netsteer/netsteer/matching"
 )
 
@@ -75,11 +76,11 @@ func (b *Builder) newSegment(min int) {
 		b.segs = append(b.segs, segment{b.src, b.dst, b.w})
 		b.sealed += len(b.src)
 	}
-	b.src = make([]int32, 0, size)
-	b.dst = make([]int32, 0, size)
+	b.src = bigmem.Make[int32](0, size)
+	b.dst = bigmem.Make[int32](0, size)
 	b.w = nil
 	if b.weighted {
-		b.w = make([]float64, 0, size)
+		b.w = bigmem.Make[float64](0, size)
 	}
 }
 
@@ -296,7 +297,7 @@ func trim(adj []int32, q int64) []int32 {
 func sortBySource(n, m int, src, dst [][]int32, w [][]float64) ([]int64, []int32, []float64) {
 	// ptr[u+2] counts u's edges; after the prefix sum ptr[u+1] is where
 	// row u starts, and the scatter advances it to where row u ends.
-	ptr := make([]int64, n+2)
+	ptr := bigmem.Make[int64](n+2, n+2)
 	for _, seg := range src {
 		for _, u := range seg {
 			ptr[u+2]++
@@ -305,10 +306,10 @@ func sortBySource(n, m int, src, dst [][]int32, w [][]float64) ([]int64, []int32
 	for u := 2; u <= n; u++ {
 		ptr[u] += ptr[u-1]
 	}
-	adj := make([]int32, m)
+	adj := bigmem.Make[int32](m, m)
 	var ow []float64
 	if w != nil {
-		ow = make([]float64, m)
+		ow = bigmem.Make[float64](m, m)
 	}
 	for s, seg := range src {
 		ds := dst[s][:len(seg)]

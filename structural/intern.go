@@ -7,6 +7,8 @@ import (
 	"math"
 	"strconv"
 	"sync/atomic"
+
+	"github.com/netsteer/netsteer/internal/bigmem"
 )
 
 // Integer names. Most large networks name their states by decimal
@@ -69,6 +71,7 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 	t := b.names
 	id := int32(t.n)
 	t.n++
+	t.growArena(10)
 	t.arena = strconv.AppendUint(t.arena, uint64(v), 10)
 	t.off = append(t.off, int64(len(t.arena)))
 	b.unindexed = true
@@ -112,7 +115,7 @@ func (b *Builder) growDense(v uint32) bool {
 		}
 		n = int(limit)
 	}
-	d := make([]int32, n)
+	d := bigmem.Make[int32](n, n)
 	copy(d, b.dense)
 	b.dense = d
 	// Canonical names hashed while they were out of range move in.
@@ -205,6 +208,7 @@ func (b *Builder) internName(name []byte) int32 {
 	}
 	id := int32(t.n)
 	t.n++
+	t.growArena(len(name))
 	if !short {
 		data = uint64(len(t.arena))<<13 | uint64(len(name))
 	}
@@ -219,7 +223,7 @@ func (b *Builder) internName(name []byte) int32 {
 // growIndex doubles the Builder's name index.
 func (b *Builder) growIndex() {
 	old := b.idx
-	b.idx = make([]nameSlot, max(2*len(old), 1024))
+	b.idx = bigmem.Make[nameSlot](max(2*len(old), 1024), max(2*len(old), 1024))
 	mask := uint64(len(b.idx) - 1)
 	t := b.names
 	for _, s := range old {
@@ -260,5 +264,21 @@ func (t *Names) reindex() {
 			h = (h + 1) & mask
 		}
 		t.table[h] = int32(i) + 1
+	}
+}
+
+// growArena makes room for one more name of up to k bytes, doubling the
+// arena and the offsets when they are full: append's gentler growth for
+// large slices copies (and touches fresh memory) several times more.
+func (t *Names) growArena(k int) {
+	if len(t.arena)+k > cap(t.arena) {
+		a := bigmem.Make[byte](len(t.arena), max(2*cap(t.arena), len(t.arena)+k, 1<<12))
+		copy(a, t.arena)
+		t.arena = a
+	}
+	if len(t.off) == cap(t.off) {
+		o := bigmem.Make[int64](len(t.off), max(2*cap(t.off), 1<<10))
+		copy(o, t.off)
+		t.off = o
 	}
 }

@@ -1,6 +1,9 @@
 package structural
 
-import "github.com/netsteer/netsteer/matching"
+import (
+	"github.com/netsteer/netsteer/internal/bigmem"
+	"github.com/netsteer/netsteer/matching"
+)
 
 // Components is a partition of the states into strongly connected
 // components. Of[v] is the component of state v. Components are numbered in
@@ -40,13 +43,13 @@ func SCC(g *matching.CSR) Components {
 	// completion order. An open index never exceeds the number of open
 	// states, so it stays at or below c and every completed state's value
 	// is above it.
-	rindex := make([]int32, n)
+	rindex := bigmem.Make[int32](n, n)
 	notSource := make([]bool, n+1) // by c
 	// Both stacks can hold every state (a chain); the capacity is reserved
 	// up front, so deep searches never copy them, and memory is touched only
 	// as deep as the search goes.
-	call := make([]sccFrame, 0, n)
-	stack := make([]int32, 0, n)
+	call := bigmem.Make[sccFrame](0, n)
+	stack := bigmem.Make[int32](0, n)
 	index := int32(1)
 	c := int32(n)
 	ptr, adj := g.Ptr, g.Adj
