@@ -18,10 +18,12 @@ import (
 // the tokens block by block in file order, so states are numbered by first
 // appearance exactly as a line-by-line reader would number them; the
 // parallel and sequential paths build identical networks. A line is parsed
-// without allocation: canonical decimal names become their values (see
-// structural.Builder.InternInt), other names are copied into the block's
-// arena, and any line that is not two or three plain fields goes through the
-// general tokenizer, which produces the error messages.
+// without allocation: a canonical decimal name becomes its state when the
+// Builder already has it (structural.Builder.LookupInt; it was interned from
+// an earlier block) and its value otherwise (interned in order by
+// InternInt), other names are copied into the block's arena, and any line
+// that is not two or three plain fields goes through the general tokenizer,
+// which produces the error messages.
 
 // blockBytes is the size of a parse block; it must exceed maxLineBytes.
 var blockBytes = 1 << 20
@@ -134,7 +136,10 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 var errStop = errors.New("stop")
 
 func newBlock(b *structural.Builder) *block {
-	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1), b: b}
+	// A line of an edge is at least 4 bytes ("1 2\n"): toks never grows
+	// past this capacity, of which only the part used is ever touched.
+	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1), b: b,
+		toks: make([]int32, 0, blockBytes/2)}
 }
 
 // blockReader cuts its input into blocks of whole lines.
