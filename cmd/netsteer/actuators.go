@@ -109,7 +109,7 @@ type placeResult struct {
 func runPlacement(e *env, c *command, fs *pflag.FlagSet, args []string, w *placeWords) int {
 	var nf netFlags
 	var of outFlags
-	nf.register(fs)
+	nf.register(fs, e.Stderr)
 	of.register(fs)
 	roles := fs.Bool("roles", false, "say which new "+w.devices+" are forced and where the others could go instead")
 	maxAlt := fs.Int("alternatives", 10, "with --roles, list at most this many alternatives per "+w.device)
@@ -135,7 +135,6 @@ func runPlacement(e *env, c *command, fs *pflag.FlagSet, args []string, w *place
 	if err != nil {
 		return fail(e, err)
 	}
-	nf.printWarnings(e.Stderr)
 	res := &placeResult{file: path, g: g, w: w, withRole: *roles, scale: 1}
 	var d structural.Devices
 	if nf.table != nil {

@@ -101,7 +101,7 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var of outFlags
 	var inputsFile, outputsFile string
-	nf.register(fs)
+	nf.register(fs, e.Stderr)
 	fs.StringVar(&inputsFile, "inputs", "", "input design: one input per line, the states it drives")
 	fs.StringVar(&outputsFile, "outputs", "", "output design: one output per line, the states it senses")
 	of.register(fs)
@@ -140,7 +140,6 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if err != nil {
 		return fail(e, err)
 	}
-	nf.printWarnings(e.Stderr)
 	r := &checkResult{file: path, inputsFile: inputsFile, outputsFile: outputsFile, g: g, net: &nf}
 	t0 := time.Now()
 	if inputsFile != "" {

@@ -52,7 +52,7 @@ func init() { register(driversCmd) }
 func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var of outFlags
-	nf.register(fs)
+	nf.register(fs, e.Stderr)
 	of.register(fs)
 	timings := fs.Bool("timings", false, "print stage times on standard error")
 	roles := fs.Bool("roles", false, "classify states (critical, intermittent, redundant) and edges (critical, ordinary, redundant)")
@@ -74,7 +74,6 @@ func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	if err != nil {
 		return fail(e, err)
 	}
-	nf.printWarnings(e.Stderr)
 	t0 := time.Now()
 	m := matching.Maximum(&g.Out, &g.In)
 	matchT := time.Since(t0)

@@ -20,25 +20,19 @@ type netFlags struct {
 	nodeTable    string
 
 	// table is the node table read by load (nil without --node-table);
-	// its states are added to the network. tableWarnings are its
-	// warnings (unknown columns, listed states in no edge), for the
-	// command to print with printWarnings.
-	table         *nodetable.Table
-	tableWarnings []string
+	// its states are added to the network. load prints its warnings
+	// (unknown columns, listed states in no edge) to warn.
+	table *nodetable.Table
+	warn  io.Writer
 }
 
-func (f *netFlags) register(fs *pflag.FlagSet) {
+// register adds the flags to fs; warnings found while loading go to warn.
+func (f *netFlags) register(fs *pflag.FlagSet, warn io.Writer) {
+	f.warn = warn
 	fs.StringVar(&f.format, "input-format", "", "network format: edges, mtx or dot (default: from the file extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
 	fs.StringVar(&f.nodeTable, "node-table", "", "CSV node table: device costs, allowed and existing devices, groups, labels")
-}
-
-// printWarnings writes the node table's warnings to w, one a line.
-func (f *netFlags) printWarnings(w io.Writer) {
-	for _, m := range f.tableWarnings {
-		fmt.Fprintln(w, "netsteer: warning: "+m)
-	}
 }
 
 // options turns the flags into reader options.
@@ -76,8 +70,10 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 	}
 	start := time.Now()
 	g, err := netread.ReadFile(path, opt)
-	if err == nil && f.table != nil {
-		f.tableWarnings = append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...)
+	if err == nil && f.table != nil && f.warn != nil {
+		for _, m := range append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...) {
+			fmt.Fprintln(f.warn, "netsteer: warning: "+m)
+		}
 	}
 	return g, time.Since(start), err
 }

@@ -71,7 +71,7 @@ var reportCautions = []string{
 func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var pf pictureFlags
-	nf.register(fs)
+	nf.register(fs, e.Stderr)
 	pf.registerDesign(fs)
 	pf.registerView(fs)
 	output := fs.StringP("output", "o", "", "the review page, FILE.html (- for standard output)")
@@ -109,7 +109,6 @@ func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return fail(e, err)
 	}
 	pf.roles = roles
-	nf.printWarnings(e.Stderr)
 
 	r := &htmlreport.Review{
 		Title:     *title,
