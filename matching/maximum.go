@@ -1,6 +1,6 @@
 package matching
 
-import "github.com/netsteer/netsteer/internal/bigmem"
+import "github.com/netsteer/netsteer/matching/bigmem"
 
 // Matching is a matching of a bipartite graph: RowMate[r] is the column
 // matched to row r and ColMate[c] the row matched to column c, -1 when

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"testing"
 
-	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
 
 // benchGraph returns the bipartite graph of a fixed-seed directed network

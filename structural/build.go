@@ -6,7 +6,7 @@ import (
 	"slices"
 	"sync/atomic"
 
-	"github.com/netsteer/netsteer/internal/bigmem"
+	"github.com/netsteer/netsteer/matching/bigmem"
 	"github.com/netsteer/netsteer/matching"
 )
 

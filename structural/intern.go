@@ -8,7 +8,7 @@ import (
 	"strconv"
 	"sync/atomic"
 
-	"github.com/netsteer/netsteer/internal/bigmem"
+	"github.com/netsteer/netsteer/matching/bigmem"
 )
 
 // Integer names. Most large networks name their states by decimal

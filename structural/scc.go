@@ -1,7 +1,7 @@
 package structural
 
 import (
-	"github.com/netsteer/netsteer/internal/bigmem"
+	"github.com/netsteer/netsteer/matching/bigmem"
 	"github.com/netsteer/netsteer/matching"
 )
 

@@ -13,7 +13,7 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 	"github.com/netsteer/netsteer/structural"
 )
 

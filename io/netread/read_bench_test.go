@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"testing"
 
-	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 	"github.com/netsteer/netsteer/structural"
 )
 

@@ -1,11 +1,5 @@
 //go:build linux
 
-// Command stages times the stages of the read-match-decompose pipeline on
-// one network file, in wall time and in CPU time of the timing thread
-// (getrusage RUSAGE_THREAD), which other work on a shared machine disturbs
-// far less. bench/compare.sh uses it for the matching ratios.
-//
-//	go run ./bench/stages -runs 3 FILE
 package main
 
 import (
@@ -51,11 +45,16 @@ func best(runs int, f func()) timing {
 	return t
 }
 
-func main() {
+// stagesMain times the stages of the read-match-decompose pipeline on one
+// network file, in wall time and in CPU time of the timing thread
+// (getrusage RUSAGE_THREAD), which other work on a shared machine disturbs
+// far less. compare.sh uses it for the matching ratios.
+func stagesMain(args []string) {
+	flag := flag.NewFlagSet("stages", flag.ExitOnError)
 	runs := flag.Int("runs", 3, "repetitions of each stage (the fastest is kept)")
-	flag.Parse()
+	flag.Parse(args)
 	if flag.NArg() != 1 {
-		fmt.Fprintln(os.Stderr, "usage: stages [-runs N] FILE")
+		fmt.Fprintln(os.Stderr, "usage: netsteer-bench stages [-runs N] FILE")
 		os.Exit(2)
 	}
 	runtime.LockOSThread()

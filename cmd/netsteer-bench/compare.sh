@@ -1,21 +1,21 @@
 #!/usr/bin/env bash
 # Compare netsteer with igraph and scipy on one workload, in one run.
 #
-#   bash bench/compare.sh [N] [K]       (default N=1000000, K=10)
+#   bash cmd/netsteer-bench/compare.sh [N] [K]       (default N=1000000, K=10)
 #
 # Workload: a directed Erdos-Renyi network with N states and mean total
-# degree K (N*K/2 edges), written by bench/gen (seed 1) as a plain text edge
+# degree K (N*K/2 edges), written by netsteer-bench gen (seed 1) as a plain text edge
 # list of integer names, plus the same edges as int32 pairs for Python.
 # Prints the matching time of each library on its own prebuilt graph, the
 # wall time and peak memory of the whole `netsteer drivers FILE --format
 # json` process, and the ratios. Installs python3-igraph and python3-scipy
 # with apt-get when they are missing (go test never needs them).
-# Files go to bench/out/ (ignored by git).
+# Files go to $NETSTEER_BENCH_OUT (default ${TMPDIR:-/tmp}/netsteer-bench).
 set -euo pipefail
-cd "$(dirname "$0")/.."
+cd "$(dirname "$0")/../.."
 N=${1:-1000000}
 K=${2:-10}
-OUT=bench/out
+OUT=${NETSTEER_BENCH_OUT:-${TMPDIR:-/tmp}/netsteer-bench}
 mkdir -p "$OUT"
 PY=/usr/bin/python3
 
@@ -32,13 +32,12 @@ fi
 
 echo "== building" >&2
 go build -o "$OUT/netsteer" ./cmd/netsteer
-go build -o "$OUT/gen" ./bench/gen
-go build -o "$OUT/stages" ./bench/stages
+go build -o "$OUT/netsteer-bench" ./cmd/netsteer-bench
 EDGES="$OUT/er-$N-$K.edges"
 PAIRS="$OUT/er-$N-$K.i32"
 if [ ! -s "$EDGES" ] || [ ! -s "$PAIRS" ]; then
 	echo "== generating $EDGES" >&2
-	"$OUT/gen" -model er -n "$N" -k "$K" -seed 1 -o "$EDGES" -bin "$PAIRS"
+	"$OUT/netsteer-bench" gen -model er -n "$N" -k "$K" -seed 1 -o "$EDGES" -bin "$PAIRS"
 fi
 
 # netsteer: three runs, the median by wall time is reported (its matching
@@ -57,10 +56,10 @@ cp "$OUT/drivers-$medrun.json" "$OUT/drivers-median.json"
 maxrss=$(awk 'BEGIN{m=0} {if ($2 > m) m = $2} END {print m}' "$OUT/runs.txt")
 
 echo "== netsteer stages (matching and components 3 times each)" >&2
-"$OUT/stages" -runs 3 "$EDGES" >"$OUT/stages.json"
+"$OUT/netsteer-bench" stages -runs 3 "$EDGES" >"$OUT/stages.json"
 
 echo "== igraph and scipy (2 runs each)" >&2
-"$PY" bench/peers.py "$PAIRS" "$N" 2 >"$OUT/peers.json"
+"$PY" cmd/netsteer-bench/peers.py "$PAIRS" "$N" 2 >"$OUT/peers.json"
 
 "$PY" - "$OUT/drivers-median.json" "$OUT/peers.json" "$median" "$maxrss" "$OUT/stages.json" <<'PYEOF'
 import json, os, sys
@@ -94,7 +93,7 @@ PYEOF
 
 # Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
 # 2.1) and a randomly oriented square grid with the same number of states,
-# against the ER workload: stage times from bench/stages (matching and
+# against the ER workload: stage times from netsteer-bench stages (matching and
 # components in thread CPU time, fastest of 3; reading in wall time) and
 # the CPU time (user + system) of the whole drivers process.
 echo "per edge on other shapes (ns/edge; match and components: CPU, fastest of 3; read: wall; drivers: whole-process CPU):"
@@ -102,8 +101,8 @@ for spec in "er" "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
 	name=$(echo "$spec" | tr -d ' -')
 	f="$OUT/$name-$N-$K.edges"
 	[ "$spec" = er ] && f="$EDGES"
-	[ -s "$f" ] || "$OUT/gen" -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
-	"$OUT/stages" -runs 3 "$f" >"$OUT/shape-stages.json"
+	[ -s "$f" ] || "$OUT/netsteer-bench" gen -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
+	"$OUT/netsteer-bench" stages -runs 3 "$f" >"$OUT/shape-stages.json"
 	/usr/bin/time -f "%e %U %S" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >/dev/null
 	"$PY" - "$OUT/shape-stages.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
 import json, sys

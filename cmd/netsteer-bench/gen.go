@@ -1,8 +1,3 @@
-// Command gen writes the deterministic synthetic networks used by
-// bench/compare.sh: a text edge list of integer names and, optionally, the
-// same edges as raw little-endian int32 pairs for the Python peers.
-//
-//	go run ./bench/gen -model er -n 1000000 -k 10 -o er.edges -bin er.i32
 package main
 
 import (
@@ -14,10 +9,14 @@ import (
 	"os"
 	"strings"
 
-	"github.com/netsteer/netsteer/bench/netgen"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
 
-func main() {
+// genMain writes the deterministic synthetic networks used by compare.sh: a
+// text edge list of integer names and, optionally, the same edges as raw
+// little-endian int32 pairs for the Python peers.
+func genMain(args []string) {
+	flag := flag.NewFlagSet("gen", flag.ExitOnError)
 	model := flag.String("model", "er", "er, sf (static-model scale-free) or grid")
 	n := flag.Int("n", 1000000, "number of states (grid: rounded down to a square)")
 	k := flag.Float64("k", 10, "mean total degree (in + out)")
@@ -25,7 +24,7 @@ func main() {
 	seed := flag.Uint64("seed", 1, "random seed")
 	out := flag.String("o", "", "edge-list output file (.gz compresses)")
 	bin := flag.String("bin", "", "also write int32 pairs (src, dst) to this file")
-	flag.Parse()
+	flag.Parse(args)
 	if *out == "" {
 		fmt.Fprintln(os.Stderr, "gen: -o is required")
 		os.Exit(2)

@@ -3,7 +3,7 @@
 Usage: python3 peers.py PAIRS.i32 N [RUNS]
 
 PAIRS.i32 holds the workload's edges as little-endian int32 pairs (src, dst),
-written by bench/gen. Each library gets its own prebuilt graph; only the
+written by netsteer-bench gen. Each library gets its own prebuilt graph; only the
 matching call is timed, in wall time (perf_counter) and in CPU time of the
 calling thread (thread_time; both libraries match in one thread), which
 other work on a shared machine disturbs far less. With RUNS > 1 each

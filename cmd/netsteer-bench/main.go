@@ -1,0 +1,30 @@
+// Command netsteer-bench holds the tools of the speed comparison with igraph
+// and scipy (compare.sh, peers.py beside this file):
+//
+//	netsteer-bench gen -model er -n 1000000 -k 10 -o er.edges -bin er.i32
+//	netsteer-bench stages -runs 3 FILE
+//
+// gen writes deterministic synthetic networks (structural/gen/netgen);
+// stages times read, match and components in wall and thread CPU time.
+package main
+
+import (
+	"fmt"
+	"os"
+)
+
+func main() {
+	if len(os.Args) < 2 {
+		fmt.Fprintln(os.Stderr, "usage: netsteer-bench gen|stages [options]")
+		os.Exit(2)
+	}
+	switch os.Args[1] {
+	case "gen":
+		genMain(os.Args[2:])
+	case "stages":
+		stagesMain(os.Args[2:])
+	default:
+		fmt.Fprintf(os.Stderr, "netsteer-bench: unknown tool %q (want gen or stages)\n", os.Args[1])
+		os.Exit(2)
+	}
+}
