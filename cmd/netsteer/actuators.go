@@ -11,7 +11,6 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/nodetable"
 	"github.com/netsteer/netsteer/structural"
 )
@@ -158,17 +157,8 @@ func runPlacement(e *env, c *command, fs *pflag.FlagSet, args []string, w *place
 	}
 	rolesT := time.Since(t0)
 	res.stages = []stage{{"read_s", readT}, {"place_s", placeT}, {"roles_s", rolesT}}
-	err = fileout.Write(of.output, e.Stdout, func(out io.Writer) error {
-		res.stages = append(res.stages[:3], stage{"total_s", time.Since(start)})
-		switch of.format {
-		case "json":
-			return res.writeJSON(out)
-		case "csv":
-			return res.writeCSV(out)
-		}
-		return res.writeText(out)
-	})
-	if err != nil {
+	res.stages = append(res.stages, stage{"total_s", time.Since(start)})
+	if err := of.write(e, res); err != nil {
 		return fail(e, err)
 	}
 	if *timings {

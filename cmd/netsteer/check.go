@@ -13,7 +13,6 @@ import (
 	"github.com/spf13/pflag"
 
 	"github.com/netsteer/netsteer/io/design"
-	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/structural"
 )
 
@@ -170,17 +169,8 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 			r.sections = append(r.sections, s)
 		}
 	}
-	err = fileout.Write(of.output, e.Stdout, func(w io.Writer) error {
-		r.stages = append(r.stages[:3], stage{"total_s", time.Since(start)})
-		switch of.format {
-		case "json":
-			return r.writeJSON(w)
-		case "csv":
-			return r.writeCSV(w)
-		}
-		return r.writeText(w)
-	})
-	if err != nil {
+	r.stages = append(r.stages, stage{"total_s", time.Since(start)})
+	if err := of.write(e, r); err != nil {
 		return fail(e, err)
 	}
 	if !r.holds() {

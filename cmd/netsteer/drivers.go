@@ -13,7 +13,6 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
 )
@@ -86,17 +85,8 @@ func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		res.roles = computeDriverRoles(g, m)
 	}
 	res.stages = []stage{{"read_s", readT}, {"match_s", matchT}, {"components_s", sccT}}
-	err = fileout.Write(of.output, e.Stdout, func(w io.Writer) error {
-		res.stages = append(res.stages[:3], stage{"total_s", time.Since(start)})
-		switch of.format {
-		case "json":
-			return res.writeJSON(w)
-		case "csv":
-			return res.writeCSV(w)
-		}
-		return res.writeText(w)
-	})
-	if err != nil {
+	res.stages = append(res.stages, stage{"total_s", time.Since(start)})
+	if err := of.write(e, res); err != nil {
 		return fail(e, err)
 	}
 	if *timings && of.format == "text" {

@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/pflag"
 
+	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/io/nodetable"
 	"github.com/netsteer/netsteer/structural"
@@ -95,4 +96,25 @@ func (f *outFlags) check() error {
 		return nil
 	}
 	return fmt.Errorf("--format %q: want text, json or csv", f.format)
+}
+
+// formatted is a command result that can print itself in each format.
+type formatted interface {
+	writeText(w io.Writer) error
+	writeJSON(w io.Writer) error
+	writeCSV(w io.Writer) error
+}
+
+// write prints r in the chosen format to the chosen output, through
+// fileout (temporary file and rename).
+func (f *outFlags) write(e *env, r formatted) error {
+	return fileout.Write(f.output, e.Stdout, func(w io.Writer) error {
+		switch f.format {
+		case "json":
+			return r.writeJSON(w)
+		case "csv":
+			return r.writeCSV(w)
+		}
+		return r.writeText(w)
+	})
 }

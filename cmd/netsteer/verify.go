@@ -16,7 +16,6 @@ import (
 	"github.com/spf13/pflag"
 
 	"github.com/netsteer/netsteer/io/design"
-	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/numeric"
@@ -240,16 +239,7 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	}
 	res.rep = rep
 	res.total = time.Since(start)
-	err = fileout.Write(of.output, e.Stdout, func(w io.Writer) error {
-		switch of.format {
-		case "json":
-			return res.writeJSON(w)
-		case "csv":
-			return res.writeCSV(w)
-		}
-		return res.writeText(w)
-	})
-	if err != nil {
+	if err := of.write(e, res); err != nil {
 		return fail(e, err)
 	}
 	for _, r := range []*numeric.Result{rep.Controllability, rep.Observability} {
