@@ -5,6 +5,7 @@ import (
 	"encoding/xml"
 	"errors"
 	"fmt"
+	"html"
 	"html/template"
 	"io"
 	"strings"
@@ -146,22 +147,5 @@ func safeValue(v string) bool {
 		!strings.Contains(l, "data:") && !strings.Contains(l, "expression(")
 }
 
-// xmlEscape writes s with &, <, >, " and ' escaped.
-func xmlEscape(b *strings.Builder, s string) {
-	for i := 0; i < len(s); i++ {
-		switch c := s[i]; c {
-		case '&':
-			b.WriteString("&amp;")
-		case '<':
-			b.WriteString("&lt;")
-		case '>':
-			b.WriteString("&gt;")
-		case '"':
-			b.WriteString("&quot;")
-		case '\'':
-			b.WriteString("&#39;")
-		default:
-			b.WriteByte(c)
-		}
-	}
-}
+// xmlEscape writes s with &, <, >, " and ' escaped (html.EscapeString).
+func xmlEscape(b *strings.Builder, s string) { b.WriteString(html.EscapeString(s)) }
