@@ -108,7 +108,7 @@ type placeResult struct {
 func runPlacement(e *env, c *command, fs *pflag.FlagSet, args []string, w *placeWords) int {
 	var nf netFlags
 	var of outFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	of.register(fs)
 	roles := fs.Bool("roles", false, "say which new "+w.devices+" are forced and where the others could go instead")
 	maxAlt := fs.Int("alternatives", 10, "with --roles, list at most this many alternatives per "+w.device)

@@ -100,7 +100,7 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var of outFlags
 	var inputsFile, outputsFile string
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	fs.StringVar(&inputsFile, "inputs", "", "input design: one input per line, the states it drives")
 	fs.StringVar(&outputsFile, "outputs", "", "output design: one output per line, the states it senses")
 	of.register(fs)

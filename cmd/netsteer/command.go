@@ -27,6 +27,18 @@ type env struct {
 	StderrIsTTY bool
 }
 
+// status shows what a long step is doing on the last line of a terminal's
+// standard error, and nothing elsewhere; status("") clears the line.
+func (e *env) status(format string, args ...any) {
+	if e == nil || !e.StderrIsTTY {
+		return
+	}
+	fmt.Fprint(e.Stderr, "\r\033[K")
+	if format != "" {
+		fmt.Fprintf(e.Stderr, "netsteer: "+format+"...", args...)
+	}
+}
+
 // command is one subcommand. Each lives in its own file and registers itself
 // from an init function.
 type command struct {

@@ -51,7 +51,7 @@ func init() { register(driversCmd) }
 func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var of outFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	of.register(fs)
 	timings := fs.Bool("timings", false, "print stage times on standard error")
 	roles := fs.Bool("roles", false, "classify states (critical, intermittent, redundant) and edges (critical, ordinary, redundant)")
@@ -74,11 +74,14 @@ func runDrivers(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		return fail(e, err)
 	}
 	t0 := time.Now()
+	e.status("matching (%d states, %d edges)", g.N(), g.Edges())
 	m := matching.Maximum(&g.Out, &g.In)
 	matchT := time.Since(t0)
 	t0 = time.Now()
+	e.status("strongly connected components")
 	comps := structural.SCC(&g.Out)
 	sccT := time.Since(t0)
+	e.status("")
 	ds := structural.DriversFrom(g, m, comps)
 	res := &driversResult{file: path, g: g, ds: ds}
 	if *roles {

@@ -22,14 +22,15 @@ type netFlags struct {
 
 	// table is the node table read by load (nil without --node-table);
 	// its states are added to the network. load prints its warnings
-	// (unknown columns, listed states in no edge) to warn.
+	// (unknown columns, listed states in no edge) and, on a terminal, its
+	// progress to e.Stderr.
 	table *nodetable.Table
-	warn  io.Writer
+	e     *env
 }
 
-// register adds the flags to fs; warnings found while loading go to warn.
-func (f *netFlags) register(fs *pflag.FlagSet, warn io.Writer) {
-	f.warn = warn
+// register adds the flags to fs; load reports to e.Stderr.
+func (f *netFlags) register(fs *pflag.FlagSet, e *env) {
+	f.e = e
 	fs.StringVar(&f.format, "input-format", "", "network format: edges, mtx or dot (default: from the file extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
@@ -70,10 +71,12 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 		opt.States = append(opt.States, t.Names()...)
 	}
 	start := time.Now()
+	f.e.status("reading %s", path)
 	g, err := netread.ReadFile(path, opt)
-	if err == nil && f.table != nil && f.warn != nil {
+	f.e.status("")
+	if err == nil && f.table != nil {
 		for _, m := range append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...) {
-			fmt.Fprintln(f.warn, "netsteer: warning: "+m)
+			fmt.Fprintln(f.e.Stderr, "netsteer: warning: "+m)
 		}
 	}
 	return g, time.Since(start), err

@@ -426,7 +426,7 @@ func (a *analysis) viewOptions(pf *pictureFlags) (render.Options, error) {
 func runRender(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var pf pictureFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	pf.registerDesign(fs)
 	fs.StringVar(&pf.show, "show", "", "what to place and draw when no design is given: drivers, actuators, sensors (comma-separated)")
 	pf.registerView(fs)

@@ -71,7 +71,7 @@ var reportCautions = []string{
 func runReport(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var pf pictureFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	pf.registerDesign(fs)
 	pf.registerView(fs)
 	output := fs.StringP("output", "o", "", "the review page, FILE.html (- for standard output)")

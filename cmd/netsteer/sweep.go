@@ -73,7 +73,7 @@ func runSweep(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	model := fs.String("model", "", "model to generate: er, scale-free, small-world, regular, grid or tree")
 	base := fs.String("base", "", "sweep variants of this network instead of a model")
 	mf.register(fs)
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	cf.register(fs)
 	specs := fs.StringArray("transform", nil, "NAME=VALUES, applied in order (repeatable)")
 	replicates := fs.Int("replicates", 1, "networks per grid point")

@@ -68,7 +68,7 @@ func (c *couplingFlags) coupling() structural.Coupling {
 func runVary(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var cf couplingFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	cf.register(fs)
 	specs := fs.StringArray("transform", nil, "NAME=VALUE, applied in order (repeatable)")
 	seed := fs.Uint64("seed", 1, "random seed")

@@ -96,7 +96,7 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	var nf netFlags
 	var of outFlags
 	var vf verifyFlags
-	nf.register(fs, e.Stderr)
+	nf.register(fs, e)
 	of.register(fs)
 	fs.StringVar(&vf.inputs, "inputs", "", "input design: one input per line, the states it drives")
 	fs.StringVar(&vf.outputs, "outputs", "", "output design: one output per line, the states it senses")
