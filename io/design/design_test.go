@@ -51,6 +51,8 @@ func TestReadErrors(t *testing.T) {
 			`act.txt:1: no state named "feed_pump:2" in the network ("feed_pump" is a state: values written name:value are read only with weights, verify --weights)`},
 		{"unknown", "", "# c\nfeed_pmp\n", false, `act.txt:2: no state named "feed_pmp" in the network`},
 		{"long line", "", "feed_pump " + strings.Repeat("x", 17<<20) + "\n", false, "act.txt:1: line longer than 16 MiB"},
+		{"control character", "", "feed_pump\n\"drum\x00level\"\n", false, "act.txt:2: control character 0x00 in a node name"},
+		{"DEL", "", "feed_pump drum\x7f\n", false, "act.txt:1: control character 0x7f in a node name"},
 	} {
 		var err error
 		if tc.path != "" {

@@ -6,6 +6,8 @@
 // Names are separated by white space or commas and may be double-quoted as
 // in an edge list. With weights enabled, a name may carry a value after its
 // last colon, "name:value", the actual entry of B (or C). Lines starting with
-// '#' or '%' and blank lines are ignored. Every error prints as
+// '#' or '%' and blank lines are ignored. A leading byte-order mark is
+// skipped; a name holding a control character (a byte below 0x20 other than
+// tab, or 0x7f) is an error. Every error prints as
 // "FILE:LINE: message".
 package design

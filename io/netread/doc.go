@@ -7,6 +7,20 @@
 // edge u -> v. Gzip-compressed input is recognised by its magic bytes,
 // whatever the file is called.
 //
+// Edge lists. Each line is "source target [weight]", the fields separated
+// by white space or a comma; names holding a space, comma or quote are
+// double-quoted, "" standing for a quote inside. Lines whose first
+// non-blank character is '#' or '%' are comments. A leading UTF-8
+// byte-order mark is skipped (also inside gzip input). A name may not hold
+// a control character (a byte below 0x20 other than tab, or 0x7f), quoted
+// or not. The first non-comment line is refused as a CSV header, with a
+// message saying so, when its first two fields are source,target, from,to,
+// src,dst or tail,head (any case, quoted or not) and it is not exactly
+// three fields ending in a number; or when it has exactly three fields and
+// the third is weight, value or w (any case). No other line is ever taken
+// for a header: an edge between states named, say, "from" and "to" is read
+// as an edge when it is not the first line (or carries a numeric weight).
+//
 // Matrix Market. Coordinate files with pattern, real or integer values and
 // general, symmetric or skew-symmetric symmetry are read; symmetric files
 // are expanded (an off-diagonal (i, j) also gives (j, i)), skew-symmetric
@@ -25,7 +39,8 @@
 // or as an "edge [weight=...]" default for the rest of its (sub)graph, must
 // be a finite nonzero number. A name is the ID's text: a quoted ID loses
 // its quotes and \" becomes ", other IDs (HTML ones <...> included) are
-// kept as written; names may not hold line breaks. Ports are ignored.
+// kept as written; names may not hold line breaks or other control
+// characters (tab excepted). Ports are ignored.
 // Syntax errors carry the line gonum's parser reports; errors found later
 // carry the line of the ID or edge operator at fault. Inputs over
 // MaxDOTBytes, braces nested over 1000 deep, edge chains over 100000 steps

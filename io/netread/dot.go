@@ -339,6 +339,9 @@ func (d *dotReader) node(n *ast.Node) (int32, error) {
 	case strings.ContainsAny(name, "\r\n"):
 		return -1, errorf(d.file, line, "node name %q holds a line break", clip([]byte(name)))
 	}
+	if msg := controlMsg(name); msg != "" {
+		return -1, errorf(d.file, line, "%s", msg)
+	}
 	id, err := d.b.Intern([]byte(name))
 	if err != nil {
 		return -1, errorf(d.file, line, "%s", trimStructural(err.Error()))

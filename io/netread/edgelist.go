@@ -1,5 +1,11 @@
 package netread
 
+import (
+	"bytes"
+	"fmt"
+	"strconv"
+)
+
 // maxLineBytes bounds an edge-list line: two quoted names at the limit,
 // doubled quotes and a weight.
 const maxLineBytes = 4*MaxNameBytes + 256
@@ -130,13 +136,86 @@ func (t *tokenizer) split(line []byte) ([][]byte, string) {
 // a comma between fields, double-quoted names, '#' and '%' comments), with
 // no limit on the number of fields. It returns an error message for a
 // malformed line.
+// Every field is a name, so a control character in any field is an error
+// (see controlMsg).
 func SplitFields(line []byte) ([]string, string) {
 	var t tokenizer
 	t.unlimited = true
 	f, msg := t.split(line)
+	if msg != "" {
+		return nil, msg
+	}
+	for _, b := range f {
+		if msg := controlMsg(b); msg != "" {
+			return nil, msg
+		}
+	}
 	out := make([]string, len(f))
 	for i, b := range f {
 		out[i] = string(b)
 	}
 	return out, msg
+}
+
+// isControl reports the bytes a name may not hold: C0 controls other than
+// tab, and DEL. (Unquoted, tab and the other white-space controls separate
+// fields; quoted, a tab is kept.)
+func isControl(c byte) bool { return c < 0x20 && c != '\t' || c == 0x7f }
+
+// controlMsg returns the error message for a name that holds a control
+// character, or "".
+func controlMsg[T string | []byte](name T) string {
+	for i := 0; i < len(name); i++ {
+		if c := name[i]; isControl(c) {
+			return fmt.Sprintf("control character 0x%02x in a node name", c)
+		}
+	}
+	return ""
+}
+
+// headerPairs are the column names that make a first line a CSV header
+// (compared without regard to case); headerWeights are the names of a third
+// column. The list is kept short on purpose: a first edge between two
+// states with other names is always read as an edge.
+var (
+	headerPairs   = [][2]string{{"source", "target"}, {"from", "to"}, {"src", "dst"}, {"tail", "head"}}
+	headerWeights = []string{"weight", "value", "w"}
+)
+
+// headerMsg returns the error message for the first non-comment line of an
+// edge list when it looks like a CSV header, or "". It is a header when
+//   - its first two fields are one of headerPairs, unless it is exactly
+//     three fields whose third is a number (an edge with a weight), or
+//   - it has exactly three fields and the third is one of headerWeights
+//     (no edge has a weight that is a word).
+func headerMsg(line []byte) string {
+	if len(line) > maxLineBytes {
+		return ""
+	}
+	var t tokenizer
+	t.unlimited = true
+	f, msg := t.split(line)
+	if msg != "" || len(f) < 2 {
+		return ""
+	}
+	header := false
+	for _, p := range headerPairs {
+		if bytes.EqualFold(f[0], []byte(p[0])) && bytes.EqualFold(f[1], []byte(p[1])) {
+			header = true
+		}
+	}
+	if len(f) == 3 {
+		if _, err := strconv.ParseFloat(string(f[2]), 64); err == nil {
+			header = false
+		}
+		for _, w := range headerWeights {
+			if bytes.EqualFold(f[2], []byte(w)) {
+				header = true
+			}
+		}
+	}
+	if !header {
+		return ""
+	}
+	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header line; remove it or comment it out with #"
 }

@@ -44,6 +44,35 @@ func TestEdgeList(t *testing.T) {
 		{name: "self-dynamics undirected weighted", in: "a b 3\n", opt: Options{Weights: true, Build: structural.BuildOptions{SelfDynamics: true, Undirected: true}},
 			edges: []string{"a>b=3", "b>a=3", "a>a=1", "b>b=1"}, loops: 2},
 
+		// A leading byte-order mark (U+FEFF as UTF-8) is skipped, also
+		// inside gzip; names in UTF-8 are kept.
+		{name: "byte-order mark", in: "\xef\xbb\xbfa b\n", edges: []string{"a>b"}, nodes: []string{"a", "b"}},
+		{name: "byte-order mark gzip", in: string(gzipBytes([]byte("\xef\xbb\xbfa b\n"))), edges: []string{"a>b"}, nodes: []string{"a", "b"}},
+		{name: "byte-order mark then comment", in: "\xef\xbb\xbf# c\na b\n", edges: []string{"a>b"}},
+		{name: "utf-8 names", in: "Füllstand Ventil_ä\n", edges: []string{"Füllstand>Ventil_ä"}},
+		{name: "tab in quoted name", in: "\"a\tb\" c\n", edges: []string{"a\tb>c"}},
+		// Header-like first lines that are edges: a numeric weight, a pair
+		// not in the list, the pair reversed, or not the first line.
+		{name: "header words with weight", in: "source target 2\n", edges: []string{"source>target"}},
+		{name: "ordinary first edge", in: "u,v\nv,w\n", edges: []string{"u>v", "v>w"}},
+		{name: "reversed pair", in: "to from\n", edges: []string{"to>from"}},
+		{name: "header words later", in: "a b\nsource,target\n", edges: []string{"a>b", "source>target"}},
+		{name: "commented header", in: "# source,target\na,b\n", edges: []string{"a>b"}},
+
+		{name: "control characters", in: "a b\nc d\n\x00\x01 x\n", line: 3, err: "control character 0x00 in a node name"},
+		{name: "control character second name", in: "a b\x1b\n", line: 1, err: "control character 0x1b in a node name"},
+		{name: "DEL", in: "a\x7fb c\n", line: 1, err: "control character 0x7f in a node name"},
+		{name: "control character quoted", in: "\"a\rb\" c\n", line: 1, err: "control character 0x0d in a node name"},
+		{name: "control character one field", in: "x\x02\n", line: 1, err: "control character 0x02 in a node name"},
+		{name: "header", in: "source,target\na,b\n", line: 1, err: `"source,target" looks like a header line; remove it or comment it out with #`},
+		{name: "header with weight", in: "Source,Target,Weight\r\na,b,1\n", line: 1, err: `"Source,Target,Weight" looks like a header line`},
+		{name: "header after comments", in: "# exported\n\nfrom to\n", line: 3, err: `"from to" looks like a header line`},
+		{name: "header quoted", in: "\"src\",\"dst\"\n", line: 1, err: "looks like a header line"},
+		{name: "header tail head value", in: "tail head value\n", line: 1, err: "looks like a header line"},
+		{name: "header many columns", in: "source,target,type,id,label,weight\n", line: 1, err: "looks like a header line"},
+		{name: "header other names", in: "u,v,weight\n1,2,3\n", line: 1, err: `"u,v,weight" looks like a header line`},
+		{name: "header after mark", in: "\xef\xbb\xbfsrc,dst\n", line: 1, err: `"src,dst" looks like a header line`},
+		{name: "header gzip", in: string(gzipBytes([]byte("\xef\xbb\xbffrom,to\n"))), line: 1, err: `"from,to" looks like a header line`},
 		{name: "unterminated quote", in: "a b\n\"c d\n", line: 2, err: "unterminated quoted name"},
 		{name: "quote inside name", in: "a\"b c\n", line: 1, err: "quote inside an unquoted name"},
 		{name: "text after quote", in: "\"a\"b c\n", line: 1, err: "right after a closing quote"},

@@ -54,7 +54,13 @@ type block struct {
 
 // readEdgeList parses "source target [weight]" lines into b.
 func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
+	// A byte-order mark, as some editors write, is not part of the first
+	// name; r reads decompressed bytes, so this holds for gzip input too.
+	if p, _ := r.Peek(len(utf8BOM)); string(p) == utf8BOM {
+		r.Discard(len(utf8BOM))
+	}
 	rd := &blockReader{r: r}
+	var hd headerState
 	first := newBlock(b)
 	rd.fill(first)
 	if first.readErr != nil || rd.eof || parseWorkers == 1 {
@@ -63,7 +69,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 		blk := first
 		for {
 			parseBlock(blk, weights)
-			stop, err := mergeBlock(blk, file, b, weights, &line)
+			stop, err := mergeBlock(blk, file, b, weights, &line, &hd)
 			if stop || err != nil {
 				return err
 			}
@@ -117,7 +123,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 		<-blk.done
 		if err == nil {
 			var stop bool
-			stop, err = mergeBlock(blk, file, b, weights, &line)
+			stop, err = mergeBlock(blk, file, b, weights, &line, &hd)
 			if stop && err == nil {
 				err = errStop
 			}
@@ -236,8 +242,11 @@ func (blk *block) parseLine(line []byte, weights bool) string {
 	for {
 		start := i
 		for i < n {
+			// White space, and any control character, ends the fast
+			// path's field; a control character is then at the start
+			// of the next field, which sends the line to slowLine.
 			c := line[i]
-			if isSpace(c) || c == ',' || c == '"' {
+			if c <= ' ' || c == ',' || c == '"' || c == 0x7f {
 				break
 			}
 			i++
@@ -274,6 +283,11 @@ func (blk *block) slowLine(line []byte, weights bool) string {
 	fields, msg := blk.tok.split(line)
 	if msg != "" {
 		return msg
+	}
+	for k := 0; k < len(fields) && k < 2; k++ {
+		if msg := controlMsg(fields[k]); msg != "" {
+			return msg
+		}
 	}
 	switch len(fields) {
 	case 0:
@@ -353,10 +367,56 @@ func decimalValue(f []byte) (uint32, bool) {
 	return uint32(v), v < math.MaxInt32
 }
 
+// headerState follows the search for the first non-comment line, which
+// must not be a CSV header (see headerMsg).
+type headerState struct{ done bool }
+
+// check looks for the first non-comment line in blk, unless an earlier
+// block held it, and returns an error when that line is a header. line
+// counts the lines before blk.
+func (h *headerState) check(blk *block, file string, line int) error {
+	if h.done {
+		return nil
+	}
+	data := blk.data
+	for k := 1; len(data) > 0; k++ {
+		var l []byte
+		if i := bytes.IndexByte(data, '\n'); i >= 0 {
+			l, data = data[:i], data[i+1:]
+		} else {
+			l, data = data, nil
+		}
+		if blk.tooLong && data == nil {
+			return nil // the block's error stands
+		}
+		l = bytes.TrimSuffix(l, []byte{'\r'})
+		if len(l) > maxLineBytes {
+			return nil // parseBlock reports it
+		}
+		j := 0
+		for j < len(l) && isSpace(l[j]) {
+			j++
+		}
+		if j == len(l) || l[j] == '#' || l[j] == '%' {
+			continue
+		}
+		h.done = true
+		if msg := headerMsg(l); msg != "" {
+			return errorf(file, line+k, "%s", msg)
+		}
+		return nil
+	}
+	return nil
+}
+
 // mergeBlock interns blk's tokens into b in order and reports whether
 // reading stops here (the end of the input, or an error). line counts the
-// lines before blk and is advanced past it.
-func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, line *int) (bool, error) {
+// lines before blk and is advanced past it; hd checks the first
+// non-comment line.
+func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, line *int, hd *headerState) (bool, error) {
+	if err := hd.check(blk, file, *line); err != nil {
+		return true, err
+	}
 	toks := blk.toks
 	for e := 0; e+1 < len(toks); e += 2 {
 		u, err := blk.intern(b, toks[e])

@@ -13,8 +13,8 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/netsteer/netsteer/structural/gen/netgen"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
 
 // readLines is the reference edge-list reader: one line at a time through
@@ -24,6 +24,7 @@ import (
 func readLines(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
 	lr := &lineReader{r: r, file: file, max: maxLineBytes}
 	var tok tokenizer
+	first := true // no non-comment line yet
 	for {
 		line, err := lr.next()
 		if err == io.EOF {
@@ -32,9 +33,28 @@ func readLines(r *bufio.Reader, file string, b *structural.Builder, weights bool
 		if err != nil {
 			return err
 		}
+		if lr.line == 1 {
+			line = bytes.TrimPrefix(line, []byte("\xef\xbb\xbf"))
+		}
+		if first {
+			ht := tokenizer{unlimited: true}
+			if f, _ := ht.split(line); len(f) > 0 {
+				first = false
+				if refHeader(f) {
+					return errorf(file, lr.line, "%q looks like a header line; remove it or comment it out with #", clip(bytes.TrimSpace(line)))
+				}
+			}
+		}
 		fields, msg := tok.split(line)
 		if msg != "" {
 			return errorf(file, lr.line, "%s", msg)
+		}
+		for k := 0; k < len(fields) && k < 2; k++ {
+			for _, c := range fields[k] {
+				if c < 0x20 && c != '\t' || c == 0x7f {
+					return errorf(file, lr.line, "control character 0x%02x in a node name", c)
+				}
+			}
 		}
 		switch len(fields) {
 		case 0:
@@ -76,6 +96,26 @@ func readLines(r *bufio.Reader, file string, b *structural.Builder, weights bool
 		}
 		b.AddEdge(u, v)
 	}
+}
+
+// refHeader is the header rule of doc.go written out for the reference
+// reader: the first two fields a known pair, unless the line is an edge with
+// a numeric weight; or three fields, the third a weight column's name.
+func refHeader(f [][]byte) bool {
+	if len(f) < 2 {
+		return false
+	}
+	pair := strings.ToLower(string(f[0]) + "," + string(f[1]))
+	known := pair == "source,target" || pair == "from,to" || pair == "src,dst" || pair == "tail,head"
+	if len(f) != 3 {
+		return known
+	}
+	switch strings.ToLower(string(f[2])) {
+	case "weight", "value", "w":
+		return true
+	}
+	_, err := strconv.ParseFloat(string(f[2]), 64)
+	return known && err != nil
 }
 
 // readWith reads data with the given block size and worker count (0: the
@@ -190,6 +230,12 @@ func TestBlockParserMatchesLineReader(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	for trial := 0; trial < 24; trial++ {
 		data := messyEdgeList(r, 200+r.IntN(3000), []int{20, 1000, 1 << 20}[trial%3])
+		switch trial % 4 {
+		case 1:
+			data = append([]byte(utf8BOM), data...)
+		case 3:
+			data = gzipBytes(append([]byte(utf8BOM), data...))
+		}
 		opt := Options{Weights: trial%2 == 0}
 		want, err := readWith(data, 0, 0, opt)
 		if err != nil {
@@ -236,21 +282,35 @@ func TestParallelReadLarge(t *testing.T) {
 // as the reference reader, also when the bad line sits in a later block.
 func TestBlockParserErrors(t *testing.T) {
 	good := strings.Repeat("1 2\n# c\n", 300)
+	// More than one block of comments: the first non-comment line sits in
+	// a later block.
+	comments := strings.Repeat("# only a comment\n", 2000)
 	long := strings.Repeat("y", maxLineBytes+1)
 	for _, bad := range []string{
 		"lonely\n", "a b c d\n", "a,,b\n", "\"x y\n", "a\"b c\n", "\"a\"b c\n",
 		"a b 0\n", "a b nan\n", "a b 1e999\n", "a b,\n", "a,b,1,\n",
 		strings.Repeat("n", MaxNameBytes+1) + " b\n", long + "\n", long,
+		// Control characters, bare and quoted, in either name.
+		"\x00\x01 x\n", "a\x7f b\n", "a b\x1b\n", "\"a\rb\" c\n", "a,\"b\x00\"\n", "x\x00\n", "a b \x02\n", "a\x00 b c d\n",
+		// Header lines: refused first, edges (or weight errors) later.
+		"source,target\n", "Source,Target,Weight\r\n", "\"from\",\"to\"\n", "src dst value\n", "u,v,weight\n",
+		"tail,head,type,id\n", "source target x\n", "a b W\n", "source target \x00\n",
 	} {
-		for _, in := range []string{bad, good + bad + good} {
-			_, want := readWith([]byte(in), 0, 0, Options{})
-			if want == nil {
+		for _, in := range []string{bad, good + bad + good, comments + bad + good, "\xef\xbb\xbf" + bad + good} {
+			wantG, want := readWith([]byte(in), 0, 0, Options{})
+			if want == nil && in == bad {
 				t.Fatalf("%.20q: reference reader accepted it", bad)
 			}
 			for _, c := range []struct{ block, workers int }{{1 << 20, 1}, {1 << 20, 2}, {maxLineBytes + 2, 2}, {maxLineBytes + 2, 1}} {
-				_, got := readWith([]byte(in), c.block, c.workers, Options{})
-				if got == nil || got.Error() != want.Error() {
-					t.Errorf("%.20q block %d workers %d: got error %v, want %v", bad, c.block, c.workers, got, want)
+				g, got := readWith([]byte(in), c.block, c.workers, Options{})
+				switch {
+				case want == nil && got == nil:
+					// A header-like line after the first edge is an edge.
+					if err := sameNetwork(g, wantG); err != nil {
+						t.Errorf("%.20q block %d workers %d: %v", in, c.block, c.workers, err)
+					}
+				case want == nil || got == nil || got.Error() != want.Error():
+					t.Errorf("%.20q block %d workers %d: got error %v, want %v", in, c.block, c.workers, got, want)
 				}
 			}
 		}

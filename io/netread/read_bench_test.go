@@ -5,8 +5,8 @@ import (
 	"fmt"
 	"testing"
 
-	"github.com/netsteer/netsteer/structural/gen/netgen"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
 
 // benchInputs are fixed-seed edge lists of integer names: directed
