@@ -1,8 +1,10 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
+	"strings"
 	"time"
 
 	"github.com/spf13/pflag"
@@ -31,11 +33,35 @@ type netFlags struct {
 // register adds the flags to fs; load reports to e.Stderr.
 func (f *netFlags) register(fs *pflag.FlagSet, e *env) {
 	f.e = e
-	fs.StringVar(&f.format, "input-format", "", "network format: edges, mtx or dot (default: from the file extension)")
+	fs.Var(formatFlag{&f.format}, "input-format", "network format: edges, mtx or dot (default: from the file extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
 	fs.StringVar(&f.nodeTable, "node-table", "", "CSV node table: device costs, allowed and existing devices, groups, labels")
 }
+
+// formatFlag is the --input-format value. The name is checked when the flag
+// is parsed, so that a wrong one is a usage error (exit status 2, with the
+// pointer to --help) even before any file is read.
+type formatFlag struct{ s *string }
+
+func (v formatFlag) String() string {
+	if v.s == nil {
+		return ""
+	}
+	return *v.s
+}
+
+func (v formatFlag) Set(s string) error {
+	if s != "" {
+		if _, err := netread.ParseFormat(s); err != nil {
+			return errors.New(strings.TrimPrefix(err.Error(), "netread: "))
+		}
+	}
+	*v.s = s
+	return nil
+}
+
+func (v formatFlag) Type() string { return "string" }
 
 // options turns the flags into reader options.
 func (f *netFlags) options() (netread.Options, error) {
