@@ -6,8 +6,8 @@ import (
 	"slices"
 	"sync/atomic"
 
-	"github.com/netsteer/netsteer/matching/bigmem"
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/matching/bigmem"
 )
 
 // MaxStates is the largest number of states a Network can hold (int32

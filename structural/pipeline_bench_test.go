@@ -4,9 +4,9 @@ import (
 	"fmt"
 	"testing"
 
-	"github.com/netsteer/netsteer/structural/gen/netgen"
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
 
 // Stage benchmarks of the read-match-decompose pipeline on fixed-seed

@@ -1,8 +1,8 @@
 package structural
 
 import (
-	"github.com/netsteer/netsteer/matching/bigmem"
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/matching/bigmem"
 )
 
 // Components is a partition of the states into strongly connected
