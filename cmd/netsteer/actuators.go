@@ -383,15 +383,7 @@ func (r *placeResult) writeJSON(out io.Writer) error {
 		}
 		j.w.WriteByte(']')
 	}
-	j.key("timings")
-	tm := "{"
-	for i, s := range r.stages {
-		if i > 0 {
-			tm += ", "
-		}
-		tm += fmt.Sprintf("%q: %.6f", s.name, s.d.Seconds())
-	}
-	j.w.WriteString(tm + "}")
+	j.timings(r.stages)
 	return j.end()
 }
 

@@ -425,12 +425,7 @@ func (r *checkResult) writeJSON(w io.Writer) error {
 			s.json(j)
 		}
 	}
-	j.key("timings")
-	parts := make([]string, len(r.stages))
-	for i, s := range r.stages {
-		parts[i] = fmt.Sprintf("%q: %.6f", s.name, s.d.Seconds())
-	}
-	j.w.WriteString("{" + strings.Join(parts, ", ") + "}")
+	j.timings(r.stages)
 	return j.end()
 }
 

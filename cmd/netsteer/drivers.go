@@ -140,15 +140,7 @@ func (r *driversResult) writeJSON(w io.Writer) error {
 	if r.roles != nil {
 		r.roles.writeJSON(j, g)
 	}
-	j.key("timings")
-	tm := "{"
-	for i, s := range r.stages {
-		if i > 0 {
-			tm += ", "
-		}
-		tm += fmt.Sprintf("%q: %.6f", s.name, s.d.Seconds())
-	}
-	j.w.WriteString(tm + "}")
+	j.timings(r.stages)
 	return j.end()
 }
 

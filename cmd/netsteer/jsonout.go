@@ -3,6 +3,7 @@ package main
 import (
 	"bufio"
 	"encoding/json"
+	"fmt"
 	"strconv"
 	"unicode/utf8"
 )
@@ -53,6 +54,20 @@ func (j *jsonw) float(k string, v float64) {
 func (j *jsonw) bool(k string, v bool) {
 	j.key(k)
 	j.w.WriteString(strconv.FormatBool(v))
+}
+
+// timings writes the "timings" object: seconds per stage, in stage order.
+func (j *jsonw) timings(stages []stage) {
+	j.key("timings")
+	j.w.WriteByte('{')
+	for i, s := range stages {
+		if i > 0 {
+			j.w.WriteString(", ")
+		}
+		j.w.Write(appendJSONString(nil, s.name))
+		fmt.Fprintf(j.w, ": %.6f", s.d.Seconds())
+	}
+	j.w.WriteByte('}')
 }
 
 // names writes an array of state names.

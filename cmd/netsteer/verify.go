@@ -590,8 +590,7 @@ func (v *verifyResult) writeJSON(w io.Writer) error {
 		warn = append(warn, v.warnings(p)...)
 	}
 	j.val("warnings", append([]string{}, warn...))
-	j.key("timings")
-	fmt.Fprintf(j.w, `{"exact_s": %.6f, "float_s": %.6f, "total_s": %.6f}`, rep.Exact.Seconds(), rep.Float.Seconds(), v.total.Seconds())
+	j.timings([]stage{{"exact_s", rep.Exact}, {"float_s", rep.Float}, {"total_s", v.total}})
 	return j.end()
 }
 
