@@ -185,6 +185,74 @@ func TestDimensionAssignment(t *testing.T) {
 	}
 }
 
+// sparseNetwork returns n states and l random edges (self-loops and
+// repeats allowed; the builder merges repeats).
+func sparseNetwork(t testing.TB, rng *rand.Rand, n, l int) *structural.Network {
+	es := make([]edge, l)
+	for k := range es {
+		es[k] = edge{int32(rng.IntN(n)), int32(rng.IntN(n))}
+	}
+	return network(t, n, es)
+}
+
+// TestDimensionReference compares ControllableDimension with the cover
+// flow as it was before the liveness pruning (refControllableDimension in
+// dimension_ref_test.go, which also agrees with the Hungarian assignment of
+// TestDimensionAssignment) on a few thousand random networks of 2-60 and
+// 200-3000 states: forests, sparse digraphs of mean degree 0.5-4, and
+// designs that are random, half of a minimum design, or a minimum design
+// with one signal dropped.
+func TestDimensionReference(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1980, 1208))
+	small, medium := 2500, 300
+	if testing.Short() {
+		small, medium = 500, 60
+	}
+	below := 0
+	for trial := 0; trial < small+medium; trial++ {
+		var n int
+		if trial < small {
+			n = 2 + rng.IntN(59)
+		} else {
+			n = 200 + rng.IntN(2801)
+		}
+		var g *structural.Network
+		switch trial % 3 {
+		case 0:
+			g = randomForest(t, rng, n, rng.IntN(n/2+1))
+		default:
+			g = sparseNetwork(t, rng, n, int(float64(n)*(0.25+1.75*rng.Float64())))
+		}
+		var inputs [][]int32
+		switch trial % 4 {
+		case 0, 1:
+			full := structural.MinimumDrivers(g).Inputs
+			for i, in := range full {
+				if trial%4 == 1 && i == len(full)/2 {
+					continue
+				}
+				if trial%4 == 0 && i%2 == 1 {
+					continue
+				}
+				inputs = append(inputs, in)
+			}
+		default:
+			inputs = randomDesign(rng, n, 1+n/(5+rng.IntN(20)))
+		}
+		got := structural.ControllableDimension(g, inputs)
+		want := refControllableDimension(g, inputs)
+		if got != want {
+			t.Fatalf("trial %d (%d states, %d edges, %d inputs): dimension %d, reference %d", trial, n, g.Edges(), len(inputs), got, want)
+		}
+		if got < n {
+			below++
+		}
+	}
+	if below < (small+medium)/2 {
+		t.Errorf("only %d of %d designs fail to control everything: the comparison is too easy", below, small+medium)
+	}
+}
+
 // copiesOfExample returns k disjoint copies of the term-rank
 // example, each with its own input: dimension 3k of 5k states.
 func copiesOfExample(k int) (*structural.Network, [][]int32) {
