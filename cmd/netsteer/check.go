@@ -48,7 +48,7 @@ Exit status: 0 when the design is controllable (and observable, with
 --outputs), 1 when not, 2 on error.
 
 Example:
-  netsteer check testdata/plant/heating.edges --inputs actuators.txt
+  netsteer check testdata/plant/heating.edges --inputs testdata/plant/heating-actuators.txt
   netsteer check --format json --outputs sensors.txt plant.edges --inputs actuators.txt
 `,
 	run: runCheck,

@@ -51,7 +51,7 @@ Exit status: 0 when the page was written (whatever it says), 2 on error.
 
 Example:
   netsteer report testdata/plant/heating.edges -o review.html
-  netsteer report --inputs actuators.txt --outputs sensors.txt --verify -o review.html testdata/plant/heating.edges
+  netsteer report --inputs testdata/plant/heating-actuators.txt --verify -o review.html testdata/plant/heating.edges
 `,
 	run: runReport,
 }

@@ -69,7 +69,7 @@ Exit status: 0 when the sample (or the model) is controllable, and
 observable when --outputs is given; 1 when not; 2 on error.
 
 Example:
-  netsteer verify testdata/plant/heating.edges --inputs actuators.txt
+  netsteer verify testdata/plant/heating.edges --inputs testdata/plant/heating-actuators.txt
   netsteer verify --weights --outputs sensors.txt --format json model.edges --inputs actuators.txt
   netsteer verify --around pump.p1_speed --hops 3 big.edges --inputs actuators.txt
   netsteer verify --sample 1500 big.edges --inputs actuators.txt
