@@ -1,6 +1,6 @@
 module github.com/netsteer/netsteer
 
-go 1.26.8
+go 1.26
 
 require (
 	github.com/fogleman/gg v1.3.0

@@ -161,7 +161,7 @@ func TestInstalledPair(t *testing.T) {
 		t.Errorf("render dot without the layout program: exit %d\n%s%s", code, out, errs)
 	}
 	code, _, errs := run(t, env, netsteer, "render", plant, "-o", filepath.Join(work, "again.svg"))
-	want := "netsteer: the layout program netsteer-layout, which draws SVG and PNG, was not found in " + bin + " or on $PATH: install it with `go install github.com/netsteer/netsteer/cmd/...`"
+	want := "netsteer: the layout program netsteer-layout, which draws SVG and PNG, was not found in " + bin + " or on $PATH: install it with `go install ./cmd/...` in the netsteer source tree"
 	if code != 2 || !strings.HasPrefix(errs, want) || strings.Count(errs, "\n") != 1 {
 		t.Errorf("render svg without the layout program: exit %d, stderr %q; want 2 and one line starting %q", code, errs, want)
 	}

@@ -56,9 +56,9 @@ at 150 nodes.
 SVG and PNG are laid out by Graphviz, compiled to WebAssembly (go-graphviz),
 in a companion program, netsteer-layout, so that the commands that do not
 draw start fast. netsteer looks for it in $NETSTEER_LAYOUT, then next to the
-netsteer program, then on $PATH. Install both with
-  go install github.com/netsteer/netsteer/cmd/...
-or, in the source tree, go build -o DIR ./cmd/... . The .dot output needs
+netsteer program, then on $PATH. Install both from the source tree with
+  go install ./cmd/...
+or build them side by side with go build -o DIR ./cmd/... . The .dot output needs
 no layout program.
 
 Exit status: 0 when the picture was written (whatever it shows), 2 on error.

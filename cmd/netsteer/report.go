@@ -44,8 +44,8 @@ The page needs nothing else: no scripts, no fonts, style sheets or images
 from elsewhere. Every name is escaped.
 
 The picture is laid out by the companion program netsteer-layout, as for
-"netsteer render" (see its help): install both with
-  go install github.com/netsteer/netsteer/cmd/...
+"netsteer render" (see its help): install both from the source tree with
+  go install ./cmd/...
 
 Exit status: 0 when the page was written (whatever it says), 2 on error.
 

@@ -44,7 +44,7 @@ var (
 )
 
 // InstallHint says how to install the layout program.
-const InstallHint = "install it with `go install github.com/netsteer/netsteer/cmd/...`, or `go build -o DIR ./cmd/...` in the source tree to put it beside netsteer, or set " + LayoutEnv + " to its path; .dot output needs no layout program"
+const InstallHint = "install it with `go install ./cmd/...` in the netsteer source tree, or `go build -o DIR ./cmd/...` there to put it beside netsteer, or set " + LayoutEnv + " to its path; .dot output needs no layout program"
 
 // FindLayoutProgram returns the path of the layout program: $NETSTEER_LAYOUT
 // when set, else netsteer-layout in the directory of the running program,

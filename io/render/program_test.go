@@ -103,7 +103,7 @@ func TestFindLayoutProgram(t *testing.T) {
 		{name: "beside", exeDir: beside, path: onPath, want: filepath.Join(beside, LayoutProgram)},
 		{name: "path", exeDir: empty, path: onPath, want: filepath.Join(onPath, LayoutProgram)},
 		{name: "not executable", exeDir: notExec, path: onPath, want: filepath.Join(onPath, LayoutProgram)},
-		{name: "nowhere", exeDir: empty, path: empty, fails: true, want: "not found in " + empty + " or on $PATH: install it with `go install github.com/netsteer/netsteer/cmd/...`"},
+		{name: "nowhere", exeDir: empty, path: empty, fails: true, want: "not found in " + empty + " or on $PATH: install it with `go install ./cmd/...` in the netsteer source tree"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			t.Setenv("PATH", tc.path)

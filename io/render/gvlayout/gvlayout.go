@@ -86,8 +86,8 @@ Lays out Graphviz DOT text read on standard input with Graphviz (compiled
 to WebAssembly, github.com/goccy/go-graphviz) and writes the picture on
 standard output. "netsteer render" and "netsteer report" run it to draw;
 netsteer finds it through $NETSTEER_LAYOUT, else next to the netsteer
-program, else on $PATH. Install both with
-  go install github.com/netsteer/netsteer/cmd/...
+program, else on $PATH. Install both from the source tree with
+  go install ./cmd/...
 
 Options:
   -engine ENGINE   Graphviz layout engine: %s (default dot)
