@@ -1,6 +1,6 @@
 module github.com/netsteer/netsteer
 
-go 1.26
+go 1.26.0
 
 require (
 	github.com/fogleman/gg v1.3.0
