@@ -9,7 +9,8 @@ import (
 // A directed star: a hub acting on three leaves. As a bipartite graph, row
 // "hub" is adjacent to the three leaf columns, so only one leaf can be
 // matched (which one is up to the algorithm); the other two leaf columns and
-// the hub's own column stay unmatched: they are the driver nodes (N_D = N - |M*| = 4 - 1 = 3).
+// the hub's own column stay unmatched: they are the driver nodes
+// (N_D = N - |M*| = 4 - 1 = 3; common practice).
 func ExampleMaximum() {
 	names := []string{"hub", "x", "y", "z"}
 	g := matching.FromEdges(4, 4, []int32{0, 0, 0}, []int32{1, 2, 3})
