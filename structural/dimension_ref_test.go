@@ -13,8 +13,8 @@ import (
 
 // refControllableDimension is ControllableDimension by the reference flow.
 func refControllableDimension(g *structural.Network, inputs [][]int32) int {
-	reached, nR := refReach(g, inputs)
-	m := matching.Maximum(refInNeighbourCSR(g, inputs), nil)
+	reached, nR := structural.Reach(g, inputs)
+	m := matching.Maximum(structural.InNeighbourCSR(g, inputs), nil)
 	if nR == g.N() && m.Size == g.N() {
 		return g.N()
 	}
@@ -189,7 +189,7 @@ func (f *refFlow) apply(x int32, pos int64) {
 }
 
 // refDimension computes the largest stem-cycle cover on the reached states,
-// starting from m, a maximum matching of refInNeighbourCSR(g, inputs).
+// starting from m, a maximum matching of structural.InNeighbourCSR(g, inputs).
 func refDimension(g *structural.Network, inputs [][]int32, inR []bool, nR int, m *matching.Matching) int {
 	n := g.N()
 	if nR == 0 {
@@ -439,68 +439,4 @@ func (f *refFlow) augment(sources []int32) int {
 		}
 	}
 	return found
-}
-
-// refReach marks the states reached from the driven states along g.Out and
-// returns the marks and their count.
-func refReach(g *structural.Network, inputs [][]int32) ([]bool, int) {
-	n := g.N()
-	seen := make([]bool, n)
-	queue := make([]int32, 0, 64)
-	for _, in := range inputs {
-		for _, v := range in {
-			if !seen[v] {
-				seen[v] = true
-				queue = append(queue, v)
-			}
-		}
-	}
-	for i := 0; i < len(queue); i++ {
-		u := queue[i]
-		for _, v := range g.Out.Adj[g.Out.Ptr[u]:g.Out.Ptr[u+1]] {
-			if !seen[v] {
-				seen[v] = true
-				queue = append(queue, v)
-			}
-		}
-	}
-	return seen, len(queue)
-}
-
-// refInNeighbourCSR returns the bipartite graph of [A B]: row v lists the
-// states acting on v (columns 0..N-1) and the inputs driving v (column N+i
-// for input i), each once.
-func refInNeighbourCSR(g *structural.Network, inputs [][]int32) *matching.CSR {
-	n := g.N()
-	extra := make([]int64, n+1)
-	mark := make([]int32, n) // input index + 1 of the last input counted at v
-	for i, in := range inputs {
-		for _, v := range in {
-			if mark[v] != int32(i+1) {
-				mark[v] = int32(i + 1)
-				extra[v+1]++
-			}
-		}
-	}
-	b := &matching.CSR{Rows: n, Cols: n + len(inputs), Ptr: make([]int64, n+1)}
-	for v := 0; v < n; v++ {
-		b.Ptr[v+1] = b.Ptr[v] + (g.In.Ptr[v+1] - g.In.Ptr[v]) + extra[v+1]
-	}
-	b.Adj = make([]int32, b.Ptr[n])
-	pos := extra[:n] // reused: next free slot of each row's input part
-	for v := 0; v < n; v++ {
-		k := copy(b.Adj[b.Ptr[v]:], g.In.Adj[g.In.Ptr[v]:g.In.Ptr[v+1]])
-		pos[v] = b.Ptr[v] + int64(k)
-		mark[v] = 0
-	}
-	for i, in := range inputs {
-		for _, v := range in {
-			if mark[v] != int32(i+1) {
-				mark[v] = int32(i + 1)
-				b.Adj[pos[v]] = int32(n + i)
-				pos[v]++
-			}
-		}
-	}
-	return b
 }
