@@ -2,17 +2,12 @@ package structural
 
 import (
 	"errors"
-	"fmt"
 	"slices"
-	"sync/atomic"
 
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/matching/bigmem"
+	"github.com/netsteer/netsteer/structural/internal/names"
 )
-
-// MaxStates is the largest number of states a Network can hold (int32
-// indices).
-const MaxStates = 1<<31 - 2
 
 // BuildOptions change how a Builder turns its edges into a Network.
 type BuildOptions struct {
@@ -25,7 +20,7 @@ type BuildOptions struct {
 // Builder collects named states and edges and builds a Network. The zero
 // value is not usable; call NewBuilder or NewIntBuilder.
 type Builder struct {
-	names *Names
+	names *names.Interner
 	// Edges are kept in segments, so that growing never copies them: the
 	// full ones in segs, the one being filled in src, dst and w (w only
 	// once an edge has had a weight).
@@ -34,23 +29,52 @@ type Builder struct {
 	src, dst []int32
 	w        []float64
 	weighted bool
-
-	// Canonical decimal names (see intern.go): dense[v] is the state named
-	// v plus one, 0 when absent; overflow lists those hashed instead.
-	dense       []int32
-	denseShared atomic.Pointer[[]int32] // dense as published to LookupInt
-	overflow    []overflowName
-	unindexed   bool // some names are missing from the hash index
-	// idx indexes the other names while building (see internName).
-	idx     []nameSlot
-	idxUsed int
 }
 
 // NewBuilder returns a Builder whose states are named by Intern.
-func NewBuilder() *Builder { return &Builder{names: NewNames()} }
+func NewBuilder() *Builder { return &Builder{names: names.NewInterner()} }
 
 // NewIntBuilder returns a Builder for n states named base..base+n-1.
-func NewIntBuilder(n, base int) *Builder { return &Builder{names: IntNames(n, base)} }
+func NewIntBuilder(n, base int) *Builder { return &Builder{names: names.NewIntInterner(n, base)} }
+
+// WithEdges returns a network on the states of g (the same names, in the
+// same order) whose edges are src[i] -> dst[i], with weights w when not
+// nil. The slices are taken over.
+func (g *Network) WithEdges(src, dst []int32, w []float64) (*Network, error) {
+	if len(src) != len(dst) || w != nil && len(w) != len(src) {
+		return nil, errors.New("structural: WithEdges: slices differ in length")
+	}
+	n := int32(g.N())
+	for i, u := range src {
+		if u < 0 || u >= n || dst[i] < 0 || dst[i] >= n {
+			return nil, errors.New("structural: WithEdges: edge out of range")
+		}
+	}
+	b := &Builder{names: names.Sealed(g.names), src: src, dst: dst, w: w, weighted: w != nil}
+	return b.Build(BuildOptions{})
+}
+
+// AddEdges records the edges src[i] -> dst[i] (with weights w, when not
+// nil), taking the slices over without copying them.
+func (b *Builder) AddEdges(src, dst []int32, w []float64) {
+	if len(src) == 0 {
+		return
+	}
+	if w != nil && !b.weighted {
+		b.AddWeightedEdge(src[0], dst[0], w[0])
+		src, dst, w = src[1:], dst[1:], w[1:]
+	}
+	if b.weighted && w == nil {
+		w = ones(len(src), len(src))
+	}
+	if len(b.src) > 0 {
+		b.segs = append(b.segs, segment{b.src, b.dst, b.w})
+		b.sealed += len(b.src)
+	}
+	b.segs = append(b.segs, segment{src, dst, w})
+	b.sealed += len(src)
+	b.src, b.dst, b.w = nil, nil, nil
+}
 
 // Grow reserves room for n more edges.
 func (b *Builder) Grow(n int) {
@@ -91,22 +115,27 @@ func minInt(a, b int) int {
 	return b
 }
 
-// Intern returns the index of the named state, adding it when new.
-func (b *Builder) Intern(name []byte) (int32, error) {
-	if b.names.ints {
-		return -1, errors.New("structural: Intern on an integer-named builder")
-	}
-	if v, ok := canonicalDecimal(name); ok {
-		return b.InternInt(v)
-	}
-	if b.names.n >= MaxStates {
-		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
-	}
-	return b.internName(name), nil
-}
+// Intern returns the index of the named state, adding it when new. The
+// bytes are copied. Names are kept verbatim.
+func (b *Builder) Intern(name []byte) (int32, error) { return b.names.Intern(name) }
+
+// InternInt returns the index of the state named by the canonical decimal
+// form of v ("0", "7", "1200"), adding it when new. It is equivalent to
+// Intern(strconv.AppendUint(nil, uint64(v), 10)) and much faster for
+// integer-named inputs (a dense table indexed by value instead of a hash).
+// v must be below 2^31-1.
+func (b *Builder) InternInt(v uint32) (int32, error) { return b.names.InternInt(v) }
+
+// LookupInt returns the state named by the canonical decimal form of v if
+// the Builder has it in its dense table, as InternInt would, without adding
+// it. It may be called from any number of goroutines while one other
+// goroutine calls InternInt and Intern: it then sees a subset of the names
+// interned so far, so a reader that parses ahead of the goroutine interning
+// in order can resolve the names already known and leave the rest to it.
+func (b *Builder) LookupInt(v uint32) (int32, bool) { return b.names.LookupInt(v) }
 
 // States returns the number of states so far.
-func (b *Builder) States() int { return b.names.n }
+func (b *Builder) States() int { return b.names.Len() }
 
 // Edges returns the number of edges added so far, repeats included.
 func (b *Builder) Edges() int { return b.sealed + len(b.src) }
@@ -152,14 +181,11 @@ func ones(n, c int) []float64 {
 
 // Build returns the Network. The Builder must not be used afterwards.
 func (b *Builder) Build(opt BuildOptions) (*Network, error) {
-	n := b.names.n
+	n := b.names.Len()
 	if n == 0 {
-		return nil, errors.New("structural: empty network")
+		return nil, ErrEmpty
 	}
-	reindex := b.unindexed
-	b.unindexed = false
-	b.dense, b.overflow, b.idx = nil, nil, nil
-	b.denseShared.Store(nil)
+	b.names.Release()
 	if opt.Undirected {
 		// Every edge u -> v, u != v, gains v -> u. The loop runs over a
 		// copy of the segment list, which grows meanwhile.
@@ -207,7 +233,7 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 			w = append(w, sg.w)
 		}
 	}
-	g := &Network{names: b.names}
+	g := &Network{}
 	// The in-rows are built from the edges at the same time as the
 	// out-rows, on another core, with the name index.
 	inDone := make(chan struct{})
@@ -215,10 +241,8 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		defer close(inDone)
 		inPtr, inAdj, _ := sortBySource(n, m, dst, src, nil)
 		q := dedupe(inPtr, inAdj)
-		g.In = matching.CSR{Rows: n, Cols: n, Ptr: inPtr, Adj: trim(inAdj, q)}
-		if reindex {
-			b.names.reindex()
-		}
+		g.in = matching.CSR{Rows: n, Cols: n, Ptr: inPtr, Adj: trim(inAdj, q)}
+		g.names = b.names.Seal()
 	}()
 	outPtr, outAdj, outW := sortBySource(n, m, src, dst, w)
 	<-inDone
@@ -255,10 +279,10 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		}
 		outW = outW[:q:q]
 	}
-	g.Out = matching.CSR{Rows: n, Cols: n, Ptr: outPtr, Adj: outAdj}
-	g.OutW = outW
-	g.SelfLoops = loops
-	g.DuplicatesMerged = merged
+	g.out = matching.CSR{Rows: n, Cols: n, Ptr: outPtr, Adj: outAdj}
+	g.outW = outW
+	g.selfLoops = loops
+	g.duplicatesMerged = merged
 	return g, nil
 }
 

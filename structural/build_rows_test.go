@@ -74,7 +74,7 @@ func TestBuildHubRows(t *testing.T) {
 		}
 		var ins [][]int32 = make([][]int32, n)
 		for u := int32(0); int(u) < n; u++ {
-			row := g.Out.Row(u)
+			row := g.Succ(u)
 			if !slices.IsSorted(row) {
 				t.Fatalf("trial %d: out-row %d not sorted", trial, u)
 			}
@@ -83,14 +83,14 @@ func TestBuildHubRows(t *testing.T) {
 				if !ok || k > 0 && row[k-1] == v {
 					t.Fatalf("trial %d: out-row %d has %d (in input: %v; repeated: %v)", trial, u, v, ok, k > 0 && row[k-1] == v)
 				}
-				if weighted && g.OutW[g.Out.Ptr[u]+int64(k)] != x {
-					t.Fatalf("trial %d: weight of %d -> %d is %g, want %g", trial, u, v, g.OutW[g.Out.Ptr[u]+int64(k)], x)
+				if weighted && g.Weights()[g.Out().Ptr[u]+int64(k)] != x {
+					t.Fatalf("trial %d: weight of %d -> %d is %g, want %g", trial, u, v, g.Weights()[g.Out().Ptr[u]+int64(k)], x)
 				}
 				ins[v] = append(ins[v], u)
 			}
 		}
 		for v := int32(0); int(v) < n; v++ {
-			if got := g.In.Row(v); !slices.Equal(got, ins[v]) {
+			if got := g.Pred(v); !slices.Equal(got, ins[v]) {
 				t.Fatalf("trial %d: in-row %d = %v, want %v", trial, v, got, ins[v])
 			}
 		}

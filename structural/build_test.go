@@ -48,10 +48,10 @@ func buildNamed(t *testing.T, edges []namedEdge, opt structural.BuildOptions) *s
 func namedEdges(g *structural.Network) []string {
 	var out []string
 	for u := int32(0); int(u) < g.N(); u++ {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-			s := g.Name(u) + ">" + g.Name(g.Out.Adj[k])
-			if g.OutW != nil {
-				s += "=" + strconv.FormatFloat(g.OutW[k], 'g', -1, 64)
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+			s := g.Name(u) + ">" + g.Name(g.Out().Adj[k])
+			if g.Weights() != nil {
+				s += "=" + strconv.FormatFloat(g.Weights()[k], 'g', -1, 64)
 			}
 			out = append(out, s)
 		}
@@ -67,18 +67,18 @@ func namedEdges(g *structural.Network) []string {
 func checkBuilt(t *testing.T, g *structural.Network) {
 	t.Helper()
 	n := g.N()
-	if g.Out.Rows != n || g.Out.Cols != n || g.In.Rows != n || g.In.Cols != n {
-		t.Fatalf("CSR shapes %dx%d and %dx%d for %d states", g.Out.Rows, g.Out.Cols, g.In.Rows, g.In.Cols, n)
+	if g.Out().Rows != n || g.Out().Cols != n || g.In().Rows != n || g.In().Cols != n {
+		t.Fatalf("CSR shapes %dx%d and %dx%d for %d states", g.Out().Rows, g.Out().Cols, g.In().Rows, g.In().Cols, n)
 	}
-	if err := g.Out.Validate(); err != nil {
+	if err := g.Out().Validate(); err != nil {
 		t.Fatal(err)
 	}
-	if err := g.In.Validate(); err != nil {
+	if err := g.In().Validate(); err != nil {
 		t.Fatal(err)
 	}
 	out := map[[2]int32]bool{}
 	for u := int32(0); int(u) < n; u++ {
-		row := g.Out.Row(u)
+		row := g.Succ(u)
 		for k, v := range row {
 			if k > 0 && v <= row[k-1] {
 				t.Fatalf("out-row %d not strictly increasing: %v", u, row)
@@ -88,7 +88,7 @@ func checkBuilt(t *testing.T, g *structural.Network) {
 	}
 	in := 0
 	for v := int32(0); int(v) < n; v++ {
-		row := g.In.Row(v)
+		row := g.Pred(v)
 		for k, u := range row {
 			if k > 0 && u <= row[k-1] {
 				t.Fatalf("in-row %d not strictly increasing: %v", v, row)
@@ -150,11 +150,11 @@ func TestBuild(t *testing.T) {
 			if got := namedEdges(g); !slices.Equal(got, c.want) {
 				t.Errorf("got edges %q, want %q", got, c.want)
 			}
-			if g.SelfLoops != c.loops {
-				t.Errorf("got SelfLoops %d, want %d", g.SelfLoops, c.loops)
+			if g.SelfLoops() != c.loops {
+				t.Errorf("got SelfLoops %d, want %d", g.SelfLoops(), c.loops)
 			}
-			if g.DuplicatesMerged != c.merged {
-				t.Errorf("got DuplicatesMerged %d, want %d", g.DuplicatesMerged, c.merged)
+			if g.DuplicatesMerged() != c.merged {
+				t.Errorf("got DuplicatesMerged %d, want %d", g.DuplicatesMerged(), c.merged)
 			}
 		})
 	}
@@ -251,26 +251,26 @@ func TestBuildMatchesMapModel(t *testing.T) {
 		if opt.SelfDynamics {
 			merged -= len(inputLoops)
 		}
-		if g.N() != n || g.Edges() != len(w) || g.SelfLoops != loops || g.DuplicatesMerged != merged {
+		if g.N() != n || g.Edges() != len(w) || g.SelfLoops() != loops || g.DuplicatesMerged() != merged {
 			t.Fatalf("trial %d (%+v): got N %d, edges %d, loops %d, merged %d; want %d, %d, %d, %d",
-				trial, opt, g.N(), g.Edges(), g.SelfLoops, g.DuplicatesMerged, n, len(w), loops, merged)
+				trial, opt, g.N(), g.Edges(), g.SelfLoops(), g.DuplicatesMerged(), n, len(w), loops, merged)
 		}
-		if (g.OutW != nil) != anyWeight {
-			t.Fatalf("trial %d: weights kept %v, want %v", trial, g.OutW != nil, anyWeight)
+		if (g.Weights() != nil) != anyWeight {
+			t.Fatalf("trial %d: weights kept %v, want %v", trial, g.Weights() != nil, anyWeight)
 		}
 		for u := int32(0); int(u) < g.N(); u++ {
-			for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-				kk := key{g.Name(u), g.Name(g.Out.Adj[k])}
+			for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+				kk := key{g.Name(u), g.Name(g.Out().Adj[k])}
 				x, ok := w[kk]
 				if !ok {
 					t.Fatalf("trial %d: unexpected namedEdge %v", trial, kk)
 				}
-				if g.OutW == nil || kk.u == kk.v && opt.SelfDynamics {
+				if g.Weights() == nil || kk.u == kk.v && opt.SelfDynamics {
 					// Nodal-dynamics loops: only presence is specified.
 					continue
 				}
-				if g.OutW[k] != x {
-					t.Fatalf("trial %d: namedEdge %v weight %g, want %g", trial, kk, g.OutW[k], x)
+				if g.Weights()[k] != x {
+					t.Fatalf("trial %d: namedEdge %v weight %g, want %g", trial, kk, g.Weights()[k], x)
 				}
 			}
 		}
@@ -311,10 +311,10 @@ func TestBuildLongChain(t *testing.T) {
 		t.Fatalf("got %d edges, want %d", g.Edges(), n-1)
 	}
 	for i := int32(0); i+1 < n; i++ {
-		if r := g.Out.Row(i); len(r) != 1 || r[0] != i+1 {
+		if r := g.Succ(i); len(r) != 1 || r[0] != i+1 {
 			t.Fatalf("out-row %d = %v, want [%d]", i, r, i+1)
 		}
-		if r := g.In.Row(i + 1); len(r) != 1 || r[0] != i {
+		if r := g.Pred(i + 1); len(r) != 1 || r[0] != i {
 			t.Fatalf("in-row %d = %v, want [%d]", i+1, r, i)
 		}
 	}
@@ -335,8 +335,8 @@ func TestSelfDynamicsKeepsInputLoopWeight(t *testing.T) {
 	want := map[[2]int32]float64{{a, a}: 2.5, {a, c}: 4, {c, c}: 1}
 	got := map[[2]int32]float64{}
 	for u := int32(0); int(u) < g.N(); u++ {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-			got[[2]int32{u, g.Out.Adj[k]}] = g.OutW[k]
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+			got[[2]int32{u, g.Out().Adj[k]}] = g.Weights()[k]
 		}
 	}
 	if len(got) != len(want) {
@@ -347,7 +347,7 @@ func TestSelfDynamicsKeepsInputLoopWeight(t *testing.T) {
 			t.Errorf("weight of %v = %g, want %g", e, got[e], w)
 		}
 	}
-	if g.DuplicatesMerged != 0 || g.SelfLoops != 2 {
-		t.Errorf("DuplicatesMerged = %d, SelfLoops = %d, want 0 and 2", g.DuplicatesMerged, g.SelfLoops)
+	if g.DuplicatesMerged() != 0 || g.SelfLoops() != 2 {
+		t.Errorf("DuplicatesMerged = %d, SelfLoops = %d, want 0 and 2", g.DuplicatesMerged(), g.SelfLoops())
 	}
 }

@@ -55,7 +55,7 @@ func FixedDegrees(k int) DegreeDist {
 // DegreeDistributions returns the empirical out- and in-degree
 // distributions of g, self-loops counted on both sides.
 func DegreeDistributions(g *Network) (out, in DegreeDist) {
-	return histogram(&g.Out), histogram(&g.In)
+	return histogram(&g.out), histogram(&g.in)
 }
 
 func histogram(c *matching.CSR) DegreeDist {

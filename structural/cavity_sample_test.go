@@ -78,7 +78,7 @@ func TestCavityERSampled(t *testing.T) {
 		var sum, sumSq float64
 		for i := 0; i < r; i++ {
 			g := drawnER(t, n, l, rng)
-			nd := float64(len(structural.MinimumDrivers(g).Drivers)) / n
+			nd := float64(len(structural.Drivers(g).Drivers.IDs())) / n
 			sum += nd
 			sumSq += nd * nd
 		}

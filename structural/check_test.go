@@ -9,12 +9,13 @@ import (
 
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 // termRankExample is the network of issue 2: input 0 drives x1, and
 // x1 -> x2, x1 -> x3, x2 -> x4, x3 -> x5 (states x1..x5 are 0..4).
 func termRankExample(t testing.TB) (*structural.Network, [][]int32) {
-	return network(t, 5, []edge{{0, 1}, {0, 2}, {1, 3}, {2, 4}}), [][]int32{{0}}
+	return testnet.Network(t, 5, []testnet.Edge{{0, 1}, {0, 2}, {1, 3}, {2, 4}}), [][]int32{{0}}
 }
 
 func TestCheckTermRankExample(t *testing.T) {
@@ -23,26 +24,26 @@ func TestCheckTermRankExample(t *testing.T) {
 	// states (Hosoe, IEEE TAC 25(6), 1980). Independent route: the sampled
 	// Kalman rank.
 	g, inputs := termRankExample(t)
-	v := structural.Check(g, inputs)
-	if v.Controllable {
+	v := testnet.Check(t, g, structural.Controllability, inputs)
+	if v.Holds {
 		t.Fatal("got controllable, want not (a dilation: x1 alone feeds x2 and x3)")
 	}
-	if got, want := 5-v.Deficiency, 4; got != want {
+	if got, want := 5-v.Deficiency(), 4; got != want {
 		t.Errorf("term rank: got %d, want %d", got, want)
 	}
-	if got, want := v.ControllableDimension, 3; got != want {
+	if got, want := v.Dimension, 3; got != want {
 		t.Errorf("controllable dimension: got %d, want %d", got, want)
 	}
 	rng := rand.New(rand.NewPCG(1980, 1208))
-	if got := sampledRank(t, rng, g, func() *mat.Dense { return realiseB(rng, 5, inputs) }); got != 3 {
+	if got := testnet.SampledRank(t, rng, g, func() *mat.Dense { return testnet.RealiseB(rng, 5, inputs) }); got != 3 {
 		t.Errorf("sampled Kalman rank: got %d, want 3", got)
 	}
 	d := v.Dilation
 	if d == nil {
 		t.Fatal("no dilation witness")
 	}
-	if !slices.Equal(d.States, []int32{1, 2}) || !slices.Equal(d.InNeighbours, []int32{0}) || len(d.Inputs) != 0 {
-		t.Errorf("dilation: got states %v, in-neighbours %v, inputs %v; want [1 2], [0], []", d.States, d.InNeighbours, d.Inputs)
+	if !slices.Equal(d.States.IDs(), []int32{1, 2}) || !slices.Equal(d.Neighbours.IDs(), []int32{0}) || len(d.Signals) != 0 {
+		t.Errorf("dilation: got states %v, in-neighbours %v, inputs %v; want [1 2], [0], []", d.States.IDs(), d.Neighbours.IDs(), d.Signals)
 	}
 }
 
@@ -51,36 +52,36 @@ func TestCheckTable(t *testing.T) {
 	cases := []struct {
 		name         string
 		n            int
-		edges        []edge
+		edges        []testnet.Edge
 		inputs       [][]int32
 		controllable bool
 		unreached    []int32
 		dimension    int
 	}{
-		{"chain driven at its head", 3, []edge{{0, 1}, {1, 2}}, [][]int32{{0}}, true, nil, 3},
-		{"chain driven in the middle", 3, []edge{{0, 1}, {1, 2}}, [][]int32{{1}}, false, []int32{0}, 2},
-		{"no inputs", 2, []edge{{0, 1}}, nil, false, []int32{0, 1}, 0},
-		{"cycle", 3, []edge{{0, 1}, {1, 2}, {2, 0}}, [][]int32{{2}}, true, nil, 3},
-		{"out-star, one input", 3, []edge{{0, 1}, {0, 2}}, [][]int32{{0}}, false, nil, 2},
-		{"out-star, leaf actuated", 3, []edge{{0, 1}, {0, 2}}, [][]int32{{0}, {2}}, true, nil, 3},
-		{"out-star, one input on hub and leaf", 3, []edge{{0, 1}, {0, 2}}, [][]int32{{0, 2}}, false, nil, 2},
-		{"two self-loops, one input on both", 2, []edge{{0, 0}, {1, 1}}, [][]int32{{0, 1}}, true, nil, 2},
-		{"self-loop hub", 2, []edge{{0, 0}, {0, 1}}, [][]int32{{0}}, true, nil, 2},
-		{"two inputs on one state", 2, []edge{{0, 1}}, [][]int32{{0}, {0}}, true, nil, 2},
+		{"chain driven at its head", 3, []testnet.Edge{{0, 1}, {1, 2}}, [][]int32{{0}}, true, nil, 3},
+		{"chain driven in the middle", 3, []testnet.Edge{{0, 1}, {1, 2}}, [][]int32{{1}}, false, []int32{0}, 2},
+		{"no inputs", 2, []testnet.Edge{{0, 1}}, nil, false, []int32{0, 1}, 0},
+		{"cycle", 3, []testnet.Edge{{0, 1}, {1, 2}, {2, 0}}, [][]int32{{2}}, true, nil, 3},
+		{"out-star, one input", 3, []testnet.Edge{{0, 1}, {0, 2}}, [][]int32{{0}}, false, nil, 2},
+		{"out-star, leaf actuated", 3, []testnet.Edge{{0, 1}, {0, 2}}, [][]int32{{0}, {2}}, true, nil, 3},
+		{"out-star, one input on hub and leaf", 3, []testnet.Edge{{0, 1}, {0, 2}}, [][]int32{{0, 2}}, false, nil, 2},
+		{"two self-loops, one input on both", 2, []testnet.Edge{{0, 0}, {1, 1}}, [][]int32{{0, 1}}, true, nil, 2},
+		{"self-loop hub", 2, []testnet.Edge{{0, 0}, {0, 1}}, [][]int32{{0}}, true, nil, 2},
+		{"two inputs on one state", 2, []testnet.Edge{{0, 1}}, [][]int32{{0}, {0}}, true, nil, 2},
 	}
 	for _, c := range cases {
-		g := network(t, c.n, c.edges)
-		v := structural.Check(g, c.inputs)
-		if v.Controllable != c.controllable {
-			t.Errorf("%s: controllable: got %v, want %v", c.name, v.Controllable, c.controllable)
+		g := testnet.Network(t, c.n, c.edges)
+		v := testnet.Check(t, g, structural.Controllability, c.inputs)
+		if v.Holds != c.controllable {
+			t.Errorf("%s: controllable: got %v, want %v", c.name, v.Holds, c.controllable)
 		}
-		if !slices.Equal(v.Unreached, c.unreached) {
-			t.Errorf("%s: unreached: got %v, want %v", c.name, v.Unreached, c.unreached)
+		if !slices.Equal(v.Unreached.IDs(), c.unreached) {
+			t.Errorf("%s: unreached: got %v, want %v", c.name, v.Unreached.IDs(), c.unreached)
 		}
-		if v.ControllableDimension != c.dimension {
-			t.Errorf("%s: dimension: got %d, want %d", c.name, v.ControllableDimension, c.dimension)
+		if v.Dimension != c.dimension {
+			t.Errorf("%s: dimension: got %d, want %d", c.name, v.Dimension, c.dimension)
 		}
-		if got := structural.ControllableDimension(g, c.inputs); got != c.dimension {
+		if got := testnet.Dimension(t, g, structural.Controllability, c.inputs); got != c.dimension {
 			t.Errorf("%s: ControllableDimension: got %d, want %d", c.name, got, c.dimension)
 		}
 	}
@@ -111,7 +112,7 @@ func closureUnreached(g *structural.Network, inputs [][]int32) []int32 {
 	for u := range r {
 		r[u] = make([]bool, n)
 		r[u][u] = true
-		for _, v := range g.Out.Row(int32(u)) {
+		for _, v := range g.Succ(int32(u)) {
 			r[u][v] = true
 		}
 	}
@@ -147,13 +148,13 @@ func closureUnreached(g *structural.Network, inputs [][]int32) []int32 {
 func checkWitness(t *testing.T, g *structural.Network, inputs [][]int32, d *structural.Dilation) {
 	t.Helper()
 	inS := map[int32]bool{}
-	for _, s := range d.States {
+	for _, s := range d.States.IDs() {
 		inS[s] = true
 	}
 	var nb []int32
 	seen := map[int32]bool{}
-	for _, s := range d.States {
-		for _, u := range g.In.Row(s) {
+	for _, s := range d.States.IDs() {
+		for _, u := range g.Pred(s) {
 			if !seen[u] {
 				seen[u] = true
 				nb = append(nb, u)
@@ -170,11 +171,11 @@ func checkWitness(t *testing.T, g *structural.Network, inputs [][]int32, d *stru
 			}
 		}
 	}
-	if !slices.Equal(nb, d.InNeighbours) || !slices.Equal(ins, d.Inputs) {
-		t.Fatalf("witness %v: reported in-neighbours %v inputs %v, recomputed %v %v", d.States, d.InNeighbours, d.Inputs, nb, ins)
+	if !slices.Equal(nb, d.Neighbours.IDs()) || !slices.Equal(ins, d.Signals) {
+		t.Fatalf("witness %v: reported in-neighbours %v inputs %v, recomputed %v %v", d.States.IDs(), d.Neighbours.IDs(), d.Signals, nb, ins)
 	}
-	if len(nb)+len(ins) != len(d.States)-1 {
-		t.Fatalf("witness %v has %d in-neighbours, want %d", d.States, len(nb)+len(ins), len(d.States)-1)
+	if len(nb)+len(ins) != len(d.States.IDs())-1 {
+		t.Fatalf("witness %v has %d in-neighbours, want %d", d.States.IDs(), len(nb)+len(ins), len(d.States.IDs())-1)
 	}
 }
 
@@ -194,31 +195,31 @@ func TestCheckKalmanRandom(t *testing.T) {
 	for trial := 0; trial < trials; trial++ {
 		n := 1 + rng.IntN(7)
 		p := []float64{0.05, 0.12, 0.2, 0.35, 0.5}[trial%5]
-		g := randomNetwork(t, rng, n, p)
+		g := testnet.Random(t, rng, n, p)
 		inputs := randomDesign(rng, n, 3)
-		v := structural.Check(g, inputs)
-		rank := sampledRank(t, rng, g, func() *mat.Dense { return realiseB(rng, n, inputs) })
-		if v.Controllable != (rank == n) {
-			t.Fatalf("trial %d: controllable %v but Kalman rank %d of %d; edges %v inputs %v", trial, v.Controllable, rank, n, g.Out, inputs)
+		v := testnet.Check(t, g, structural.Controllability, inputs)
+		rank := testnet.SampledRank(t, rng, g, func() *mat.Dense { return testnet.RealiseB(rng, n, inputs) })
+		if v.Holds != (rank == n) {
+			t.Fatalf("trial %d: controllable %v but Kalman rank %d of %d; edges %v inputs %v", trial, v.Holds, rank, n, g.Out(), inputs)
 		}
-		if v.ControllableDimension != rank {
-			t.Fatalf("trial %d: dimension %d, Kalman rank %d; edges %v inputs %v", trial, v.ControllableDimension, rank, g.Out, inputs)
+		if v.Dimension != rank {
+			t.Fatalf("trial %d: dimension %d, Kalman rank %d; edges %v inputs %v", trial, v.Dimension, rank, g.Out(), inputs)
 		}
-		if want := closureUnreached(g, inputs); !slices.Equal(v.Unreached, want) {
-			t.Fatalf("trial %d: unreached %v, closure says %v", trial, v.Unreached, want)
+		if want := closureUnreached(g, inputs); !slices.Equal(v.Unreached.IDs(), want) {
+			t.Fatalf("trial %d: unreached %v, closure says %v", trial, v.Unreached.IDs(), want)
 		}
-		if (v.Dilation != nil) != (v.Deficiency > 0) {
-			t.Fatalf("trial %d: dilation %v with deficiency %d", trial, v.Dilation, v.Deficiency)
+		if (v.Dilation != nil) != (v.Deficiency() > 0) {
+			t.Fatalf("trial %d: dilation %v with deficiency %d", trial, v.Dilation, v.Deficiency())
 		}
 		if v.Dilation != nil {
 			checkWitness(t, g, inputs, v.Dilation)
 		}
-		if !v.Controllable {
+		if !v.Holds {
 			fails++
 			// The dimension differs from the term rank on the reached
 			// part in some trials; count them to be sure the test sees
 			// the distinction.
-			dims[v.ControllableDimension < termRankReached(g, inputs, v.Unreached)]++
+			dims[v.Dimension < termRankReached(g, inputs, v.Unreached.IDs())]++
 		}
 	}
 	t.Logf("%d designs, %d not controllable, %d of those with dimension below the reached term rank", trials, fails, dims[true])
@@ -241,7 +242,7 @@ func termRankReached(g *structural.Network, inputs [][]int32, unreached []int32)
 		if out[int32(v)] {
 			continue
 		}
-		for _, u := range g.In.Row(int32(v)) {
+		for _, u := range g.Pred(int32(v)) {
 			er, ec = append(er, int32(v)), append(ec, u)
 		}
 	}
@@ -261,15 +262,15 @@ func TestCheckObservabilityDual(t *testing.T) {
 	rng := rand.New(rand.NewPCG(7, 7))
 	for trial := 0; trial < 800; trial++ {
 		n := 1 + rng.IntN(6)
-		g := randomNetwork(t, rng, n, []float64{0.1, 0.25, 0.4}[trial%3])
+		g := testnet.Random(t, rng, n, []float64{0.1, 0.25, 0.4}[trial%3])
 		outputs := randomDesign(rng, n, 3)
-		o := structural.CheckObservability(g, outputs)
+		o := testnet.Check(t, g, structural.Observability, outputs)
 		var rank int
 		for try := 0; ; try++ {
-			a := realiseA(rng, g)
+			a := testnet.RealiseA(rng, g)
 			var at mat.Dense
 			at.CloneFrom(a.T())
-			r, grey := kalmanRank(&at, realiseB(rng, n, outputs))
+			r, grey := testnet.KalmanRank(&at, testnet.RealiseB(rng, n, outputs))
 			if !grey {
 				rank = r
 				break
@@ -278,16 +279,16 @@ func TestCheckObservabilityDual(t *testing.T) {
 				t.Fatal("borderline samples")
 			}
 		}
-		if o.Observable != (rank == n) || o.ObservableDimension != rank {
-			t.Fatalf("trial %d: observable %v dimension %d, sampled rank %d of %d", trial, o.Observable, o.ObservableDimension, rank, n)
+		if o.Holds != (rank == n) || o.Dimension != rank {
+			t.Fatalf("trial %d: observable %v dimension %d, sampled rank %d of %d", trial, o.Holds, o.Dimension, rank, n)
 		}
 		// Unobserved: states with no path to a sensed state.
-		tg := structural.Transpose(g)
-		if want := closureUnreached(tg, outputs); !slices.Equal(o.Unobserved, want) {
-			t.Fatalf("trial %d: unobserved %v, want %v", trial, o.Unobserved, want)
+		tg := (*structural.Network).Transpose(g)
+		if want := closureUnreached(tg, outputs); !slices.Equal(o.Unreached.IDs(), want) {
+			t.Fatalf("trial %d: unobserved %v, want %v", trial, o.Unreached.IDs(), want)
 		}
-		if d := o.Dilation; d != nil && len(d.OutNeighbours)+len(d.Outputs) != len(d.States)-1 {
-			t.Fatalf("trial %d: observation dilation %v with %d out-neighbours", trial, d.States, len(d.OutNeighbours)+len(d.Outputs))
+		if d := o.Dilation; d != nil && len(d.Neighbours.IDs())+len(d.Signals) != len(d.States.IDs())-1 {
+			t.Fatalf("trial %d: observation dilation %v with %d out-neighbours", trial, d.States.IDs(), len(d.Neighbours.IDs())+len(d.Signals))
 		}
 	}
 }
@@ -302,13 +303,13 @@ func TestTransposeWeights(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	tg := structural.Transpose(g)
+	tg := (*structural.Network).Transpose(g)
 	want := map[[2]int32]float64{{1, 0}: 2, {1, 2}: 3, {0, 1}: 5, {2, 0}: 7}
 	got := map[[2]int32]float64{}
 	for u := int32(0); u < 3; u++ {
-		row := tg.Out.Row(u)
+		row := tg.Succ(u)
 		for k, v := range row {
-			got[[2]int32{u, v}] = tg.OutW[tg.Out.Ptr[u]+int64(k)]
+			got[[2]int32{u, v}] = tg.Weights()[tg.Out().Ptr[u]+int64(k)]
 		}
 	}
 	if len(got) != len(want) {

@@ -8,6 +8,7 @@ import (
 
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 // sharedDatasets is the folder of public networks shared by the project
@@ -49,21 +50,21 @@ func TestPublishedDriverFractions(t *testing.T) {
 			if g.N() != c.n || g.Edges() != c.l {
 				t.Fatalf("got N %d, L %d; Table 1 gives %d, %d", g.N(), g.Edges(), c.n, c.l)
 			}
-			ds := structural.MinimumDrivers(g)
-			nd := float64(len(ds.Drivers)) / float64(g.N())
+			ds := structural.Drivers(g)
+			nd := float64(ds.Drivers.Len()) / float64(g.N())
 			if got := math.Round(nd*1000) / 1000; got != c.frac {
-				t.Errorf("n_D = %d/%d = %.4f; Table 1 gives %.3f", len(ds.Drivers), g.N(), nd, c.frac)
+				t.Errorf("n_D = %d/%d = %.4f; Table 1 gives %.3f", ds.Drivers.Len(), g.N(), nd, c.frac)
 			}
-			v := structural.Check(g, ds.Inputs)
-			if !v.Controllable || v.ControllableDimension != g.N() || len(v.Unreached) != 0 || v.Dilation != nil {
+			v := testnet.Check(t, g, structural.Controllability, ds.Inputs.Signals())
+			if !v.Holds || v.Dimension != g.N() || len(v.Unreached.IDs()) != 0 || v.Dilation != nil {
 				t.Errorf("Check on the minimum design: controllable %v, dimension %d, %d unreached, dilation %v",
-					v.Controllable, v.ControllableDimension, len(v.Unreached), v.Dilation != nil)
+					v.Holds, v.Dimension, len(v.Unreached.IDs()), v.Dilation != nil)
 			}
 			// One signal fewer can never suffice (N_D is the minimum):
 			// dropping the last input must fail the check.
-			if len(ds.Inputs) > 1 {
-				if w := structural.Check(g, ds.Inputs[:len(ds.Inputs)-1]); w.Controllable {
-					t.Errorf("Check passes with %d inputs, one fewer than N_D", len(ds.Inputs)-1)
+			if len(ds.Inputs.Signals()) > 1 {
+				if w := testnet.Check(t, g, structural.Controllability, ds.Inputs.Signals()[:len(ds.Inputs.Signals())-1]); w.Holds {
+					t.Errorf("Check passes with %d inputs, one fewer than N_D", len(ds.Inputs.Signals())-1)
 				}
 			}
 		})
@@ -78,14 +79,14 @@ func TestPublishedDriverFractions(t *testing.T) {
 // critical nodes). Check that ours contains them all.
 func TestWikiVoteSourceNodes(t *testing.T) {
 	g := readShared(t, "wiki-vote.edges.gz")
-	ds := structural.MinimumDrivers(g)
+	ds := structural.Drivers(g)
 	inDrivers := make([]bool, g.N())
-	for _, d := range ds.Drivers {
+	for _, d := range ds.Drivers.IDs() {
 		inDrivers[d] = true
 	}
 	sources, missing := 0, 0
 	for v := 0; v < g.N(); v++ {
-		if g.In.Degree(int32(v)) == 0 {
+		if len(g.Pred(int32(v))) == 0 {
 			sources++
 			if !inDrivers[v] {
 				missing++

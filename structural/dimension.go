@@ -6,11 +6,11 @@ import (
 	"github.com/netsteer/netsteer/matching"
 )
 
-// ControllableDimension returns the generic dimension of the controllable
-// subspace of the design in which input i drives the states inputs[i]: the
-// rank of [B AB ... A^(N-1)B] for almost all values of the free
-// parameters. It is N exactly when the design is structurally controllable,
-// and -1 when the network has more than 2^30 states.
+// Dimension returns the generic dimension of the controllable subspace of
+// design d (the observable subspace, for Observability): the rank of
+// [B AB ... A^(N-1)B] for almost all values of the free parameters. It is
+// N exactly when the design is structurally controllable. Networks of more
+// than 2^29 states give a *TooLargeError.
 //
 // Hosoe ("Determination of generic dimensions of controllable subspaces and
 // its application", IEEE TAC 25(6):1208-1213, 1980) shows that on the part
@@ -49,22 +49,19 @@ import (
 // edges judged with half of a minimum design, the flow takes 7 phases; the
 // passes, which used to sweep the whole zero-cost region about 26 times,
 // now visit about 2.5*10^6 nodes in all.
-func ControllableDimension(g *Network, inputs [][]int32) int {
-	n := g.N()
-	for _, in := range inputs {
-		for _, v := range in {
-			if v < 0 || int(v) >= n {
-				panic("structural: ControllableDimension: input drives a state out of range")
-			}
-		}
+func Dimension(g *Network, p Property, d Design) (int, error) {
+	if !d.Of(g) {
+		return 0, ErrForeignDesign
 	}
-	reached, nR := reach(g, inputs)
-	b := inNeighbourCSR(g, inputs)
+	h := g.on(p)
+	n := h.N()
+	reached, nR := reach(h, d.signals)
+	b := inNeighbourCSR(h, d.signals)
 	m := matching.Maximum(b, nil)
 	if nR == n && m.Size == n {
-		return n
+		return n, nil
 	}
-	return dimension(g, inputs, reached, nR, m)
+	return dimension(h, d.signals, reached, nR, m)
 }
 
 // Flow records. For a state v, succ is where v_out sends its unit and pred
@@ -141,7 +138,7 @@ type coverFlow struct {
 func (f *coverFlow) rangeLen(x int32) int64 {
 	switch {
 	case x < f.n:
-		return f.g.Out.Ptr[x+1] - f.g.Out.Ptr[x] + 2
+		return f.g.out.Ptr[x+1] - f.g.out.Ptr[x] + 2
 	case x < f.hub:
 		return int64(len(f.inputs[x-f.n])) + 1
 	}
@@ -168,11 +165,11 @@ func (f *coverFlow) through(w, c int32) (int32, int32, int) {
 func (f *coverFlow) arc(x int32, pos int64) (int32, int32, int) {
 	switch {
 	case x < f.n: // v_out: its edges, then "uncovered", then the hub
-		lo, hi := f.g.Out.Ptr[x], f.g.Out.Ptr[x+1]
+		lo, hi := f.g.out.Ptr[x], f.g.out.Ptr[x+1]
 		s := f.succ[x]
 		switch {
 		case pos < hi-lo:
-			w := f.g.Out.Adj[lo+pos]
+			w := f.g.out.Adj[lo+pos]
 			if s == w {
 				return 0, 0, arcNone
 			}
@@ -224,10 +221,10 @@ func (f *coverFlow) arc(x int32, pos int64) (int32, int32, int) {
 func (f *coverFlow) apply(x int32, pos int64) {
 	switch {
 	case x < f.n:
-		lo, hi := f.g.Out.Ptr[x], f.g.Out.Ptr[x+1]
+		lo, hi := f.g.out.Ptr[x], f.g.out.Ptr[x+1]
 		switch {
 		case pos < hi-lo:
-			w := f.g.Out.Adj[lo+pos]
+			w := f.g.out.Adj[lo+pos]
 			f.succ[x] = w
 			f.node[w].pred = x
 		case pos == hi-lo:
@@ -252,13 +249,13 @@ func (f *coverFlow) apply(x int32, pos int64) {
 
 // dimension computes the largest stem-cycle cover on the reached states,
 // starting from m, a maximum matching of inNeighbourCSR(g, inputs).
-func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Matching) int {
+func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Matching) (int, error) {
 	n := g.N()
 	if nR == 0 {
-		return 0
+		return 0, nil
 	}
 	if int64(n)+1+int64(len(inputs)) > math.MaxInt32/2 || nR > math.MaxInt32/4 {
-		return -1
+		return 0, &TooLargeError{What: "the controllable dimension", States: n, Limit: math.MaxInt32 / 4}
 	}
 	size := n + len(inputs) + 1
 	f := &coverFlow{g: g, inputs: inputs, n: int32(n), hub: int32(n + len(inputs)), phase: 1}
@@ -371,7 +368,7 @@ func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Mat
 			uncovered++
 		}
 	}
-	return nR - uncovered
+	return nR - uncovered, nil
 }
 
 // shortest runs Dial's algorithm on reduced costs from all sources until

@@ -34,7 +34,7 @@ func (f *coverFlow) live(sources []int32) bool {
 	// sink, potential 0) at cost delta: -1 when y is w itself through the
 	// "uncovered" arc, else 0.
 	into := func(w int32, delta, qy int32) {
-		for _, x := range f.g.In.Adj[f.g.In.Ptr[w]:f.g.In.Ptr[w+1]] {
+		for _, x := range f.g.in.Adj[f.g.in.Ptr[w]:f.g.in.Ptr[w+1]] {
 			if delta+nd[x].q == qy && nd[x].dist != 0 && f.succ[x] != w && f.inR[x] {
 				mark(x)
 			}

@@ -79,7 +79,7 @@ type refFlow struct {
 func (f *refFlow) rangeLen(x int32) int64 {
 	switch {
 	case x < f.n:
-		return f.g.Out.Ptr[x+1] - f.g.Out.Ptr[x] + 2
+		return f.g.Out().Ptr[x+1] - f.g.Out().Ptr[x] + 2
 	case x < f.hub:
 		return int64(len(f.inputs[x-f.n])) + 1
 	}
@@ -106,11 +106,11 @@ func (f *refFlow) through(w, c int32) (int32, int32, int) {
 func (f *refFlow) arc(x int32, pos int64) (int32, int32, int) {
 	switch {
 	case x < f.n: // v_out: its edges, then "uncovered", then the hub
-		lo, hi := f.g.Out.Ptr[x], f.g.Out.Ptr[x+1]
+		lo, hi := f.g.Out().Ptr[x], f.g.Out().Ptr[x+1]
 		s := f.succ[x]
 		switch {
 		case pos < hi-lo:
-			w := f.g.Out.Adj[lo+pos]
+			w := f.g.Out().Adj[lo+pos]
 			if s == w {
 				return 0, 0, refArcNone
 			}
@@ -162,10 +162,10 @@ func (f *refFlow) arc(x int32, pos int64) (int32, int32, int) {
 func (f *refFlow) apply(x int32, pos int64) {
 	switch {
 	case x < f.n:
-		lo, hi := f.g.Out.Ptr[x], f.g.Out.Ptr[x+1]
+		lo, hi := f.g.Out().Ptr[x], f.g.Out().Ptr[x+1]
 		switch {
 		case pos < hi-lo:
-			w := f.g.Out.Adj[lo+pos]
+			w := f.g.Out().Adj[lo+pos]
 			f.succ[x] = w
 			f.node[w].pred = x
 		case pos == hi-lo:

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 // hungarian returns the minimum cost of a perfect assignment of the square
@@ -108,7 +109,7 @@ func dimensionByAssignment(g *structural.Network, inputs [][]int32, unreached []
 	}
 	for a, v := range states {
 		c[a][a] = 1
-		for _, w := range g.Out.Row(v) {
+		for _, w := range g.Succ(v) {
 			c[a][idx[w]] = 0
 		}
 		for k := 0; k < m; k++ {
@@ -128,16 +129,16 @@ func dimensionByAssignment(g *structural.Network, inputs [][]int32, unreached []
 // the states before it, then adds extra random edges: shapes where stems
 // compete for branches, so the cover is often smaller than the term rank.
 func randomForest(t testing.TB, rng *rand.Rand, n, extra int) *structural.Network {
-	var es []edge
+	var es []testnet.Edge
 	for v := 1; v < n; v++ {
 		if rng.IntN(8) > 0 {
-			es = append(es, edge{int32(rng.IntN(v)), int32(v)})
+			es = append(es, testnet.Edge{int32(rng.IntN(v)), int32(v)})
 		}
 	}
 	for k := 0; k < extra; k++ {
-		es = append(es, edge{int32(rng.IntN(n)), int32(rng.IntN(n))})
+		es = append(es, testnet.Edge{int32(rng.IntN(n)), int32(rng.IntN(n))})
 	}
-	return network(t, n, es)
+	return testnet.Network(t, n, es)
 }
 
 // TestDimensionAssignment compares the phased cover flow with the dense
@@ -157,12 +158,12 @@ func TestDimensionAssignment(t *testing.T) {
 		if trial%2 == 0 {
 			g = randomForest(t, rng, n, rng.IntN(n/3+1))
 		} else {
-			g = randomNetwork(t, rng, n, (0.5+2*rng.Float64())/float64(n))
+			g = testnet.Random(t, rng, n, (0.5+2*rng.Float64())/float64(n))
 		}
 		var inputs [][]int32
 		if trial%3 == 0 {
 			// Every other signal of a minimum design.
-			for i, in := range structural.MinimumDrivers(g).Inputs {
+			for i, in := range structural.Drivers(g).Inputs.Signals() {
 				if i%2 == 0 {
 					inputs = append(inputs, in)
 				}
@@ -170,12 +171,12 @@ func TestDimensionAssignment(t *testing.T) {
 		} else {
 			inputs = randomDesign(rng, n, 1+n/10)
 		}
-		v := structural.Check(g, inputs)
-		want := dimensionByAssignment(g, inputs, v.Unreached)
-		if v.ControllableDimension != want {
-			t.Fatalf("trial %d (%d states, %d inputs): dimension %d, assignment %d", trial, n, len(inputs), v.ControllableDimension, want)
+		v := testnet.Check(t, g, structural.Controllability, inputs)
+		want := dimensionByAssignment(g, inputs, v.Unreached.IDs())
+		if v.Dimension != want {
+			t.Fatalf("trial %d (%d states, %d inputs): dimension %d, assignment %d", trial, n, len(inputs), v.Dimension, want)
 		}
-		if want < termRankReached(g, inputs, v.Unreached) {
+		if want < termRankReached(g, inputs, v.Unreached.IDs()) {
 			below++
 		}
 	}
@@ -188,11 +189,11 @@ func TestDimensionAssignment(t *testing.T) {
 // sparseNetwork returns n states and l random edges (self-loops and
 // repeats allowed; the builder merges repeats).
 func sparseNetwork(t testing.TB, rng *rand.Rand, n, l int) *structural.Network {
-	es := make([]edge, l)
+	es := make([]testnet.Edge, l)
 	for k := range es {
-		es[k] = edge{int32(rng.IntN(n)), int32(rng.IntN(n))}
+		es[k] = testnet.Edge{int32(rng.IntN(n)), int32(rng.IntN(n))}
 	}
-	return network(t, n, es)
+	return testnet.Network(t, n, es)
 }
 
 // TestDimensionReference compares ControllableDimension with the cover
@@ -226,7 +227,7 @@ func TestDimensionReference(t *testing.T) {
 		var inputs [][]int32
 		switch trial % 4 {
 		case 0, 1:
-			full := structural.MinimumDrivers(g).Inputs
+			full := structural.Drivers(g).Inputs.Signals()
 			for i, in := range full {
 				if trial%4 == 1 && i == len(full)/2 {
 					continue
@@ -239,7 +240,7 @@ func TestDimensionReference(t *testing.T) {
 		default:
 			inputs = randomDesign(rng, n, 1+n/(5+rng.IntN(20)))
 		}
-		got := structural.ControllableDimension(g, inputs)
+		got := testnet.Dimension(t, g, structural.Controllability, inputs)
 		want := refControllableDimension(g, inputs)
 		if got != want {
 			t.Fatalf("trial %d (%d states, %d edges, %d inputs): dimension %d, reference %d", trial, n, g.Edges(), len(inputs), got, want)
@@ -278,7 +279,7 @@ func copiesOfExample(k int) (*structural.Network, [][]int32) {
 func TestDimensionLarge(t *testing.T) {
 	const k = 20000
 	g, inputs := copiesOfExample(k)
-	if got := structural.ControllableDimension(g, inputs); got != 3*k {
+	if got := testnet.Dimension(t, g, structural.Controllability, inputs); got != 3*k {
 		t.Errorf("%d copies of the example: got %d, want %d", k, got, 3*k)
 	}
 	// An out-star: one stem of two states whatever the number of leaves.
@@ -288,7 +289,7 @@ func TestDimensionLarge(t *testing.T) {
 		b.AddEdge(0, int32(l))
 	}
 	star, _ := b.Build(structural.BuildOptions{})
-	if got := structural.ControllableDimension(star, [][]int32{{0}}); got != 2 {
+	if got := testnet.Dimension(t, star, structural.Controllability, [][]int32{{0}}); got != 2 {
 		t.Errorf("out-star: got %d, want 2", got)
 	}
 	// A chain driven at its middle reaches its second half only, and its
@@ -299,9 +300,9 @@ func TestDimensionLarge(t *testing.T) {
 		b.AddEdge(int32(v), int32(v+1))
 	}
 	chain, _ := b.Build(structural.BuildOptions{})
-	v := structural.Check(chain, [][]int32{{n / 2}})
-	if v.ControllableDimension != n/2 || len(v.Unreached) != n/2 || v.Dilation == nil || len(v.Dilation.States) != 1 || v.Dilation.States[0] != 0 {
-		t.Errorf("chain: dimension %d, %d unreached, dilation %+v; want %d, %d, [0]", v.ControllableDimension, len(v.Unreached), v.Dilation, n/2, n/2)
+	v := testnet.Check(t, chain, structural.Controllability, [][]int32{{n / 2}})
+	if v.Dimension != n/2 || len(v.Unreached.IDs()) != n/2 || v.Dilation == nil || len(v.Dilation.States.IDs()) != 1 || v.Dilation.States.IDs()[0] != 0 {
+		t.Errorf("chain: dimension %d, %d unreached, dilation %+v; want %d, %d, [0]", v.Dimension, len(v.Unreached.IDs()), v.Dilation, n/2, n/2)
 	}
 }
 
@@ -337,7 +338,7 @@ func erNetwork(tb testing.TB, n, l int, seed uint64) *structural.Network {
 func BenchmarkCheck(b *testing.B) {
 	for _, n := range []int{10000, 100000, 1000000} {
 		g := erNetwork(b, n, 2*n, 42)
-		full := structural.MinimumDrivers(g).Inputs
+		full := structural.Drivers(g).Inputs.Signals()
 		var half [][]int32
 		for i, in := range full {
 			if i%2 == 0 {
@@ -346,12 +347,12 @@ func BenchmarkCheck(b *testing.B) {
 		}
 		b.Run(fmt.Sprintf("failing/N=%d", n), func(b *testing.B) {
 			for b.Loop() {
-				structural.Check(g, half)
+				testnet.Check(b, g, structural.Controllability, half)
 			}
 		})
 		b.Run(fmt.Sprintf("complete/N=%d", n), func(b *testing.B) {
 			for b.Loop() {
-				structural.Check(g, full)
+				testnet.Check(b, g, structural.Controllability, full)
 			}
 		})
 	}
@@ -364,7 +365,7 @@ func BenchmarkControllableDimension(b *testing.B) {
 		g, inputs := copiesOfExample(k)
 		b.Run(fmt.Sprintf("N=%d", 5*k), func(b *testing.B) {
 			for b.Loop() {
-				structural.ControllableDimension(g, inputs)
+				testnet.Dimension(b, g, structural.Controllability, inputs)
 			}
 		})
 	}

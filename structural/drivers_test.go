@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 func TestMinimumDriversShapes(t *testing.T) {
@@ -16,32 +17,32 @@ func TestMinimumDriversShapes(t *testing.T) {
 	cases := []struct {
 		name  string
 		n     int
-		edges []edge
+		edges []testnet.Edge
 		want  int
 	}{
 		{"isolated states", 3, nil, 3},
-		{"chain", 4, []edge{{0, 1}, {1, 2}, {2, 3}}, 1},
-		{"cycle", 3, []edge{{0, 1}, {1, 2}, {2, 0}}, 1},
-		{"self-loops only", 3, []edge{{0, 0}, {1, 1}, {2, 2}}, 1},
-		{"out-star", 5, []edge{{0, 1}, {0, 2}, {0, 3}, {0, 4}}, 4},
-		{"in-star", 5, []edge{{1, 0}, {2, 0}, {3, 0}, {4, 0}}, 4},
-		{"two source cycles", 5, []edge{{0, 1}, {1, 0}, {2, 3}, {3, 2}, {0, 4}, {2, 4}}, 1},
+		{"chain", 4, []testnet.Edge{{0, 1}, {1, 2}, {2, 3}}, 1},
+		{"cycle", 3, []testnet.Edge{{0, 1}, {1, 2}, {2, 0}}, 1},
+		{"self-loops only", 3, []testnet.Edge{{0, 0}, {1, 1}, {2, 2}}, 1},
+		{"out-star", 5, []testnet.Edge{{0, 1}, {0, 2}, {0, 3}, {0, 4}}, 4},
+		{"in-star", 5, []testnet.Edge{{1, 0}, {2, 0}, {3, 0}, {4, 0}}, 4},
+		{"two source cycles", 5, []testnet.Edge{{0, 1}, {1, 0}, {2, 3}, {3, 2}, {0, 4}, {2, 4}}, 1},
 	}
 	for _, c := range cases {
-		g := network(t, c.n, c.edges)
-		ds := structural.MinimumDrivers(g)
-		if got := len(ds.Drivers); got != c.want {
+		g := testnet.Network(t, c.n, c.edges)
+		ds := structural.Drivers(g)
+		if got := ds.Drivers.Len(); got != c.want {
 			t.Errorf("%s: got %d drivers, want %d", c.name, got, c.want)
 		}
-		if len(ds.Inputs) != len(ds.Drivers) {
-			t.Errorf("%s: got %d inputs for %d drivers", c.name, len(ds.Inputs), len(ds.Drivers))
+		if len(ds.Inputs.Signals()) != ds.Drivers.Len() {
+			t.Errorf("%s: got %d inputs for %d drivers", c.name, len(ds.Inputs.Signals()), ds.Drivers.Len())
 		}
-		for i, in := range ds.Inputs {
-			if in[0] != ds.Drivers[i] {
-				t.Errorf("%s: input %d starts with %d, want its driver %d", c.name, i, in[0], ds.Drivers[i])
+		for i, in := range ds.Inputs.Signals() {
+			if in[0] != ds.Drivers.At(i) {
+				t.Errorf("%s: input %d starts with %d, want its driver %d", c.name, i, in[0], ds.Drivers.At(i))
 			}
 		}
-		if v := structural.Check(g, ds.Inputs); !v.Controllable {
+		if v := testnet.Check(t, g, structural.Controllability, ds.Inputs.Signals()); !v.Holds {
 			t.Errorf("%s: the returned design is not controllable: %+v", c.name, v)
 		}
 	}
@@ -60,7 +61,7 @@ func TestMinimumDriversShapes(t *testing.T) {
 func fewestInputs(t testing.TB, rng *rand.Rand, g *structural.Network) int {
 	n := g.N()
 	for m := 1; m <= n; m++ {
-		if sampledRank(t, rng, g, func() *mat.Dense { return denseB(rng, n, m) }) == n {
+		if testnet.SampledRank(t, rng, g, func() *mat.Dense { return testnet.DenseB(rng, n, m) }) == n {
 			return m
 		}
 	}
@@ -73,15 +74,15 @@ func fewestInputs(t testing.TB, rng *rand.Rand, g *structural.Network) int {
 func checkAgainstKalman(t *testing.T, rng *rand.Rand, g *structural.Network, label string) {
 	t.Helper()
 	n := g.N()
-	ds := structural.MinimumDrivers(g)
-	if want := fewestInputs(t, rng, g); len(ds.Drivers) != want {
-		t.Fatalf("%s: driver_count %d, fewest inputs by Kalman rank %d", label, len(ds.Drivers), want)
+	ds := structural.Drivers(g)
+	if want := fewestInputs(t, rng, g); ds.Drivers.Len() != want {
+		t.Fatalf("%s: driver_count %d, fewest inputs by Kalman rank %d", label, ds.Drivers.Len(), want)
 	}
-	if r := sampledRank(t, rng, g, func() *mat.Dense { return realiseB(rng, n, ds.Inputs) }); r != n {
-		t.Fatalf("%s: the returned design %v has Kalman rank %d, want %d", label, ds.Inputs, r, n)
+	if r := testnet.SampledRank(t, rng, g, func() *mat.Dense { return testnet.RealiseB(rng, n, ds.Inputs.Signals()) }); r != n {
+		t.Fatalf("%s: the returned design %v has Kalman rank %d, want %d", label, ds.Inputs.Signals(), r, n)
 	}
-	if v := structural.Check(g, ds.Inputs); !v.Controllable || v.ControllableDimension != n {
-		t.Fatalf("%s: Check on the returned design: controllable %v, dimension %d", label, v.Controllable, v.ControllableDimension)
+	if v := testnet.Check(t, g, structural.Controllability, ds.Inputs.Signals()); !v.Holds || v.Dimension != n {
+		t.Fatalf("%s: Check on the returned design: controllable %v, dimension %d", label, v.Holds, v.Dimension)
 	}
 }
 
@@ -98,7 +99,7 @@ func TestDriversKalmanExhaustive(t *testing.T) {
 	}
 	for n := 1; n <= maxN; n++ {
 		for mask := uint64(0); mask < 1<<(n*n); mask++ {
-			checkAgainstKalman(t, rng, patternNetwork(t, n, mask), "pattern")
+			checkAgainstKalman(t, rng, testnet.Pattern(t, n, mask), "pattern")
 		}
 	}
 }
@@ -110,7 +111,7 @@ func TestDriversKalmanRandom(t *testing.T) {
 	for trial := 0; trial < 1500; trial++ {
 		n := 5 + trial%2
 		p := []float64{0.08, 0.15, 0.25, 0.4, 0.6}[trial%5]
-		checkAgainstKalman(t, rng, randomNetwork(t, rng, n, p), "random")
+		checkAgainstKalman(t, rng, testnet.Random(t, rng, n, p), "random")
 	}
 }
 
@@ -139,11 +140,11 @@ func TestDriversDeepChain(t *testing.T) {
 		n = 1_000_000
 	}
 	g := chainNetwork(t, n)
-	ds := structural.MinimumDrivers(g)
-	if len(ds.Drivers) != 1 || ds.Drivers[0] != 0 {
+	ds := structural.Drivers(g)
+	if ds.Drivers.Len() != 1 || ds.Drivers.At(0) != 0 {
 		t.Fatalf("chain: drivers %v, want [0]", ds.Drivers)
 	}
-	if v := structural.Check(g, ds.Inputs); !v.Controllable || v.ControllableDimension != n {
-		t.Fatalf("chain: controllable %v, dimension %d; want true, %d", v.Controllable, v.ControllableDimension, n)
+	if v := testnet.Check(t, g, structural.Controllability, ds.Inputs.Signals()); !v.Holds || v.Dimension != n {
+		t.Fatalf("chain: controllable %v, dimension %d; want true, %d", v.Holds, v.Dimension, n)
 	}
 }

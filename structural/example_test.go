@@ -42,11 +42,11 @@ func names(g *structural.Network, ids []int32) []string {
 	return out
 }
 
-func ExampleMinimumDrivers() {
+func ExampleDrivers() {
 	g := filtrationWorks()
-	ds := structural.MinimumDrivers(g)
-	fmt.Printf("%d states need %d independent signals\n", g.N(), len(ds.Drivers))
-	for i, in := range ds.Inputs {
+	ds := structural.Drivers(g)
+	fmt.Printf("%d states need %d independent signals\n", g.N(), ds.Drivers.Len())
+	for i, in := range ds.Inputs.Signals() {
 		fmt.Printf("signal %d drives %v\n", i+1, names(g, in))
 	}
 	// Output:
@@ -63,14 +63,20 @@ func ExampleCheck() {
 		return v
 	}
 	// Two actuators: the intake pump and the raw-water blend valve.
-	design := [][]int32{{id("intake_flow")}, {id("raw_turbidity")}}
-	v := structural.Check(g, design)
-	fmt.Println("controllable:", v.Controllable)
-	fmt.Println("unreached:", names(g, v.Unreached))
-	if d := v.Dilation; d != nil {
-		fmt.Printf("%v share only %v: one more actuator needed among them\n", names(g, d.States), names(g, d.InNeighbours))
+	design, err := structural.NewDesign(g, [][]int32{{id("intake_flow")}, {id("raw_turbidity")}}, nil)
+	if err != nil {
+		panic(err)
 	}
-	fmt.Printf("controllable dimension: %d of %d\n", v.ControllableDimension, g.N())
+	v, err := structural.Check(g, structural.Controllability, design)
+	if err != nil {
+		panic(err)
+	}
+	fmt.Println("controllable:", v.Holds)
+	fmt.Println("unreached:", names(g, v.Unreached.IDs()))
+	if d := v.Dilation; d != nil {
+		fmt.Printf("%v share only %v: one more actuator needed among them\n", names(g, d.States.IDs()), names(g, d.Neighbours.IDs()))
+	}
+	fmt.Printf("controllable dimension: %d of %d\n", v.Dimension, g.N())
 	// Output:
 	// controllable: false
 	// unreached: []

@@ -53,8 +53,8 @@ func TestNamesRoundTrip(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if g.N() != len(order) || g.Names().Len() != len(order) {
-		t.Fatalf("got N %d, Names().Len() %d; want %d", g.N(), g.Names().Len(), len(order))
+	if g.N() != len(order) {
+		t.Fatalf("got N %d; want %d", g.N(), len(order))
 	}
 	for i, s := range order {
 		if got := g.Name(int32(i)); got != s {
@@ -113,16 +113,16 @@ func TestNetworkCounts(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if g.N() != 5 || g.Edges() != 4 || g.SelfLoops != 1 || g.DuplicatesMerged != 1 {
-		t.Errorf("got N %d, edges %d, loops %d, merged %d; want 5, 4, 1, 1", g.N(), g.Edges(), g.SelfLoops, g.DuplicatesMerged)
+	if g.N() != 5 || g.Edges() != 4 || g.SelfLoops() != 1 || g.DuplicatesMerged() != 1 {
+		t.Errorf("got N %d, edges %d, loops %d, merged %d; want 5, 4, 1, 1", g.N(), g.Edges(), g.SelfLoops(), g.DuplicatesMerged())
 	}
-	if d := g.Out.Degree(1); d != 1 {
+	if d := len(g.Succ(1)); d != 1 {
 		t.Errorf("out-degree of state 2 = %d, want 1", d)
 	}
-	if r := g.In.Row(2); len(r) != 2 || r[0] != 1 || r[1] != 2 {
+	if r := g.Pred(2); len(r) != 2 || r[0] != 1 || r[1] != 2 {
 		t.Errorf("in-row of state 3 = %v, want [1 2]", r)
 	}
-	if g.Out.Degree(4) != 0 || g.In.Degree(4) != 0 {
+	if len(g.Succ(4)) != 0 || len(g.Pred(4)) != 0 {
 		t.Errorf("state 5 should be isolated")
 	}
 }

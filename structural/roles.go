@@ -43,7 +43,7 @@ func (r Role) String() string {
 type alternating struct {
 	freeColReach []bool // column can be unmatched in some maximum matching
 	freeRowReach []bool // row can be unmatched in some maximum matching
-	h            Components
+	h            *Components
 	hSize        []int32 // members per component of h
 }
 
@@ -63,7 +63,7 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 		}
 	}
 	for h := 0; h < len(queue); h++ {
-		for _, u := range g.In.Row(queue[h]) {
+		for _, u := range g.in.Row(queue[h]) {
 			if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
 				a.freeColReach[x] = true
 				queue = append(queue, x)
@@ -78,7 +78,7 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 		}
 	}
 	for h := 0; h < len(queue); h++ {
-		for _, v := range g.Out.Row(queue[h]) {
+		for _, v := range g.out.Row(queue[h]) {
 			if r := m.ColMate[v]; r >= 0 && !a.freeRowReach[r] {
 				a.freeRowReach[r] = true
 				queue = append(queue, r)
@@ -88,7 +88,7 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 	// The column digraph of alternating cycles.
 	hg := matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
 	for v := 0; v < n; v++ {
-		for _, u := range g.In.Row(int32(v)) {
+		for _, u := range g.in.Row(int32(v)) {
 			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
 				hg.Ptr[v+1]++
 			}
@@ -100,7 +100,7 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 	hg.Adj = make([]int32, hg.Ptr[n])
 	k := 0
 	for v := 0; v < n; v++ {
-		for _, u := range g.In.Row(int32(v)) {
+		for _, u := range g.in.Row(int32(v)) {
 			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
 				hg.Adj[k] = x
 				k++
@@ -115,7 +115,7 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 	return a
 }
 
-// NodeRoles returns the role of every state across all minimum driver
+// nodeRoles returns the role of every state across all minimum driver
 // sets, given a maximum matching m of g (matching.Maximum(&g.Out, &g.In)).
 // A state can be left unmatched by some maximum matching exactly when an
 // even alternating path leads to it from a state left unmatched by m; it is
@@ -124,7 +124,8 @@ func decompose(g *Network, m *matching.Matching) *alternating {
 // The roles follow the driver sets of maximum matchings (N - |M*| states);
 // when m is perfect every state is Redundant, although one signal is still
 // needed (N_D = 1).
-func NodeRoles(g *Network, m *matching.Matching) []Role {
+func nodeRoles(g *Network) []Role {
+	m := g.Matching()
 	n := g.N()
 	roles := make([]Role, n)
 	reach := make([]bool, n)
@@ -136,7 +137,7 @@ func NodeRoles(g *Network, m *matching.Matching) []Role {
 		}
 	}
 	for h := 0; h < len(queue); h++ {
-		for _, u := range g.In.Row(queue[h]) {
+		for _, u := range g.in.Row(queue[h]) {
 			if x := m.RowMate[u]; x >= 0 && !reach[x] {
 				reach[x] = true
 				queue = append(queue, x)
@@ -145,7 +146,7 @@ func NodeRoles(g *Network, m *matching.Matching) []Role {
 	}
 	for v := 0; v < n; v++ {
 		switch {
-		case g.In.Degree(int32(v)) == 0:
+		case g.in.Degree(int32(v)) == 0:
 			roles[v] = Critical
 		case reach[v]:
 			roles[v] = Intermittent
@@ -154,21 +155,22 @@ func NodeRoles(g *Network, m *matching.Matching) []Role {
 	return roles
 }
 
-// LinkRoles returns the role of every edge across all maximum matchings,
-// aligned with g.Out.Adj, given a maximum matching m of g. An edge u -> v
+// linkRoles returns the role of every edge across all maximum matchings,
+// aligned with Out().Adj, from the network's maximum matching m. An edge u -> v
 // belongs to some maximum matching exactly when it is in m, or v can be left
 // unmatched by some maximum matching, or u can, or it lies on an
 // alternating cycle; an edge of m belongs to all of them exactly when none
 // of v free, u free or a cycle through it is possible (Dulmage–Mendelsohn).
 // Time O(N + E): one alternating search from each side and one strongly
 // connected components pass.
-func LinkRoles(g *Network, m *matching.Matching) []Role {
+func linkRoles(g *Network) []Role {
+	m := g.Matching()
 	a := decompose(g, m)
-	roles := make([]Role, len(g.Out.Adj))
+	roles := make([]Role, len(g.out.Adj))
 	n := g.N()
 	for u := 0; u < n; u++ {
-		lo := g.Out.Ptr[u]
-		for i, v := range g.Out.Row(int32(u)) {
+		lo := g.out.Ptr[u]
+		for i, v := range g.out.Row(int32(u)) {
 			var r Role
 			if m.RowMate[u] == v {
 				if a.freeColReach[v] || a.freeRowReach[u] || a.hSize[a.h.Of[v]] > 1 {
@@ -188,4 +190,118 @@ func LinkRoles(g *Network, m *matching.Matching) []Role {
 		}
 	}
 	return roles
+}
+
+// NodeRoles is the role of every state across all minimum driver sets.
+type NodeRoles struct {
+	// Of[v] is the role of state v: Critical, Intermittent or Redundant.
+	Of []Role
+	g  *Network
+}
+
+// LinkRoles is the role of every edge across all maximum matchings.
+type LinkRoles struct {
+	// Of[k] is the role of the k-th edge of Out().Adj: Critical, Ordinary
+	// or Redundant.
+	Of []Role
+	g  *Network
+}
+
+// StateRoles returns the role of every state across all minimum driver
+// sets (see nodeRoles for the method). Time O(N + E) after the network's
+// maximum matching.
+func StateRoles(g *Network) *NodeRoles { return &NodeRoles{Of: nodeRoles(g), g: g} }
+
+// EdgeRoles returns the role of every edge across all maximum matchings
+// (see linkRoles for the method). Time O(N + E) after the network's
+// maximum matching.
+func EdgeRoles(g *Network) *LinkRoles { return &LinkRoles{Of: linkRoles(g), g: g} }
+
+// NodeRoleOrder and LinkRoleOrder list the roles from the most to the
+// least constrained, as reports show them.
+var (
+	NodeRoleOrder = []Role{Critical, Intermittent, Redundant}
+	LinkRoleOrder = []Role{Critical, Ordinary, Redundant}
+)
+
+// With returns the states of the given role, in increasing order.
+func (r *NodeRoles) With(role Role) States {
+	var out []int32
+	for v, x := range r.Of {
+		if x == role {
+			out = append(out, int32(v))
+		}
+	}
+	return r.g.States(out)
+}
+
+// MarshalJSON writes an object mapping each role to its states' names.
+func (r *NodeRoles) MarshalJSON() ([]byte, error) {
+	b := []byte{'{'}
+	for i, role := range NodeRoleOrder {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = AppendJSONString(b, role.String())
+		b = append(b, ':')
+		b = r.With(role).AppendJSON(b)
+	}
+	return append(b, '}'), nil
+}
+
+// Edge is an edge u -> v of a network.
+type Edge struct{ From, To int32 }
+
+// With returns the edges of the given role, in the order of Out().
+func (r *LinkRoles) With(role Role) []Edge {
+	var out []Edge
+	g := r.g
+	for u := 0; u < g.N(); u++ {
+		lo := g.out.Ptr[u]
+		for k, v := range g.out.Row(int32(u)) {
+			if r.Of[lo+int64(k)] == role {
+				out = append(out, Edge{int32(u), v})
+			}
+		}
+	}
+	return out
+}
+
+// Role returns the role of the edge u -> v, and false when there is no
+// such edge.
+func (r *LinkRoles) Role(u, v int32) (Role, bool) {
+	k, ok := r.g.edgeIndex(u, v)
+	if !ok {
+		return 0, false
+	}
+	return r.Of[k], true
+}
+
+// MarshalJSON writes an object mapping each role to its edges, each as a
+// [source, target] pair of names.
+func (r *LinkRoles) MarshalJSON() ([]byte, error) {
+	g := r.g
+	b := []byte{'{'}
+	var name []byte
+	for i, role := range LinkRoleOrder {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = AppendJSONString(b, role.String())
+		b = append(b, ':', '[')
+		for k, e := range r.With(role) {
+			if k > 0 {
+				b = append(b, ',')
+			}
+			b = append(b, '[')
+			name = g.AppendName(name[:0], e.From)
+			b = AppendJSONString(b, name)
+			b = append(b, ',')
+			name = g.AppendName(name[:0], e.To)
+			b = AppendJSONString(b, name)
+			b = append(b, ']')
+		}
+		b = append(b, ']')
+	}
+	return append(b, '}'), nil
 }

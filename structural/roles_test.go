@@ -1,19 +1,18 @@
-package structural
+package structural_test
 
 import (
-	"fmt"
 	"math/bits"
 	"math/rand/v2"
-	"slices"
 	"testing"
 
-	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 // plKuhn is a plain augmenting-path maximum matching (Kuhn's method, from
 // memory) on the bipartite graph of g, skipping one row, one column and
 // one edge when asked (-1 for none). It is the recomputation reference.
-func plKuhn(g *Network, skipRow, skipCol int32, skipEdge [2]int32) int {
+func plKuhn(g *structural.Network, skipRow, skipCol int32, skipEdge [2]int32) int {
 	n := g.N()
 	colMate := make([]int32, n)
 	for i := range colMate {
@@ -21,7 +20,7 @@ func plKuhn(g *Network, skipRow, skipCol int32, skipEdge [2]int32) int {
 	}
 	var try func(u int32, seen []bool) bool
 	try = func(u int32, seen []bool) bool {
-		for _, v := range g.Out.Row(u) {
+		for _, v := range g.Succ(u) {
 			if v == skipCol || seen[v] || u == skipEdge[0] && v == skipEdge[1] {
 				continue
 			}
@@ -52,20 +51,20 @@ func TestNodeRolesEnumeration(t *testing.T) {
 	rng := rand.New(rand.NewPCG(11, 2))
 	for i := 0; i < 300; i++ {
 		n := 1 + rng.IntN(9)
-		g := plRandom(t, rng, n, []float64{0.1, 0.2, 0.35}[i%3])
-		o := newPlOracle(g)
+		g := testnet.Random(t, rng, n, []float64{0.1, 0.2, 0.35}[i%3])
+		o := testnet.NewOracle(g)
 		size := plKuhn(g, -1, -1, noEdge)
 		nd := n - size
 		in := make([]int, n) // sets containing each state
 		sets := 0
-		for f := uint32(0); f <= o.full; f++ {
+		for f := uint32(0); f <= o.Full(); f++ {
 			if bits.OnesCount32(f) != nd {
 				continue
 			}
-			x := o.full &^ f
+			x := o.Full() &^ f
 			ok := true
 			for y := x; y > 0 && ok; y = (y - 1) & x {
-				ok = bits.OnesCount32(o.nbrIn[y]) >= bits.OnesCount32(y)
+				ok = bits.OnesCount32(o.InNeighbours(y)) >= bits.OnesCount32(y)
 			}
 			if !ok {
 				continue
@@ -77,15 +76,14 @@ func TestNodeRolesEnumeration(t *testing.T) {
 				}
 			}
 		}
-		m := matching.Maximum(&g.Out, &g.In)
-		roles := NodeRoles(g, m)
+		roles := structural.StateRoles(g).Of
 		for v := 0; v < n; v++ {
-			want := Redundant
+			want := structural.Redundant
 			switch {
 			case nd > 0 && in[v] == sets:
-				want = Critical
+				want = structural.Critical
 			case in[v] > 0:
-				want = Intermittent
+				want = structural.Intermittent
 			}
 			if roles[v] != want {
 				t.Fatalf("trial %d: state %d is %v, enumeration of %d driver sets says %v", i, v, roles[v], sets, want)
@@ -102,110 +100,44 @@ func TestRolesRecomputation(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 8))
 	for i := 0; i < 40; i++ {
 		n := 10 + rng.IntN(30)
-		g := plRandom(t, rng, n, (1+rng.Float64()*2)/float64(n))
+		g := testnet.Random(t, rng, n, (1+rng.Float64()*2)/float64(n))
 		size := plKuhn(g, -1, -1, noEdge)
-		m := matching.Maximum(&g.Out, &g.In)
-		roles := NodeRoles(g, m)
+		roles := structural.StateRoles(g).Of
 		for v := int32(0); int(v) < n; v++ {
 			// In some maximum matching's unmatched set: removing column v
 			// keeps the matching size.
 			some := plKuhn(g, -1, v, noEdge) == size
 			every := true
-			for _, u := range g.In.Row(v) {
+			for _, u := range g.Pred(v) {
 				if plKuhn(g, u, v, noEdge)+1 == size {
 					every = false
 				}
 			}
-			want := Redundant
+			want := structural.Redundant
 			switch {
 			case every:
-				want = Critical
+				want = structural.Critical
 			case some:
-				want = Intermittent
+				want = structural.Intermittent
 			}
 			if roles[v] != want {
 				t.Fatalf("trial %d: state %d is %v, recomputation says %v", i, v, roles[v], want)
 			}
 		}
-		links := LinkRoles(g, m)
+		links := structural.EdgeRoles(g).Of
 		for u := int32(0); int(u) < n; u++ {
-			for k, v := range g.Out.Row(u) {
-				want := Ordinary
+			for k, v := range g.Succ(u) {
+				want := structural.Ordinary
 				switch {
 				case plKuhn(g, -1, -1, [2]int32{u, v}) < size:
-					want = Critical
+					want = structural.Critical
 				case plKuhn(g, u, v, noEdge)+1 < size:
-					want = Redundant
+					want = structural.Redundant
 				}
-				if got := links[g.Out.Ptr[u]+int64(k)]; got != want {
+				if got := links[g.Out().Ptr[u]+int64(k)]; got != want {
 					t.Fatalf("trial %d: link %d -> %d is %v, recomputation says %v", i, u, v, got, want)
 				}
 			}
 		}
-	}
-}
-
-// Placement roles against brute force: a device is forced when every
-// cheapest set holds it, and y is an alternative to x when S - x + y is a
-// cheapest set.
-func TestPlacementRolesBruteForce(t *testing.T) {
-	rng := rand.New(rand.NewPCG(21, 5))
-	checked, forcedSeen, altSeen, moveTogether := 0, 0, 0, 0
-	for i := 0; i < 500; i++ {
-		n := 2 + rng.IntN(8)
-		g := plRandom(t, rng, n, []float64{0.12, 0.2, 0.3}[i%3])
-		o := newPlOracle(g)
-		d := randomDevices(rng, n, []int64{0, 3, 2}[i%3], []float64{0, 0.2}[i%2], []float64{0, 0.15}[i/2%2])
-		for _, sensors := range []bool{false, true} {
-			place := PlaceActuators
-			if sensors {
-				place = PlaceSensors
-			}
-			pl, err := place(g, d)
-			if err != nil {
-				t.Fatal(err)
-			}
-			label := fmt.Sprintf("trial %d (n=%d, sensors=%v)", i, n, sensors)
-			want := checkPlacement(t, label, o, sensors, d, pl)
-			if !want.feasible {
-				continue
-			}
-			s := maskOf(pl.Devices)
-			for _, r := range pl.Roles(100) {
-				x := r.State
-				forced := true
-				for _, opt := range want.optimal {
-					if opt&(1<<x) == 0 {
-						forced = false
-					}
-				}
-				var alts []int32
-				for y := int32(0); int(y) < n; y++ {
-					if s&(1<<y) == 0 && slices.Contains(want.optimal, s&^(1<<x)|1<<y) {
-						alts = append(alts, y)
-					}
-				}
-				if r.Forced != forced {
-					t.Fatalf("%s: device on %d forced = %v, brute force %v (set %v, optimal sets %b)", label, x, r.Forced, forced, pl.Devices, want.optimal)
-				}
-				if !slices.Equal(r.Alternatives, alts) || r.More {
-					t.Fatalf("%s: device on %d alternatives %v (more %v), brute force %v (set %v)", label, x, r.Alternatives, r.More, alts, pl.Devices)
-				}
-				checked++
-				if !forced && len(alts) == 0 {
-					moveTogether++
-				}
-				if forced {
-					forcedSeen++
-				}
-				if len(alts) > 0 {
-					altSeen++
-				}
-			}
-		}
-	}
-	t.Logf("%d devices: %d forced, %d with alternatives, %d movable only with others", checked, forcedSeen, altSeen, moveTogether)
-	if forcedSeen == 0 || altSeen == 0 || forcedSeen == checked {
-		t.Fatalf("weak sample: %d devices, %d forced, %d with alternatives", checked, forcedSeen, altSeen)
 	}
 }

@@ -13,10 +13,9 @@ import (
 type Components struct {
 	Of    []int32
 	Count int
-
-	// sources, when not nil, is Sources(sourcesOf), found by SCC.
-	sources   []bool
-	sourcesOf *matching.CSR
+	// Source[k] reports whether component k is a source component: no
+	// edge enters it from another component.
+	Source []bool
 }
 
 // sccFrame is a state on the depth-first call stack.
@@ -36,7 +35,9 @@ type sccFrame struct {
 // completed component is an edge between components, so the source
 // components are found on the way. O(V + E) time; about 4 bytes per state
 // plus the stacks.
-func SCC(g *matching.CSR) Components {
+func SCC(g *matching.CSR) *Components { return scc(g) }
+
+func scc(g *matching.CSR) *Components {
 	n := g.Rows
 	// rindex[v]: 0 unvisited; 1..index-1 while v's component is open (the
 	// smallest index v reaches); once complete, c: N, N-1, ... in
@@ -125,26 +126,5 @@ func SCC(g *matching.CSR) Components {
 	for k := range src {
 		src[k] = !notSource[last-int32(k)]
 	}
-	return Components{Of: rindex, Count: count, sources: src, sourcesOf: g}
-}
-
-// Sources reports, for each component, whether it is a source component:
-// no edge of g enters it from another component.
-func (c Components) Sources(g *matching.CSR) []bool {
-	if c.sources != nil && c.sourcesOf == g {
-		return append([]bool(nil), c.sources...)
-	}
-	src := make([]bool, c.Count)
-	for i := range src {
-		src[i] = true
-	}
-	for u := 0; u < g.Rows; u++ {
-		cu := c.Of[u]
-		for _, v := range g.Adj[g.Ptr[u]:g.Ptr[u+1]] {
-			if c.Of[v] != cu {
-				src[c.Of[v]] = false
-			}
-		}
-	}
-	return src
+	return &Components{Of: rindex, Count: count, Source: src}
 }

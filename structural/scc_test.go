@@ -50,7 +50,7 @@ func TestSCCAgainstGonum(t *testing.T) {
 				t.Fatalf("trial %d: edge %d -> %d goes from component %d to %d (want higher to lower)", trial, u, ec[i], cu, cv)
 			}
 		}
-		got := c.Sources(g)
+		got := c.Source
 		wantSrc := make([]bool, c.Count)
 		for k := range wantSrc {
 			wantSrc[k] = true
@@ -96,7 +96,7 @@ func TestSCCLongChainAndCycle(t *testing.T) {
 	if c.Of[0] != int32(n-1) || c.Of[n-1] != 0 {
 		t.Fatalf("chain: head in component %d, tail in %d; want %d and 0", c.Of[0], c.Of[n-1], n-1)
 	}
-	src := c.Sources(g)
+	src := c.Source
 	for k, s := range src {
 		if s != (k == n-1) {
 			t.Fatalf("chain: component %d source %v", k, s)

@@ -128,8 +128,8 @@ func TestDOTChainsWithoutSemicolons(t *testing.T) {
 	if err != nil {
 		t.Fatalf("chain of %d steps: %v", maxDOTChain, err)
 	}
-	if g.N() != 1 || g.Edges() != 1 || g.DuplicatesMerged != maxDOTChain-1 {
-		t.Errorf("got N %d, edges %d, merged %d; want 1, 1, %d", g.N(), g.Edges(), g.DuplicatesMerged, maxDOTChain-1)
+	if g.N() != 1 || g.Edges() != 1 || g.DuplicatesMerged() != maxDOTChain-1 {
+		t.Errorf("got N %d, edges %d, merged %d; want 1, 1, %d", g.N(), g.Edges(), g.DuplicatesMerged(), maxDOTChain-1)
 	}
 }
 
@@ -160,8 +160,8 @@ func TestDOTMatchesEdgeList(t *testing.T) {
 	if err := checkNetwork(gd); err != nil {
 		t.Fatal(err)
 	}
-	if gd.N() != ge.N() || gd.DuplicatesMerged != ge.DuplicatesMerged || gd.SelfLoops != ge.SelfLoops {
-		t.Errorf("got N %d, dups %d, loops %d; want %d, %d, %d", gd.N(), gd.DuplicatesMerged, gd.SelfLoops, ge.N(), ge.DuplicatesMerged, ge.SelfLoops)
+	if gd.N() != ge.N() || gd.DuplicatesMerged() != ge.DuplicatesMerged() || gd.SelfLoops() != ge.SelfLoops() {
+		t.Errorf("got N %d, dups %d, loops %d; want %d, %d, %d", gd.N(), gd.DuplicatesMerged(), gd.SelfLoops(), ge.N(), ge.DuplicatesMerged(), ge.SelfLoops())
 	}
 	if d := diffEdges(edgeMap(gd), edgeMap(ge)); d != "" {
 		t.Errorf("edges differ:%s", d)

@@ -148,17 +148,17 @@ func sameNetwork(a, b *structural.Network) error {
 			return fmt.Errorf("state %d named %q vs %q", i, a.Name(int32(i)), b.Name(int32(i)))
 		}
 	}
-	if !slices.Equal(a.Out.Ptr, b.Out.Ptr) || !slices.Equal(a.Out.Adj, b.Out.Adj) {
+	if !slices.Equal(a.Out().Ptr, b.Out().Ptr) || !slices.Equal(a.Out().Adj, b.Out().Adj) {
 		return fmt.Errorf("out-rows differ")
 	}
-	if !slices.Equal(a.In.Ptr, b.In.Ptr) || !slices.Equal(a.In.Adj, b.In.Adj) {
+	if !slices.Equal(a.In().Ptr, b.In().Ptr) || !slices.Equal(a.In().Adj, b.In().Adj) {
 		return fmt.Errorf("in-rows differ")
 	}
-	if !slices.Equal(a.OutW, b.OutW) {
+	if !slices.Equal(a.Weights(), b.Weights()) {
 		return fmt.Errorf("weights differ")
 	}
-	if a.SelfLoops != b.SelfLoops || a.DuplicatesMerged != b.DuplicatesMerged {
-		return fmt.Errorf("counters differ: %d/%d vs %d/%d", a.SelfLoops, a.DuplicatesMerged, b.SelfLoops, b.DuplicatesMerged)
+	if a.SelfLoops() != b.SelfLoops() || a.DuplicatesMerged() != b.DuplicatesMerged() {
+		return fmt.Errorf("counters differ: %d/%d vs %d/%d", a.SelfLoops(), a.DuplicatesMerged(), b.SelfLoops(), b.DuplicatesMerged())
 	}
 	return nil
 }

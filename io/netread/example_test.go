@@ -22,9 +22,9 @@ heater_power   air_temperature
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("%d states, %d edges, %d repeat merged\n", g.N(), g.Edges(), g.DuplicatesMerged)
+	fmt.Printf("%d states, %d edges, %d repeat merged\n", g.N(), g.Edges(), g.DuplicatesMerged())
 	for u := int32(0); int(u) < g.N(); u++ {
-		for _, v := range g.Out.Row(u) {
+		for _, v := range g.Succ(u) {
 			fmt.Printf("%s -> %s\n", g.Name(u), g.Name(v))
 		}
 	}

@@ -23,7 +23,7 @@ func checkNetwork(g *structural.Network) error {
 	if n < 1 {
 		return fmt.Errorf("N = %d, want >= 1", n)
 	}
-	for _, c := range []*matching.CSR{&g.Out, &g.In} {
+	for _, c := range []*matching.CSR{g.Out(), g.In()} {
 		if c.Rows != n || c.Cols != n {
 			return fmt.Errorf("CSR is %d x %d, want %d x %d", c.Rows, c.Cols, n, n)
 		}
@@ -39,24 +39,24 @@ func checkNetwork(g *structural.Network) error {
 			}
 		}
 	}
-	t := matching.Transpose(&g.Out)
-	if !slices.Equal(t.Ptr, g.In.Ptr) || !slices.Equal(t.Adj, g.In.Adj) {
+	t := matching.Transpose(g.Out())
+	if !slices.Equal(t.Ptr, g.In().Ptr) || !slices.Equal(t.Adj, g.In().Adj) {
 		return errors.New("In is not the transpose of Out")
 	}
-	if g.OutW != nil && len(g.OutW) != len(g.Out.Adj) {
-		return fmt.Errorf("%d weights for %d edges", len(g.OutW), len(g.Out.Adj))
+	if g.Weights() != nil && len(g.Weights()) != len(g.Out().Adj) {
+		return fmt.Errorf("%d weights for %d edges", len(g.Weights()), len(g.Out().Adj))
 	}
 	loops := 0
 	for u := int32(0); int(u) < n; u++ {
-		if _, ok := slices.BinarySearch(g.Out.Row(u), u); ok {
+		if _, ok := slices.BinarySearch(g.Succ(u), u); ok {
 			loops++
 		}
 	}
-	if loops != g.SelfLoops {
-		return fmt.Errorf("SelfLoops = %d, counted %d", g.SelfLoops, loops)
+	if loops != g.SelfLoops() {
+		return fmt.Errorf("SelfLoops = %d, counted %d", g.SelfLoops(), loops)
 	}
-	if g.DuplicatesMerged < 0 {
-		return fmt.Errorf("DuplicatesMerged = %d", g.DuplicatesMerged)
+	if g.DuplicatesMerged() < 0 {
+		return fmt.Errorf("DuplicatesMerged = %d", g.DuplicatesMerged())
 	}
 	for i := int32(0); int(i) < n; i++ {
 		name := g.Name(i)
@@ -72,12 +72,12 @@ func checkNetwork(g *structural.Network) error {
 func edgeMap(g *structural.Network) map[string]float64 {
 	m := map[string]float64{}
 	for u := int32(0); int(u) < g.N(); u++ {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
 			w := 1.0
-			if g.OutW != nil {
-				w = g.OutW[k]
+			if g.Weights() != nil {
+				w = g.Weights()[k]
 			}
-			m[g.Name(u)+">"+g.Name(g.Out.Adj[k])] = w
+			m[g.Name(u)+">"+g.Name(g.Out().Adj[k])] = w
 		}
 	}
 	return m
@@ -202,11 +202,11 @@ func runReadCases(t *testing.T, format Format, cases []readCase) {
 					t.Errorf("got states %q, want %q", got, c.nodes)
 				}
 			}
-			if g.DuplicatesMerged != c.dups {
-				t.Errorf("got DuplicatesMerged %d, want %d", g.DuplicatesMerged, c.dups)
+			if g.DuplicatesMerged() != c.dups {
+				t.Errorf("got DuplicatesMerged %d, want %d", g.DuplicatesMerged(), c.dups)
 			}
-			if g.SelfLoops != c.loops {
-				t.Errorf("got SelfLoops %d, want %d", g.SelfLoops, c.loops)
+			if g.SelfLoops() != c.loops {
+				t.Errorf("got SelfLoops %d, want %d", g.SelfLoops(), c.loops)
 			}
 		})
 	}

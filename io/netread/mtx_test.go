@@ -157,8 +157,8 @@ func TestMatrixMarketMatchesEdgeList(t *testing.T) {
 	if err := checkNetwork(gm); err != nil {
 		t.Fatal(err)
 	}
-	if gm.N() != ge.N() || gm.DuplicatesMerged != ge.DuplicatesMerged || gm.SelfLoops != ge.SelfLoops {
-		t.Errorf("got N %d, dups %d, loops %d; want %d, %d, %d", gm.N(), gm.DuplicatesMerged, gm.SelfLoops, ge.N(), ge.DuplicatesMerged, ge.SelfLoops)
+	if gm.N() != ge.N() || gm.DuplicatesMerged() != ge.DuplicatesMerged() || gm.SelfLoops() != ge.SelfLoops() {
+		t.Errorf("got N %d, dups %d, loops %d; want %d, %d, %d", gm.N(), gm.DuplicatesMerged(), gm.SelfLoops(), ge.N(), ge.DuplicatesMerged(), ge.SelfLoops())
 	}
 	if d := diffEdges(edgeMap(gm), edgeMap(ge)); d != "" {
 		t.Errorf("edges differ:%s", d)

@@ -56,8 +56,8 @@ func TestReadFileFormats(t *testing.T) {
 		if d := diffEdges(edgeMap(g), wantEdges(c.edges...)); d != "" {
 			t.Errorf("%s: edges differ:%s", c.file, d)
 		}
-		if g.N() != 9 || g.SelfLoops != 1 || g.DuplicatesMerged != 0 {
-			t.Errorf("%s: got N %d, self-loops %d, merged %d; want 9, 1, 0", c.file, g.N(), g.SelfLoops, g.DuplicatesMerged)
+		if g.N() != 9 || g.SelfLoops() != 1 || g.DuplicatesMerged() != 0 {
+			t.Errorf("%s: got N %d, self-loops %d, merged %d; want 9, 1, 0", c.file, g.N(), g.SelfLoops(), g.DuplicatesMerged())
 		}
 	}
 }

@@ -86,18 +86,18 @@ func WriteEdges(w io.Writer, g *structural.Network) error {
 	var err error
 	for u := int32(0); int(u) < g.N(); u++ {
 		nu := g.Name(u)
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
 			line = line[:0]
 			if line, err = appendName(line, nu); err != nil {
 				return err
 			}
 			line = append(line, ' ')
-			if line, err = appendName(line, g.Name(g.Out.Adj[k])); err != nil {
+			if line, err = appendName(line, g.Name(g.Out().Adj[k])); err != nil {
 				return err
 			}
-			if g.OutW != nil {
+			if g.Weights() != nil {
 				line = append(line, ' ')
-				line = strconv.AppendFloat(line, g.OutW[k], 'g', -1, 64)
+				line = strconv.AppendFloat(line, g.Weights()[k], 'g', -1, 64)
 			}
 			line = append(line, '\n')
 			if _, err := bw.Write(line); err != nil {
@@ -147,7 +147,7 @@ func WriteIntNodeTable(w io.Writer, n, base int) error {
 func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
 	field := "pattern"
-	if g.OutW != nil {
+	if g.Weights() != nil {
 		field = "real"
 	}
 	fmt.Fprintf(bw, "%%%%MatrixMarket matrix coordinate %s general\n", field)
@@ -168,13 +168,13 @@ func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 	}
 	fmt.Fprintf(bw, "%d %d %d\n", g.N(), g.N(), g.Edges())
 	for u := int32(0); int(u) < g.N(); u++ {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-			line = strconv.AppendInt(line[:0], int64(g.Out.Adj[k])+1, 10)
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+			line = strconv.AppendInt(line[:0], int64(g.Out().Adj[k])+1, 10)
 			line = append(line, ' ')
 			line = strconv.AppendInt(line, int64(u)+1, 10)
-			if g.OutW != nil {
+			if g.Weights() != nil {
 				line = append(line, ' ')
-				line = strconv.AppendFloat(line, g.OutW[k], 'g', -1, 64)
+				line = strconv.AppendFloat(line, g.Weights()[k], 'g', -1, 64)
 			}
 			line = append(line, '\n')
 			if _, err := bw.Write(line); err != nil {

@@ -36,7 +36,7 @@ func build(t *testing.T, edges [][2]string, isolated ...string) *structural.Netw
 func edgeSet(g *structural.Network) []string {
 	var out []string
 	for u := int32(0); int(u) < g.N(); u++ {
-		for _, v := range g.Out.Row(u) {
+		for _, v := range g.Succ(u) {
 			out = append(out, g.Name(u)+" -> "+g.Name(v))
 		}
 	}

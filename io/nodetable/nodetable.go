@@ -305,10 +305,10 @@ func (t *Table) Isolated(g *structural.Network) []string {
 			continue
 		}
 		linked := false
-		for _, w := range g.Out.Row(v) {
+		for _, w := range g.Succ(v) {
 			linked = linked || w != v
 		}
-		for _, w := range g.In.Row(v) {
+		for _, w := range g.Pred(v) {
 			linked = linked || w != v
 		}
 		if !linked {
@@ -344,7 +344,7 @@ func (t *Table) Sensors(g *structural.Network) structural.Devices {
 
 func (t *Table) devices(g *structural.Network, get func(*Row) (int64, bool, bool)) structural.Devices {
 	n := g.N()
-	d := structural.Devices{Cost: make([]int64, n)}
+	d := structural.Devices{Cost: make([]structural.Cost, n)}
 	for v := range d.Cost {
 		d.Cost[v] = CostScale
 	}
@@ -354,7 +354,7 @@ func (t *Table) devices(g *structural.Network, get func(*Row) (int64, bool, bool
 			continue
 		}
 		c, can, has := get(&t.Rows[i])
-		d.Cost[v] = c
+		d.Cost[v] = structural.Cost(c)
 		if !can {
 			if d.Forbidden == nil {
 				d.Forbidden = make([]bool, n)

@@ -45,7 +45,7 @@ func BenchmarkCondensation(b *testing.B) {
 		rng := rand.New(rand.NewPCG(uint64(n), 5))
 		g := randomNet(b, rng, n, 2)
 		ds := structural.MinimumDrivers(g)
-		in := &Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching, Components: structural.SCC(&g.Out)}
+		in := &Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching, Components: structural.SCC(g.Out())}
 		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
 			for i := 0; i < b.N; i++ {
 				v, err := Select(in, Options{})

@@ -24,14 +24,14 @@ func condensationView(in *Input, opt Options) *View {
 		size[k]++
 		first[k] = int32(v)
 	}
-	isSource := c.Sources(&g.Out)
+	isSource := c.Source
 	isSink := make([]bool, c.Count)
 	for k := range isSink {
 		isSink[k] = true
 	}
 	for u := 0; u < n; u++ {
 		cu := c.Of[u]
-		for _, w := range g.Out.Row(int32(u)) {
+		for _, w := range g.Succ(int32(u)) {
 			if c.Of[w] != cu {
 				isSink[cu] = false
 				break
@@ -152,7 +152,7 @@ func condensationView(in *Input, opt Options) *View {
 	ctrl := make([]bool, nc*nc)
 	for u := 0; u < n; u++ {
 		a := node[c.Of[u]]
-		for _, w := range g.Out.Row(int32(u)) {
+		for _, w := range g.Succ(int32(u)) {
 			b := node[c.Of[w]]
 			if a == b {
 				continue

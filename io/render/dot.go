@@ -294,7 +294,7 @@ func (d *dotWriter) signalTip(kind, verb string, states []int32) string {
 func (d *dotWriter) clusters(pos map[int32]int) {
 	in, v := d.in, d.v
 	c := in.Components
-	src := c.Sources(&in.Net.Out)
+	src := c.Source
 	// Source components among the drawn states, and their members.
 	members := map[int32][]int32{}
 	for _, s := range v.States {

@@ -11,7 +11,7 @@ type Input struct {
 	Net *structural.Network
 	// Components are Net's strongly connected components; computed when
 	// Count is zero.
-	Components structural.Components
+	Components *structural.Components
 
 	// Inputs are the independent input signals: Inputs[i] lists the states
 	// signal i drives. InputKind names them in the title and legend:
@@ -148,13 +148,13 @@ func DesignMatching(g *structural.Network, inputs [][]int32) *matching.Matching 
 	n := g.N()
 	rows := n + len(inputs)
 	b := &matching.CSR{Rows: rows, Cols: n, Ptr: make([]int64, rows+1)}
-	size := int64(len(g.Out.Adj))
+	size := int64(len(g.Out().Adj))
 	for _, in := range inputs {
 		size += int64(len(in))
 	}
 	b.Adj = make([]int32, 0, size)
 	for u := 0; u < n; u++ {
-		b.Adj = append(b.Adj, g.Out.Row(int32(u))...)
+		b.Adj = append(b.Adj, g.Succ(int32(u))...)
 		b.Ptr[u+1] = int64(len(b.Adj))
 	}
 	for i, in := range inputs {

@@ -515,7 +515,7 @@ func undirectedDistances(g *structural.Network) [][]int {
 		d[i][i] = 0
 	}
 	for u := 0; u < n; u++ {
-		for _, v := range g.Out.Row(int32(u)) {
+		for _, v := range g.Succ(int32(u)) {
 			if int(v) != u {
 				d[u][v], d[v][u] = 1, 1
 			}

@@ -4,8 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"sort"
-
-	"github.com/netsteer/netsteer/structural"
 )
 
 // Kind is the kind of view a picture shows.
@@ -118,8 +116,8 @@ func Select(in *Input, opt Options) (*View, error) {
 	if g == nil || g.N() == 0 {
 		return nil, errors.New("render: no network")
 	}
-	if in.Components.Count == 0 {
-		in.Components = structural.SCC(&g.Out)
+	if in.Components == nil {
+		in.Components = g.Components()
 	}
 	kind := opt.View
 	if kind == Auto {
@@ -169,7 +167,7 @@ func statesView(in *Input, opt Options, states []int32, onlyControl bool) *View 
 	hidden := make([]int32, len(states))
 	anyHidden := false
 	for i, u := range states {
-		for _, w := range g.Out.Row(u) {
+		for _, w := range g.Succ(u) {
 			if _, ok := shown[w]; !ok {
 				hidden[i]++
 				anyHidden = true
@@ -182,7 +180,7 @@ func statesView(in *Input, opt Options, states []int32, onlyControl bool) *View 
 				plain = append(plain, e)
 			}
 		}
-		for _, w := range g.In.Row(u) {
+		for _, w := range g.Pred(u) {
 			if _, ok := shown[w]; !ok {
 				hidden[i]++
 				anyHidden = true
@@ -241,7 +239,7 @@ func aroundView(in *Input, opt Options) (*View, error) {
 		if depth[u] == hops {
 			continue
 		}
-		for _, row := range [2][]int32{g.Out.Row(u), g.In.Row(u)} {
+		for _, row := range [2][]int32{g.Succ(u), g.Pred(u)} {
 			for _, w := range row {
 				if _, ok := depth[w]; ok {
 					continue

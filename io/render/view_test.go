@@ -68,7 +68,7 @@ func TestCondensationAgainstGonum(t *testing.T) {
 			dg.AddNode(simple.Node(u))
 		}
 		for u := 0; u < n; u++ {
-			for _, w := range g.Out.Row(int32(u)) {
+			for _, w := range g.Succ(int32(u)) {
 				if int(w) != u {
 					dg.SetEdge(simple.Edge{F: simple.Node(u), T: simple.Node(w)})
 				}
@@ -132,7 +132,7 @@ func TestCondensationAgainstGonum(t *testing.T) {
 		if v.EdgesTotal == len(v.CompEdges) {
 			cross := 0
 			for u := 0; u < n; u++ {
-				for _, w := range g.Out.Row(int32(u)) {
+				for _, w := range g.Succ(int32(u)) {
 					a, aok := nodeOf[int32(u)]
 					b, bok := nodeOf[w]
 					if (aok || bok) && !(aok && bok && a == b) {
@@ -195,7 +195,7 @@ func TestDesignMatchingMaximum(t *testing.T) {
 				t.Fatalf("trial %d: RowMate[%d] = %d but ColMate[%d] = %d", trial, u, v, v, m.ColMate[v])
 			}
 			found := false
-			for _, w := range g.Out.Row(int32(u)) {
+			for _, w := range g.Succ(int32(u)) {
 				found = found || w == v
 			}
 			if !found {

@@ -1,6 +1,8 @@
 package sweepcsv
 
 import (
+	"github.com/netsteer/netsteer/structural/transform"
+
 	"fmt"
 	"hash/fnv"
 	"math"
@@ -104,7 +106,7 @@ type Plan struct {
 	// fixed) followed by transforms.
 	Axes []Axis
 	// Coupling applies to replicate transforms.
-	Coupling structural.Coupling
+	Coupling transform.Coupling
 	// Replicates is the number of rows per grid point (>= 1).
 	Replicates int
 	// Seed is the sweep seed every row seed derives from.
@@ -180,7 +182,7 @@ func TransformAxis(spec string) (Axis, error) {
 		return Axis{}, fmt.Errorf("transform %s: %v", name, err)
 	}
 	for _, v := range values {
-		if _, err := structural.ParseTransform(name + "=" + v); err != nil {
+		if _, err := transform.Parse(name + "=" + v); err != nil {
 			return Axis{}, err
 		}
 	}

@@ -14,6 +14,7 @@ import (
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
+	"github.com/netsteer/netsteer/structural/transform"
 )
 
 // Compute builds the network of point p (generated from the model, or the
@@ -56,13 +57,13 @@ func (pl *Plan) Compute(p Point) (Row, error) {
 			continue
 		}
 		v, _ := strconv.ParseFloat(c.Values[0], 64)
-		t := structural.Transform{Name: c.Name, Value: v, Coupling: pl.Coupling}
+		t := transform.Transform{Name: c.Name, Value: v, Coupling: pl.Coupling}
 		var err error
 		if g, err = t.Apply(g, rng); err != nil {
 			return row, err
 		}
 	}
-	m := matching.Maximum(&g.Out, &g.In)
+	m := matching.Maximum(g.Out(), g.In())
 	n := g.N()
 	row.Nodes = n
 	row.Edges = int64(g.Edges())

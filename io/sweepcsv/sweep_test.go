@@ -10,8 +10,8 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
+	"github.com/netsteer/netsteer/structural/transform"
 )
 
 func TestParseValues(t *testing.T) {
@@ -199,7 +199,7 @@ func TestBaseSweep(t *testing.T) {
 			t.Errorf("%s: measured %.4f, expectation %.4f", r.Params, r.DriverFraction, r.PredictedFraction)
 		}
 	}
-	var _ = structural.Transform{}
+	var _ = transform.Transform{}
 }
 
 func TestReadErrors(t *testing.T) {

@@ -293,11 +293,11 @@ func TestTreeDrivers(t *testing.T) {
 		}
 		leaves := 0
 		for v := 0; v < tc.n; v++ {
-			if g.Out.Degree(int32(v)) == 0 {
+			if len(g.Succ(int32(v))) == 0 {
 				leaves++
 			}
 		}
-		nd := len(structural.MinimumDrivers(g).Drivers)
+		nd := structural.Drivers(g).Count()
 		if nd != leaves {
 			t.Errorf("tree n=%d b=%d: N_D = %d, want #leaves %d", tc.n, tc.b, nd, leaves)
 		}
@@ -314,7 +314,7 @@ func TestNetworkKeepsIsolatedStates(t *testing.T) {
 	}
 	isolated := 0
 	for v := int32(0); v < 10000; v++ {
-		if g.Out.Degree(v)+g.In.Degree(v) == 0 {
+		if len(g.Succ(v))+len(g.Pred(v)) == 0 {
 			isolated++
 		}
 	}
@@ -357,6 +357,6 @@ func measuredFraction(t *testing.T, p Params, seed uint64) (float64, *structural
 	if err != nil {
 		t.Fatal(err)
 	}
-	m := matching.Maximum(&g.Out, &g.In)
+	m := matching.Maximum(g.Out(), g.In())
 	return float64(g.N()-m.Size) / float64(g.N()), g
 }

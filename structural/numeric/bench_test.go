@@ -20,7 +20,7 @@ func erNetwork(n int, k float64, seed uint64) (*structural.Network, [][]int32) {
 	if err != nil {
 		panic(err)
 	}
-	return g, structural.MinimumDrivers(g).Inputs
+	return g, structural.Drivers(g).Inputs.Signals()
 }
 
 // BenchmarkDimension measures one exact trial on a controllable design
@@ -30,7 +30,7 @@ func erNetwork(n int, k float64, seed uint64) (*structural.Network, [][]int32) {
 func BenchmarkDimension(b *testing.B) {
 	for _, n := range []int{250, 500, 1000, 2000} {
 		g, in := erNetwork(n, 6, 42)
-		p := &Pattern{Out: &g.Out, Signals: in}
+		p := &Pattern{Out: g.Out(), Signals: in}
 		f := NewField(Mersenne61)
 		x := DrawExact(p, f, rand.New(rand.NewPCG(1, 2)))
 		b.Run("n="+itoa(n), func(b *testing.B) {
@@ -62,7 +62,7 @@ func itoa(n int) string {
 func BenchmarkFloat(b *testing.B) {
 	for _, n := range []int{250, 500, 1000} {
 		g, in := erNetwork(n, 6, 42)
-		p := &Pattern{Out: &g.Out, Signals: in}
+		p := &Pattern{Out: g.Out(), Signals: in}
 		x := DrawReal(p, rand.New(rand.NewPCG(1, 2)))
 		a, bb := x.Dense(p, false)
 		b.Run("n="+itoa(n)+"/m="+itoa(len(in)), func(b *testing.B) {
@@ -81,7 +81,7 @@ func BenchmarkFloat(b *testing.B) {
 func BenchmarkVerify(b *testing.B) {
 	g, in := erNetwork(2000, 6, 42)
 	for i := 0; i < b.N; i++ {
-		rep, err := Verify(g, in, nil, Options{Seed: uint64(i), MaxFloatStates: -1})
+		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Seed: uint64(i), MaxFloatStates: -1})
 		if err != nil {
 			b.Fatal(err)
 		}

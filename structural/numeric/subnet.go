@@ -33,7 +33,7 @@ func Around(g *structural.Network, centres []int32, hops, limit int) []int32 {
 		if hops >= 0 && int(dist[u]) >= hops {
 			continue
 		}
-		for _, row := range [2][]int32{g.Out.Row(u), g.In.Row(u)} {
+		for _, row := range [2][]int32{g.Succ(u), g.Pred(u)} {
 			for _, v := range row {
 				if dist[v] < 0 && len(queue) < limit {
 					dist[v] = dist[u] + 1
@@ -64,13 +64,13 @@ func Induced(g *structural.Network, keep []int32) (*structural.Network, []int32,
 		newOf[v] = id
 	}
 	for _, u := range keep {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-			v := g.Out.Adj[k]
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+			v := g.Out().Adj[k]
 			if newOf[v] < 0 {
 				continue
 			}
-			if g.OutW != nil {
-				b.AddWeightedEdge(newOf[u], newOf[v], g.OutW[k])
+			if g.Weights() != nil {
+				b.AddWeightedEdge(newOf[u], newOf[v], g.Weights()[k])
 			} else {
 				b.AddEdge(newOf[u], newOf[v])
 			}

@@ -53,9 +53,9 @@ func TestSubnetworks(t *testing.T) {
 	tank, _ := sub.Lookup("tank")
 	cl, _ := sub.Lookup("clarifier")
 	found := false
-	for k := sub.Out.Ptr[tank]; k < sub.Out.Ptr[tank+1]; k++ {
-		if sub.Out.Adj[k] == cl {
-			found = sub.OutW[k] == 5
+	for k := sub.Out().Ptr[tank]; k < sub.Out().Ptr[tank+1]; k++ {
+		if sub.Out().Adj[k] == cl {
+			found = sub.Weights()[k] == 5
 		}
 	}
 	if !found {

@@ -34,7 +34,7 @@ type Options struct {
 	// ((Seed, 4t+3)).
 	Seed uint64
 	// Weights takes the model's own values instead of random ones: A from
-	// the network's edge weights (g.OutW; 1 for every edge when the
+	// the network's edge weights (g.Weights(); 1 for every edge when the
 	// network has none), B and C from InputWeights and OutputWeights
 	// (aligned with the signals; a nil list means 1 everywhere).
 	Weights                     bool
@@ -173,8 +173,9 @@ func FormatBytes(b int64) string {
 // exactly and in floating point, beside the structural prediction. Input i
 // drives the states inputs[i]; output i senses outputs[i]; either may be
 // empty but not both.
-func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Report, error) {
+func Verify(g *structural.Network, in, out structural.Design, opt Options) (*Report, error) {
 	n := g.N()
+	inputs, outputs := in.Signals(), out.Signals()
 	if len(inputs) == 0 && len(outputs) == 0 {
 		return nil, fmt.Errorf("numeric: no inputs and no outputs to verify")
 	}
@@ -197,16 +198,24 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 		maxFloat = DefaultMaxFloatStates
 	}
 	rep := &Report{N: n, Edges: g.Edges(), Prime: Mersenne61, Seed: opt.Seed, Weights: opt.Weights,
-		NetworkWeights: g.OutW != nil}
+		NetworkWeights: g.Weights() != nil}
 	var kinds []*kind
 	if len(inputs) > 0 {
 		rep.Controllability = &Result{Signals: len(inputs)}
-		rep.Controllability.Structural = structural.Check(g, inputs).ControllableDimension
+		d, err := structural.Dimension(g, structural.Controllability, in)
+		if err != nil {
+			return nil, err
+		}
+		rep.Controllability.Structural = d
 		kinds = append(kinds, &kind{name: "controllability", res: rep.Controllability, signals: inputs, weights: opt.InputWeights, stream: 2})
 	}
 	if len(outputs) > 0 {
 		rep.Observability = &Result{Signals: len(outputs)}
-		rep.Observability.Structural = structural.CheckObservability(g, outputs).ObservableDimension
+		d, err := structural.Dimension(g, structural.Observability, out)
+		if err != nil {
+			return nil, err
+		}
+		rep.Observability.Structural = d
 		kinds = append(kinds, &kind{name: "observability", res: rep.Observability, signals: outputs, weights: opt.OutputWeights, transpose: true, stream: 3})
 	}
 	workers := min(trials, runtime.GOMAXPROCS(0), maxWorkers)
@@ -238,11 +247,11 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 	var wExact []uint64
 	var wReal []float64
 	if opt.Weights {
-		p := &Pattern{Out: &g.Out}
-		x, inexact := ExactFromWeights(p, f, g.OutW, nil)
+		p := &Pattern{Out: g.Out()}
+		x, inexact := ExactFromWeights(p, f, g.Weights(), nil)
 		rep.Inexact += inexact
 		wExact = x.A
-		wReal = RealFromWeights(p, g.OutW, nil).A
+		wReal = RealFromWeights(p, g.Weights(), nil).A
 		for _, v := range wReal {
 			if v == 0 {
 				rep.ZeroEntries++
@@ -268,7 +277,7 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 	// Values of B (C): per property and trial; the model's own values are
 	// one system.
 	for _, k := range kinds {
-		k.pat = &Pattern{Out: &g.Out, Signals: k.signals}
+		k.pat = &Pattern{Out: g.Out(), Signals: k.signals}
 		k.res.Trials = make([]Trial, trials)
 		for t := range k.res.Trials {
 			k.res.Trials[t].AltDimension = -1
@@ -313,7 +322,7 @@ func Verify(g *structural.Network, inputs, outputs [][]int32, opt Options) (*Rep
 				tr.Dimension = Dimension(k.pat, x, k.transpose, prog)
 				if opt.Weights && tr.Dimension < k.res.Structural {
 					alt := NewField(Alt61)
-					x, _ := ExactFromWeights(k.pat, alt, g.OutW, k.weights)
+					x, _ := ExactFromWeights(k.pat, alt, g.Weights(), k.weights)
 					tr.AltDimension = Dimension(k.pat, x, k.transpose, prog)
 				}
 			}(t)

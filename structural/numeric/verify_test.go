@@ -61,7 +61,7 @@ func TestWeightsTiedBranches(t *testing.T) {
 			{"x0", "a", 2}, {"x0", "b", 3}, {"a", "a", tc.la}, {"b", "b", tc.lb},
 		})
 		in := [][]int32{lookup(t, g, "x0")}
-		rep, err := Verify(g, in, nil, Options{Weights: true, InputWeights: [][]float64{{1.5}}})
+		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Weights: true, InputWeights: [][]float64{{1.5}}})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -103,7 +103,7 @@ func TestWeightsDecimalCancellation(t *testing.T) {
 		{"x0", "a", 0.1}, {"a", "c", 0.3}, {"x0", "b", -0.03}, {"b", "c", 1},
 	})
 	in := [][]int32{lookup(t, g, "x0")}
-	rep, err := Verify(g, in, nil, Options{Weights: true})
+	rep, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Weights: true})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -145,7 +145,7 @@ func TestWeightsNeverExceedStructure(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if g.OutW == nil {
+		if g.Weights() == nil {
 			continue // no edges
 		}
 		var in, out [][]int32
@@ -156,7 +156,7 @@ func TestWeightsNeverExceedStructure(t *testing.T) {
 			out = append(out, []int32{int32(rng.IntN(n))})
 			outW = append(outW, []float64{vals[rng.IntN(3)]})
 		}
-		rep, err := Verify(g, in, out, Options{Weights: true, InputWeights: inW, OutputWeights: outW, MaxFloatStates: -1})
+		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, out), Options{Weights: true, InputWeights: inW, OutputWeights: outW, MaxFloatStates: -1})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -204,7 +204,7 @@ func TestVerifyAgreesWithStructure(t *testing.T) {
 			in = append(in, []int32{int32(rng.IntN(n))})
 			out = append(out, []int32{int32(rng.IntN(n))})
 		}
-		rep, err := Verify(g, in, out, Options{Trials: 1, Seed: uint64(c), MaxFloatStates: -1})
+		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, out), Options{Trials: 1, Seed: uint64(c), MaxFloatStates: -1})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -224,7 +224,7 @@ func TestVerifyAgreesWithStructure(t *testing.T) {
 func TestVerifySeed(t *testing.T) {
 	g, in := erNetwork(40, 3, 5)
 	run := func(seed uint64) *Report {
-		rep, err := Verify(g, in, nil, Options{Seed: seed, Trials: 2})
+		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Seed: seed, Trials: 2})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -251,7 +251,7 @@ func TestVerifySeed(t *testing.T) {
 // starting a long computation.
 func TestVerifySizeError(t *testing.T) {
 	g, in := erNetwork(300, 4, 9)
-	_, err := Verify(g, in, nil, Options{MaxStates: 100})
+	_, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{MaxStates: 100})
 	var se *SizeError
 	if !errors.As(err, &se) {
 		t.Fatalf("error %v, want a *SizeError", err)
@@ -270,7 +270,7 @@ func TestVerifyObservabilityChain(t *testing.T) {
 		sense string
 		want  int
 	}{{"s", 4}, {"p", 1}, {"q", 2}} {
-		rep, err := Verify(g, nil, [][]int32{lookup(t, g, tc.sense)}, Options{Seed: 1})
+		rep, err := Verify(g, mustDesign(g, nil), mustDesign(g, [][]int32{lookup(t, g, tc.sense)}), Options{Seed: 1})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -295,7 +295,7 @@ func ExampleVerify() {
 	g, _ := b.Build(structural.BuildOptions{})
 	in := [][]int32{{conv}}
 	for _, weights := range []bool{false, true} {
-		rep, _ := Verify(g, in, nil, Options{Weights: weights, Seed: 1})
+		rep, _ := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Weights: weights, Seed: 1})
 		r := rep.Controllability
 		fmt.Printf("weights %v: dimension %d of %d, structure %d, agrees %v\n", weights, r.Sampled, rep.N, r.Structural, r.Agrees)
 	}
@@ -309,7 +309,16 @@ func ExampleVerify() {
 // of a three-state network exhausted it.
 func TestVerifyTrialsLimit(t *testing.T) {
 	g, in := erNetwork(20, 3, 5)
-	if _, err := Verify(g, in, nil, Options{Seed: 1, Trials: MaxTrials + 1}); err == nil || !strings.Contains(err.Error(), "at most 1000") {
+	if _, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Seed: 1, Trials: MaxTrials + 1}); err == nil || !strings.Contains(err.Error(), "at most 1000") {
 		t.Errorf("Trials %d: got error %v, want one saying at most %d", MaxTrials+1, err, MaxTrials)
 	}
+}
+
+// mustDesign wraps signals as a design of g (nil: no signals).
+func mustDesign(g *structural.Network, signals [][]int32) structural.Design {
+	d, err := structural.NewDesign(g, signals, nil)
+	if err != nil {
+		panic(err)
+	}
+	return d
 }

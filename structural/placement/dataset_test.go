@@ -1,4 +1,4 @@
-package structural_test
+package placement_test
 
 import (
 	"os"
@@ -7,6 +7,8 @@ import (
 
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
+	"github.com/netsteer/netsteer/structural/placement"
 )
 
 // Wiki-Vote (SNAP; ../shared/datasets, skipped when absent). Critical
@@ -16,7 +18,7 @@ import (
 // file). Also: the two placement routes agree on the real network, and the
 // cheapest placement with unit costs passes Lin's theorem.
 func TestRolesWikiVote(t *testing.T) {
-	path := filepath.Join("..", "..", "shared", "datasets", "wiki-vote.edges.gz")
+	path := filepath.Join("..", "..", "..", "shared", "datasets", "wiki-vote.edges.gz")
 	if _, err := os.Stat(path); err != nil {
 		t.Skip("shared dataset absent:", path)
 	}
@@ -24,8 +26,8 @@ func TestRolesWikiVote(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	m := structural.MinimumDrivers(g).Matching
-	roles := structural.NodeRoles(g, m)
+	m := g.Matching()
+	roles := structural.StateRoles(g).Of
 	var count [4]int
 	for _, r := range roles {
 		count[r]++
@@ -37,24 +39,24 @@ func TestRolesWikiVote(t *testing.T) {
 	if count[structural.Critical]+count[structural.Intermittent] < nd {
 		t.Errorf("only %d critical or intermittent nodes for N_D = %d", count[structural.Critical]+count[structural.Intermittent], nd)
 	}
-	c, err := structural.CountActuators(g, nil)
+	c, err := placement.Count(g, structural.Controllability, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
-	pl, err := structural.PlaceActuators(g, structural.Devices{})
+	pl, err := placement.Place(g, structural.Controllability, structural.Devices{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(pl.Devices) != c.Count || c.Unmatched != nd {
+	if pl.Devices.Len() != c.Count || c.Unmatched != nd {
 		t.Errorf("placement %d actuators, formula %d + %d - %d = %d, N - |M*| = %d",
-			len(pl.Devices), c.Unmatched, c.SourceComponents, c.Alpha, c.Count, nd)
+			pl.Devices.Len(), c.Unmatched, c.SourceComponents, c.Alpha, c.Count, nd)
 	}
-	inputs := make([][]int32, len(pl.Devices))
-	for i, v := range pl.Devices {
+	inputs := make([][]int32, pl.Devices.Len())
+	for i, v := range pl.Devices.IDs() {
 		inputs[i] = []int32{v}
 	}
-	if v := structural.Check(g, inputs); !v.Controllable {
-		t.Errorf("placement of %d actuators is not controllable: %d unreached, dilation %v", len(pl.Devices), len(v.Unreached), v.Dilation != nil)
+	if v := testnet.Check(t, g, structural.Controllability, inputs); !v.Holds {
+		t.Errorf("placement of %d actuators is not controllable: %d unreached, dilation %v", pl.Devices.Len(), len(v.Unreached.IDs()), v.Dilation != nil)
 	}
 	t.Logf("N=%d N_D=%d roles: critical %d, intermittent %d, redundant %d; actuators %d (m=%d beta=%d alpha=%d)",
 		g.N(), nd, count[structural.Critical], count[structural.Intermittent], count[structural.Redundant], c.Count, c.Unmatched, c.SourceComponents, c.Alpha)

@@ -1,6 +1,8 @@
-package structural
+package transform
 
 import (
+	"github.com/netsteer/netsteer/structural"
+
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -13,10 +15,10 @@ func testRand(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, seed^0
 
 // randomNetwork builds a G(n, m)-like network with a few self-loops, by
 // plain rejection sampling (independent of structural/gen).
-func randomNetwork(t testing.TB, n, m, loops int, seed uint64) *Network {
+func randomNetwork(t testing.TB, n, m, loops int, seed uint64) *structural.Network {
 	t.Helper()
 	rng := testRand(seed)
-	b := NewIntBuilder(n, 1)
+	b := structural.NewIntBuilder(n, 1)
 	seen := map[[2]int32]bool{}
 	for len(seen) < m {
 		u, v := int32(rng.IntN(n)), int32(rng.IntN(n))
@@ -29,17 +31,17 @@ func randomNetwork(t testing.TB, n, m, loops int, seed uint64) *Network {
 	for i := 0; i < loops; i++ {
 		b.AddEdge(int32(i), int32(i))
 	}
-	g, err := b.Build(BuildOptions{})
+	g, err := b.Build(structural.BuildOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	return g
 }
 
-func edgeNames(g *Network) map[string]bool {
+func edgeNames(g *structural.Network) map[string]bool {
 	out := map[string]bool{}
 	for u := int32(0); int(u) < g.N(); u++ {
-		for _, v := range g.Out.Row(u) {
+		for _, v := range g.Succ(u) {
 			out[g.Name(u)+" "+g.Name(v)] = true
 		}
 	}
@@ -76,13 +78,13 @@ func TestSwapEdgesKeepsDegrees(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if h.N() != g.N() || h.Edges() != g.Edges() || h.SelfLoops != g.SelfLoops || h.DuplicatesMerged != 0 {
+	if h.N() != g.N() || h.Edges() != g.Edges() || h.SelfLoops() != g.SelfLoops() || h.DuplicatesMerged() != 0 {
 		t.Fatalf("got N=%d L=%d loops=%d merged=%d; want N=%d L=%d loops=%d merged=0",
-			h.N(), h.Edges(), h.SelfLoops, h.DuplicatesMerged, g.N(), g.Edges(), g.SelfLoops)
+			h.N(), h.Edges(), h.SelfLoops(), h.DuplicatesMerged(), g.N(), g.Edges(), g.SelfLoops())
 	}
 	for v := int32(0); int(v) < g.N(); v++ {
-		if g.Out.Degree(v) != h.Out.Degree(v) || g.In.Degree(v) != h.In.Degree(v) {
-			t.Fatalf("state %s: degrees (%d,%d) became (%d,%d)", g.Name(v), g.Out.Degree(v), g.In.Degree(v), h.Out.Degree(v), h.In.Degree(v))
+		if len(g.Succ(v)) != len(h.Succ(v)) || len(g.Pred(v)) != len(h.Pred(v)) {
+			t.Fatalf("state %s: degrees (%d,%d) became (%d,%d)", g.Name(v), len(g.Succ(v)), len(g.Pred(v)), len(h.Succ(v)), len(h.Pred(v)))
 		}
 	}
 	before := edgeNames(g)
@@ -106,16 +108,16 @@ func TestSwapEdgesReachesDegreeExpectation(t *testing.T) {
 	// by plain code here.
 	const n = 60000
 	rng := testRand(9)
-	b := NewIntBuilder(n, 0)
+	b := structural.NewIntBuilder(n, 0)
 	for i := 1; i < n; i++ {
 		b.AddEdge(int32(rng.IntN(i)), int32(i))
 		b.AddEdge(int32(i), int32(rng.IntN(i)))
 	}
-	g, err := b.Build(BuildOptions{})
+	g, err := b.Build(structural.BuildOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	want, err := ExpectedDriverFraction(g)
+	want, err := structural.ExpectedDriverFraction(g)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -123,8 +125,8 @@ func TestSwapEdgesReachesDegreeExpectation(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	got := float64(len(MinimumDrivers(h).Drivers)) / n
-	t.Logf("before %.4f, after %.4f, expectation %.4f", float64(len(MinimumDrivers(g).Drivers))/n, got, want)
+	got := float64(structural.Drivers(h).Count()) / n
+	t.Logf("before %.4f, after %.4f, expectation %.4f", float64(structural.Drivers(g).Count())/n, got, want)
 	if math.Abs(got-want) > 0.006 {
 		t.Errorf("randomised: n_D %.4f, degree-preserving expectation %.4f", got, want)
 	}
@@ -137,8 +139,8 @@ func TestRewireKeepsNAndL(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if h.N() != g.N() || h.Edges() != g.Edges() || h.SelfLoops != 3 || h.DuplicatesMerged != 0 {
-			t.Errorf("p=%v: N=%d L=%d loops=%d merged=%d", p, h.N(), h.Edges(), h.SelfLoops, h.DuplicatesMerged)
+		if h.N() != g.N() || h.Edges() != g.Edges() || h.SelfLoops() != 3 || h.DuplicatesMerged() != 0 {
+			t.Errorf("p=%v: N=%d L=%d loops=%d merged=%d", p, h.N(), h.Edges(), h.SelfLoops(), h.DuplicatesMerged())
 		}
 		before := edgeNames(g)
 		moved := 0
@@ -195,7 +197,7 @@ func TestRemoveAndAttack(t *testing.T) {
 	// Every removed state had at least the degree of every survivor.
 	minGone, maxKept := math.MaxInt, 0
 	for v := int32(0); int(v) < g.N(); v++ {
-		d := g.Out.Degree(v) + g.In.Degree(v)
+		d := len(g.Succ(v)) + len(g.Pred(v))
 		if _, ok := a.Lookup(g.Name(v)); ok {
 			maxKept = max(maxKept, d)
 		} else {
@@ -211,14 +213,14 @@ func TestRemoveAndAttack(t *testing.T) {
 }
 
 // checkInduced checks that h is the subnetwork of g induced by h's states.
-func checkInduced(t *testing.T, g, h *Network) {
+func checkInduced(t *testing.T, g, h *structural.Network) {
 	t.Helper()
 	want := 0
 	for u := int32(0); int(u) < g.N(); u++ {
 		if _, ok := h.Lookup(g.Name(u)); !ok {
 			continue
 		}
-		for _, v := range g.Out.Row(u) {
+		for _, v := range g.Succ(u) {
 			if _, ok := h.Lookup(g.Name(v)); ok {
 				want++
 			}
@@ -241,24 +243,24 @@ func TestAddSelfLoops(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if h.SelfLoops != 100 || h.Edges() != g.Edges()+96 {
-		t.Errorf("p=1: loops %d L %d, want 100 and %d", h.SelfLoops, h.Edges(), g.Edges()+96)
+	if h.SelfLoops() != 100 || h.Edges() != g.Edges()+96 {
+		t.Errorf("p=1: loops %d L %d, want 100 and %d", h.SelfLoops(), h.Edges(), g.Edges()+96)
 	}
 	// With a self-loop on every state the identity is a perfect matching:
 	// one driver (common practice: nodal dynamics make N_D = 1).
-	if nd := len(MinimumDrivers(h).Drivers); nd != 1 {
+	if nd := structural.Drivers(h).Count(); nd != 1 {
 		t.Errorf("all self-loops: N_D = %d, want 1", nd)
 	}
 }
 
 func TestReplicate(t *testing.T) {
-	b := NewBuilder()
+	b := structural.NewBuilder()
 	for _, e := range [][2]string{{"hub", "x"}, {"hub", "y"}} {
 		u, _ := b.Intern([]byte(e[0]))
 		v, _ := b.Intern([]byte(e[1]))
 		b.AddEdge(u, v)
 	}
-	g, err := b.Build(BuildOptions{})
+	g, err := b.Build(structural.BuildOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -319,9 +321,9 @@ func TestParseTransform(t *testing.T) {
 		val float64
 	}{{"dropout=0.1", true, 0.1}, {"swap=10", true, 10}, {"replicate=3", true, 3}, {"replicate=2.5", false, 0},
 		{"dropout=1.5", false, 0}, {"bogus=1", false, 0}, {"dropout", false, 0}, {"loops=x", false, 0}} {
-		tr, err := ParseTransform(tc.in)
+		tr, err := Parse(tc.in)
 		if (err == nil) != tc.ok || (tc.ok && tr.Value != tc.val) {
-			t.Errorf("ParseTransform(%q) = %+v, %v", tc.in, tr, err)
+			t.Errorf("Parse(%q) = %+v, %v", tc.in, tr, err)
 		}
 	}
 }
@@ -332,10 +334,10 @@ func TestParseTransform(t *testing.T) {
 // refused before anything is built. Edge counts by hand: k copies of m
 // edges plus the couplings times the coupled states.
 func TestReplicateScale(t *testing.T) {
-	b := NewBuilder()
+	b := structural.NewBuilder()
 	u, _ := b.Intern([]byte("tank"))
 	b.AddEdge(u, u)
-	g, err := b.Build(BuildOptions{})
+	g, err := b.Build(structural.BuildOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -354,8 +356,8 @@ func TestReplicateScale(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%d copies, %+v: %v", tc.k, tc.c, err)
 		}
-		if h.Edges() != tc.want || h.DuplicatesMerged != 0 {
-			t.Errorf("%d copies, %+v: got %d edges (%d repeats merged), want %d and none", tc.k, tc.c, h.Edges(), h.DuplicatesMerged, tc.want)
+		if h.Edges() != tc.want || h.DuplicatesMerged() != 0 {
+			t.Errorf("%d copies, %+v: got %d edges (%d repeats merged), want %d and none", tc.k, tc.c, h.Edges(), h.DuplicatesMerged(), tc.want)
 		}
 	}
 	if _, err := Replicate(g, 100000, Coupling{Pattern: "all"}); err == nil || !strings.Contains(err.Error(), "exceed") {

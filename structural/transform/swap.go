@@ -1,6 +1,8 @@
-package structural
+package transform
 
 import (
+	"github.com/netsteer/netsteer/structural"
+
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -12,7 +14,7 @@ import (
 // or repeat an edge (Maslov & Sneppen, Science 296:910, 2002). Every
 // state keeps its in- and out-degree; self-loops stay where they are.
 // Ten or more swaps per edge are customary for mixing.
-func SwapEdges(g *Network, perEdge float64, rng *rand.Rand) (*Network, error) {
+func SwapEdges(g *structural.Network, perEdge float64, rng *rand.Rand) (*structural.Network, error) {
 	src, dst, w := edgeArrays(g)
 	loopsSrc, loopsDst, loopsW := splitLoops(&src, &dst, &w)
 	m := len(src)
@@ -38,20 +40,20 @@ func SwapEdges(g *Network, perEdge float64, rng *rand.Rand) (*Network, error) {
 			dst[i], dst[j] = d, b
 		}
 	}
-	return rebuild(g.names, append(src, loopsSrc...), append(dst, loopsDst...), joinW(w, loopsW))
+	return g.WithEdges(append(src, loopsSrc...), append(dst, loopsDst...), joinW(w, loopsW))
 }
 
 // RewireEdges returns g with each edge that is not a self-loop moved, with
 // probability p, to a uniformly random place u -> v (u != v, not already an
 // edge): N and L are kept, the degrees are not. p = 1 gives a G(N, L)
 // network plus g's self-loops.
-func RewireEdges(g *Network, p float64, rng *rand.Rand) (*Network, error) {
+func RewireEdges(g *structural.Network, p float64, rng *rand.Rand) (*structural.Network, error) {
 	src, dst, w := edgeArrays(g)
 	loopsSrc, loopsDst, loopsW := splitLoops(&src, &dst, &w)
 	n := g.N()
 	m := len(src)
 	if uint64(m) > uint64(n)*uint64(n-1) {
-		return nil, fmt.Errorf("structural: cannot rewire %d edges among %d states", m, n)
+		return nil, fmt.Errorf("transform: cannot rewire %d edges among %d states", m, n)
 	}
 	set := newEdgeSet(m)
 	for i := range src {
@@ -77,7 +79,7 @@ func RewireEdges(g *Network, p float64, rng *rand.Rand) (*Network, error) {
 			break
 		}
 	}
-	return rebuild(g.names, append(src, loopsSrc...), append(dst, loopsDst...), joinW(w, loopsW))
+	return g.WithEdges(append(src, loopsSrc...), append(dst, loopsDst...), joinW(w, loopsW))
 }
 
 // splitLoops moves the self-loops out of the edge slices and returns them.

@@ -1,6 +1,8 @@
-package structural
+package transform
 
 import (
+	"github.com/netsteer/netsteer/structural"
+
 	"fmt"
 	"strconv"
 )
@@ -30,13 +32,13 @@ var CouplingPatterns = []string{"chain", "ring", "star", "all", "none"}
 // Replicate returns k copies of g, a fleet of identical units, with the
 // couplings c between copies. State s of copy j (1-based) is named
 // "s@j"; copy j's states are numbered (j-1) N + s.
-func Replicate(g *Network, k int, c Coupling) (*Network, error) {
+func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, error) {
 	n := g.N()
 	if k < 1 {
-		return nil, fmt.Errorf("structural: replicate %d copies: want at least one", k)
+		return nil, fmt.Errorf("transform: replicate %d copies: want at least one", k)
 	}
-	if int64(n)*int64(k) > MaxStates {
-		return nil, fmt.Errorf("structural: %d copies of %d states exceed %d states", k, n, MaxStates)
+	if int64(n)*int64(k) > structural.MaxStates {
+		return nil, fmt.Errorf("transform: %d copies of %d states exceed %d states", k, n, structural.MaxStates)
 	}
 	// Count the couplings before building them: "all" grows as k^2.
 	var npairs int64
@@ -61,7 +63,7 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 	}
 	if copyEdges := int64(g.Edges()) * kk; copyEdges > maxVariantEdges ||
 		ncoupled > 0 && npairs > (maxVariantEdges-copyEdges)/ncoupled {
-		return nil, fmt.Errorf("structural: %d copies of %d edges with %d couplings of %d states exceed %d edges",
+		return nil, fmt.Errorf("transform: %d copies of %d edges with %d couplings of %d states exceed %d edges",
 			k, g.Edges(), npairs, ncoupled, int64(maxVariantEdges))
 	}
 	var pairs [][2]int // (from copy, to copy), 0-based
@@ -87,7 +89,7 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 		}
 	case "none":
 	default:
-		return nil, fmt.Errorf("structural: coupling %q: want chain, ring, star, all or none", c.Pattern)
+		return nil, fmt.Errorf("transform: coupling %q: want chain, ring, star, all or none", c.Pattern)
 	}
 	if c.TwoWay && c.Pattern != "all" {
 		// No reverse repeats a pair: chains and rings run j -> j+1 (and
@@ -106,44 +108,42 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 		for _, s := range c.States {
 			v, ok := g.Lookup(s)
 			if !ok {
-				return nil, fmt.Errorf("structural: coupling state %q is not in the network", s)
+				return nil, fmt.Errorf("transform: coupling state %q is not in the network", s)
 			}
 			coupled = append(coupled, v)
 		}
 	}
-	names := NewNames()
+	b := structural.NewBuilder()
 	var buf []byte
 	for j := 1; j <= k; j++ {
 		for v := 0; v < n; v++ {
-			if g.names.ints {
-				buf = strconv.AppendInt(buf[:0], int64(v+g.names.base), 10)
-			} else {
-				buf = append(buf[:0], g.names.bytesOf(int32(v))...)
-			}
+			buf = g.AppendName(buf[:0], int32(v))
 			buf = append(buf, '@')
 			buf = strconv.AppendInt(buf, int64(j), 10)
-			names.Intern(buf)
+			if _, err := b.Intern(buf); err != nil {
+				return nil, err
+			}
 		}
 	}
-	if names.Len() != n*k {
-		return nil, fmt.Errorf("structural: copy names collide (a state name ends in @<number>)")
+	if b.States() != n*k {
+		return nil, fmt.Errorf("transform: copy names collide (a state name ends in @<number>)")
 	}
 	m := g.Edges()
 	total := m*k + len(pairs)*len(coupled)
 	src := make([]int32, 0, total)
 	dst := make([]int32, 0, total)
 	var w []float64
-	if g.OutW != nil {
+	if g.Weights() != nil {
 		w = make([]float64, 0, total)
 	}
 	for j := 0; j < k; j++ {
 		off := int32(j * n)
 		for u := 0; u < n; u++ {
-			for e := g.Out.Ptr[u]; e < g.Out.Ptr[u+1]; e++ {
+			for e := g.Out().Ptr[u]; e < g.Out().Ptr[u+1]; e++ {
 				src = append(src, off+int32(u))
-				dst = append(dst, off+g.Out.Adj[e])
+				dst = append(dst, off+g.Out().Adj[e])
 				if w != nil {
-					w = append(w, g.OutW[e])
+					w = append(w, g.Weights()[e])
 				}
 			}
 		}
@@ -157,5 +157,6 @@ func Replicate(g *Network, k int, c Coupling) (*Network, error) {
 			}
 		}
 	}
-	return rebuild(names, src, dst, w)
+	b.AddEdges(src, dst, w)
+	return b.Build(structural.BuildOptions{})
 }

@@ -1,4 +1,4 @@
-package structural
+package names
 
 import (
 	"errors"
@@ -10,6 +10,70 @@ import (
 
 	"github.com/netsteer/netsteer/matching/bigmem"
 )
+
+// MaxStates is the largest number of names a table holds (int32 indices).
+const MaxStates = 1<<31 - 2
+
+// ErrIntTable is returned by Intern on an integer-named table.
+var ErrIntTable = errors.New("names: Intern on an integer-named table")
+
+// Interner fills a Table: it interns names while a network is read and
+// seals the table when the network is built.
+type Interner struct {
+	t *Table
+	// Canonical decimal names: dense[v] is the state named v plus one, 0
+	// when absent; overflow lists those hashed instead.
+	dense       []int32
+	denseShared atomic.Pointer[[]int32] // dense as published to LookupInt
+	overflow    []overflowName
+	unindexed   bool // some names are missing from the hash index
+	// idx indexes the other names while building (see internName).
+	idx     []nameSlot
+	idxUsed int
+}
+
+// NewInterner returns an Interner for names given as bytes.
+func NewInterner() *Interner {
+	return &Interner{t: &Table{off: []int64{0}, seed: maphash.MakeSeed(), table: make([]int32, 1024)}}
+}
+
+// NewIntInterner returns an Interner for n states named base..base+n-1;
+// it interns nothing more.
+func NewIntInterner(n, base int) *Interner { return &Interner{t: Ints(n, base)} }
+
+// Len returns the number of names so far.
+func (b *Interner) Len() int { return b.t.n }
+
+// Intern returns the index of name, adding it when new. The bytes are
+// copied.
+func (b *Interner) Intern(name []byte) (int32, error) {
+	if b.t.ints {
+		return -1, ErrIntTable
+	}
+	if v, ok := canonicalDecimal(name); ok {
+		return b.InternInt(v)
+	}
+	if b.t.n >= MaxStates {
+		return -1, fmt.Errorf("names: more than %d states", MaxStates)
+	}
+	return b.internName(name), nil
+}
+
+// Release drops the interning indexes; the Interner then only seals.
+func (b *Interner) Release() {
+	b.dense, b.overflow, b.idx = nil, nil, nil
+	b.denseShared.Store(nil)
+}
+
+// Seal completes the table's own hash index and returns the table, which
+// is read-only from then on. It may run on another goroutine than Release.
+func (b *Interner) Seal() *Table {
+	if b.unindexed {
+		b.t.reindex()
+		b.unindexed = false
+	}
+	return b.t
+}
 
 // Integer names. Most large networks name their states by decimal
 // integers. A Builder maps such a name, when written canonically (digits
@@ -48,17 +112,17 @@ func canonicalDecimal(name []byte) (uint32, bool) {
 // form of v ("0", "7", "1200"), adding it when new. It is equivalent to
 // Intern(strconv.AppendUint(nil, uint64(v), 10)) and much faster for
 // integer-named inputs. v must be below 2^31-1.
-func (b *Builder) InternInt(v uint32) (int32, error) {
+func (b *Interner) InternInt(v uint32) (int32, error) {
 	if int(v) < len(b.dense) {
 		if s := atomic.LoadInt32(&b.dense[v]); s != 0 {
 			return s - 1, nil
 		}
 	}
-	if b.names.ints {
-		return -1, errors.New("structural: Intern on an integer-named builder")
+	if b.t.ints {
+		return -1, ErrIntTable
 	}
-	if b.names.n >= MaxStates {
-		return -1, fmt.Errorf("structural: more than %d states", MaxStates)
+	if b.t.n >= MaxStates {
+		return -1, fmt.Errorf("names: more than %d states", MaxStates)
 	}
 	if int(v) >= len(b.dense) {
 		if !b.growDense(v) {
@@ -68,7 +132,7 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 			return s - 1, nil // it was hashed before and has just moved in
 		}
 	}
-	t := b.names
+	t := b.t
 	id := int32(t.n)
 	t.n++
 	t.growArena(10)
@@ -91,7 +155,7 @@ func (b *Builder) InternInt(v uint32) (int32, error) {
 // a table that large miss the cache, and measured on 2*10^7-edge inputs,
 // parsing goroutines that spend their time there slow the whole read down
 // more than they relieve the interning goroutine.
-func (b *Builder) LookupInt(v uint32) (int32, bool) {
+func (b *Interner) LookupInt(v uint32) (int32, bool) {
 	p := b.denseShared.Load()
 	if p == nil || int(v) >= len(*p) || len(*p) > maxSharedDense {
 		return -1, false
@@ -106,8 +170,8 @@ const maxSharedDense = 1 << 21
 // growDense extends the dense table to cover v when v is within the bound
 // (eight slots per state plus 2^20) and the table can at least double, so
 // copies stay linear, and reports whether it does.
-func (b *Builder) growDense(v uint32) bool {
-	limit := 8*int64(b.names.n) + 1<<20
+func (b *Interner) growDense(v uint32) bool {
+	limit := 8*int64(b.t.n) + 1<<20
 	n := max(2*len(b.dense), int(v)+1, 1<<12)
 	if int64(n) > limit {
 		if int64(v) >= limit || len(b.dense) > int(limit/2) {
@@ -136,12 +200,12 @@ func (b *Builder) growDense(v uint32) bool {
 
 // internOverflow interns a canonical decimal name beyond the dense table
 // through the hash index, remembering it for when the table grows.
-func (b *Builder) internOverflow(v uint32) (int32, error) {
+func (b *Interner) internOverflow(v uint32) (int32, error) {
 	var buf [10]byte
 	name := strconv.AppendUint(buf[:0], uint64(v), 10)
-	n := b.names.n
+	n := b.t.n
 	id := b.internName(name)
-	if b.names.n > n {
+	if b.t.n > n {
 		b.overflow = append(b.overflow, overflowName{v, id})
 	}
 	return id, nil
@@ -181,7 +245,7 @@ func slotKey(name []byte, h uint64) (uint32, uint64, bool) {
 // one cache miss for a short name and two for a long one, instead of a
 // miss for the slot, the offsets and the arena at every probe. The name
 // table's own index is completed by Build.
-func (b *Builder) internName(name []byte) int32 {
+func (b *Interner) internName(name []byte) int32 {
 	if 2*(b.idxUsed+1) > len(b.idx) {
 		b.growIndex()
 	}
@@ -189,7 +253,7 @@ func (b *Builder) internName(name []byte) int32 {
 	tag, data, short := slotKey(name, h)
 	mask := uint64(len(b.idx) - 1)
 	i := h & mask
-	t := b.names
+	t := b.t
 	for {
 		s := &b.idx[i]
 		if s.id == 0 {
@@ -221,11 +285,11 @@ func (b *Builder) internName(name []byte) int32 {
 }
 
 // growIndex doubles the Builder's name index.
-func (b *Builder) growIndex() {
+func (b *Interner) growIndex() {
 	old := b.idx
 	b.idx = bigmem.Make[nameSlot](max(2*len(old), 1024), max(2*len(old), 1024))
 	mask := uint64(len(b.idx) - 1)
-	t := b.names
+	t := b.t
 	for _, s := range old {
 		if s.id == 0 {
 			continue
@@ -245,40 +309,6 @@ type overflowName struct {
 	id int32
 }
 
-// reindex rebuilds the hash index of an arena table over all its names,
-// with at most half of the slots in use.
-func (t *Names) reindex() {
-	size := 1024
-	for size < 2*t.n+2 {
-		size *= 2
-	}
-	if len(t.table) == size {
-		clear(t.table)
-	} else {
-		t.table = make([]int32, size)
-	}
-	mask := uint64(size - 1)
-	for i := 0; i < t.n; i++ {
-		h := maphash.Bytes(t.seed, t.arena[t.off[i]:t.off[i+1]]) & mask
-		for t.table[h] != 0 {
-			h = (h + 1) & mask
-		}
-		t.table[h] = int32(i) + 1
-	}
-}
-
-// growArena makes room for one more name of up to k bytes, doubling the
-// arena and the offsets when they are full: append's gentler growth for
-// large slices copies (and touches fresh memory) several times more.
-func (t *Names) growArena(k int) {
-	if len(t.arena)+k > cap(t.arena) {
-		a := bigmem.Make[byte](len(t.arena), max(2*cap(t.arena), len(t.arena)+k, 1<<12))
-		copy(a, t.arena)
-		t.arena = a
-	}
-	if len(t.off) == cap(t.off) {
-		o := bigmem.Make[int64](len(t.off), max(2*cap(t.off), 1<<10))
-		copy(o, t.off)
-		t.off = o
-	}
-}
+// Sealed returns an Interner over a sealed table that interns nothing more:
+// for networks built on the states of another.
+func Sealed(t *Table) *Interner { return &Interner{t: t} }

@@ -1,41 +1,45 @@
-package structural
+package placement
 
 import (
 	"errors"
+	"slices"
 
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
 )
 
 // DeviceCount is the minimum number of dedicated devices, with unit costs,
 // in the form of Pequito, Kar & Aguiar, "A framework for structural
 // input/output and control configuration selection in large-scale
-// systems", IEEE TAC (2016): Count = Unmatched +
-// SourceComponents - Alpha.
+// systems", IEEE TAC (2016): Count = Unmatched + SourceComponents - Alpha.
+// For sensors every term is read on the transposed network (sink
+// components instead of source components).
 type DeviceCount struct {
 	// Feasible is false when forbidden states form a dilation that no
 	// allowed device removes, or a source component has no allowed state;
 	// the other fields are then not meaningful.
-	Feasible bool
+	Feasible bool `json:"feasible"`
 	// Unmatched is m = N - |M*|, the states a maximum matching leaves
 	// unmatched (a maximum matching that matches every forbidden state).
 	// It is 0 for a network with a perfect matching: no max(., 1) here.
-	Unmatched int
+	Unmatched int `json:"unmatched"`
 	// SourceComponents is beta, the number of source strongly connected
 	// components (no edge enters them from another component).
-	SourceComponents int
+	SourceComponents int `json:"source_components"`
 	// Alpha is the largest number of source components that can each
 	// hold a state left unmatched (and allowed) by one such maximum
 	// matching.
-	Alpha int
+	Alpha int `json:"alpha"`
 	// Count is Unmatched + SourceComponents - Alpha.
-	Count int
+	Count int `json:"count"`
 	// Devices is one minimum set, in increasing order.
-	Devices []int32
+	Devices structural.States `json:"-"`
 }
 
-// CountActuators returns the minimum number of dedicated actuators that
-// make g structurally controllable when the states marked in forbidden
-// (nil: none) cannot take one, and one set of that size.
+// Count returns the minimum number of dedicated actuators (sensors, for
+// Observability) that make g structurally controllable (observable) when
+// the states marked in forbidden (nil: none) cannot take one, and one set
+// of that size.
 //
 // Alpha is found as Olshevsky ("Minimum input selection for structural
 // controllability", ACC 2015, which also treats forbidden states) finds it,
@@ -46,27 +50,23 @@ type DeviceCount struct {
 // path; vertex-disjointness makes the shifts compatible, so the number of
 // extra rows matched is alpha. The states left without a matched state row
 // are the unmatched ones of the shifted matching; each source component
-// whose row stayed unmatched adds one of its allowed states. Time: one
-// maximum matching (a greedy over the forbidden states first when there are
-// any) and O(E sqrt(N)) for alpha.
-func CountActuators(g *Network, forbidden []bool) (*DeviceCount, error) {
+// whose row stayed unmatched adds one of its allowed states. Time: the
+// network's maximum matching (a greedy over the forbidden states first
+// when there are any) and O(E sqrt(N)) for alpha.
+func Count(g *structural.Network, p structural.Property, forbidden []bool) (*DeviceCount, error) {
 	if forbidden != nil && len(forbidden) != g.N() {
-		return nil, errors.New("structural: forbidden has the wrong length")
+		return nil, errors.New("placement: forbidden has the wrong length")
 	}
-	return countDevices(g, forbidden), nil
+	h := g
+	if p == structural.Observability {
+		h = g.Transpose()
+	}
+	res, devices := countDevices(graphOf(g, p), h.Components(), h.Matching(), forbidden)
+	res.Devices = g.States(devices)
+	return res, nil
 }
 
-// CountSensors is CountActuators for dedicated sensors and structural
-// observability, on the transposed network (sink components instead of
-// source components).
-func CountSensors(g *Network, forbidden []bool) (*DeviceCount, error) {
-	if forbidden != nil && len(forbidden) != g.N() {
-		return nil, errors.New("structural: forbidden has the wrong length")
-	}
-	return countDevices(reversed(g), forbidden), nil
-}
-
-func countDevices(g *Network, forbidden []bool) *DeviceCount {
+func countDevices(g *graph, comps *structural.Components, m *matching.Matching, forbidden []bool) (*DeviceCount, []int32) {
 	n := g.N()
 	isForbidden := func(v int32) bool { return forbidden != nil && forbidden[v] }
 	hasForbidden := false
@@ -76,8 +76,7 @@ func countDevices(g *Network, forbidden []bool) *DeviceCount {
 	res := &DeviceCount{Feasible: true}
 	var rowMate, colMate []int32
 	if !hasForbidden {
-		m := matching.Maximum(&g.Out, &g.In)
-		rowMate, colMate = m.RowMate, m.ColMate
+		rowMate, colMate = slices.Clone(m.RowMate), slices.Clone(m.ColMate)
 	} else {
 		rowMate, colMate = make([]int32, n), make([]int32, n)
 		for i := range rowMate {
@@ -105,8 +104,7 @@ func countDevices(g *Network, forbidden []bool) *DeviceCount {
 			res.Unmatched++
 		}
 	}
-	comps := SCC(&g.Out)
-	src := comps.Sources(&g.Out)
+	src := comps.Source
 	idx := make([]int32, comps.Count)
 	beta := 0
 	for k, s := range src {
@@ -139,7 +137,7 @@ func countDevices(g *Network, forbidden []bool) *DeviceCount {
 		}
 	}
 	if !res.Feasible {
-		return res
+		return res, nil
 	}
 	// The augmented bipartite graph: state rows, then one row per source
 	// component. colMate values >= n name component rows.
@@ -159,10 +157,11 @@ func countDevices(g *Network, forbidden []bool) *DeviceCount {
 			extra[xadj[xptr[j]]] = true
 		}
 	}
+	var devices []int32
 	for v := 0; v < n; v++ {
 		if colMate[v] < 0 || int(colMate[v]) >= n || extra[v] {
-			res.Devices = append(res.Devices, int32(v))
+			devices = append(devices, int32(v))
 		}
 	}
-	return res
+	return res, devices
 }

@@ -1,6 +1,8 @@
-package structural
+package transform
 
 import (
+	"github.com/netsteer/netsteer/structural"
+
 	"errors"
 	"fmt"
 	"math"
@@ -39,15 +41,15 @@ var TransformNames = []struct{ Name, Value string }{
 	{"replicate", "number of copies of the whole network, coupled as chosen"},
 }
 
-// ParseTransform reads "name=value", e.g. "dropout=0.1".
-func ParseTransform(s string) (Transform, error) {
+// Parse reads "name=value", e.g. "dropout=0.1".
+func Parse(s string) (Transform, error) {
 	name, val, ok := strings.Cut(s, "=")
 	if !ok {
-		return Transform{}, fmt.Errorf("structural: transform %q: want name=value", s)
+		return Transform{}, fmt.Errorf("transform: transform %q: want name=value", s)
 	}
 	v, err := strconv.ParseFloat(val, 64)
 	if err != nil {
-		return Transform{}, fmt.Errorf("structural: transform %q: value %q is not a number", s, val)
+		return Transform{}, fmt.Errorf("transform: transform %q: value %q is not a number", s, val)
 	}
 	t := Transform{Name: name, Value: v}
 	return t, t.check()
@@ -56,29 +58,29 @@ func ParseTransform(s string) (Transform, error) {
 func (t Transform) check() error {
 	v := t.Value
 	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return fmt.Errorf("structural: %s=%v is not a finite number", t.Name, v)
+		return fmt.Errorf("transform: %s=%v is not a finite number", t.Name, v)
 	}
 	switch t.Name {
 	case "swap":
 		if v < 0 {
-			return fmt.Errorf("structural: swap=%v: want swaps per edge >= 0", v)
+			return fmt.Errorf("transform: swap=%v: want swaps per edge >= 0", v)
 		}
 	case "rewire", "dropout", "remove", "attack", "loops":
 		if v < 0 || v > 1 {
-			return fmt.Errorf("structural: %s=%v: want a fraction in [0, 1]", t.Name, v)
+			return fmt.Errorf("transform: %s=%v: want a fraction in [0, 1]", t.Name, v)
 		}
 	case "replicate":
 		if v < 1 || v != math.Trunc(v) {
-			return fmt.Errorf("structural: replicate=%v: want a whole number of copies >= 1", v)
+			return fmt.Errorf("transform: replicate=%v: want a whole number of copies >= 1", v)
 		}
 	default:
-		return fmt.Errorf("structural: unknown transform %q (want swap, rewire, dropout, remove, attack, loops or replicate)", t.Name)
+		return fmt.Errorf("transform: unknown transform %q (want swap, rewire, dropout, remove, attack, loops or replicate)", t.Name)
 	}
 	return nil
 }
 
 // Apply returns the variant of g the transform makes, drawing from rng.
-func (t Transform) Apply(g *Network, rng *rand.Rand) (*Network, error) {
+func (t Transform) Apply(g *structural.Network, rng *rand.Rand) (*structural.Network, error) {
 	if err := t.check(); err != nil {
 		return nil, err
 	}
@@ -98,31 +100,24 @@ func (t Transform) Apply(g *Network, rng *rand.Rand) (*Network, error) {
 	case "replicate":
 		return Replicate(g, int(t.Value), t.Coupling)
 	}
-	return nil, fmt.Errorf("structural: unknown transform %q", t.Name)
+	return nil, fmt.Errorf("transform: unknown transform %q", t.Name)
 }
 
 // edgeArrays returns g's edges as parallel slices (and weights, or nil).
-func edgeArrays(g *Network) (src, dst []int32, w []float64) {
+func edgeArrays(g *structural.Network) (src, dst []int32, w []float64) {
 	m := g.Edges()
 	src = make([]int32, m)
 	dst = make([]int32, m)
-	copy(dst, g.Out.Adj)
+	copy(dst, g.Out().Adj)
 	for u := 0; u < g.N(); u++ {
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
 			src[k] = int32(u)
 		}
 	}
-	if g.OutW != nil {
-		w = append([]float64(nil), g.OutW...)
+	if g.Weights() != nil {
+		w = append([]float64(nil), g.Weights()...)
 	}
 	return src, dst, w
-}
-
-// rebuild builds a network on the given names from edge slices, which it
-// takes over.
-func rebuild(names *Names, src, dst []int32, w []float64) (*Network, error) {
-	b := &Builder{names: names, src: src, dst: dst, w: w, weighted: w != nil}
-	return b.Build(BuildOptions{})
 }
 
 // edgeSet is an open-addressing hash set of edges u -> v (linear probing,
@@ -197,4 +192,4 @@ func (s *edgeSet) remove(u, v int32) {
 	s.slot[gap] = emptySlot
 }
 
-var errNoStates = errors.New("structural: the variant has no states left")
+var errNoStates = errors.New("transform: the variant has no states left")

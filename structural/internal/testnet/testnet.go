@@ -1,10 +1,10 @@
-package structural_test
-
-// Test helpers: small networks from edge lists, and a numeric Kalman rank
+// Package testnet holds the helpers that the tests of the structural
+// packages share: small networks from edge lists, and a numeric Kalman rank
 // test on random real realisations of a structure (gonum/mat). This is the
 // independent route the structural answers are checked against: for almost
 // all parameter values the rank of [B AB ... A^(n-1)B] equals its generic
 // value, so a random realisation reveals it with probability one.
+package testnet
 
 import (
 	"math/rand/v2"
@@ -16,15 +16,15 @@ import (
 	"github.com/netsteer/netsteer/structural"
 )
 
-// edge is u -> v (u acts on v).
-type edge struct{ u, v int32 }
+// Edge is u -> v (u acts on v): {u, v}.
+type Edge [2]int32
 
-// network builds a network of n states named 0..n-1.
-func network(t testing.TB, n int, edges []edge) *structural.Network {
+// Network builds a network of n states named 0..n-1.
+func Network(t testing.TB, n int, edges []Edge) *structural.Network {
 	t.Helper()
 	b := structural.NewIntBuilder(n, 0)
 	for _, e := range edges {
-		b.AddEdge(e.u, e.v)
+		b.AddEdge(e[0], e[1])
 	}
 	g, err := b.Build(structural.BuildOptions{})
 	if err != nil {
@@ -33,9 +33,9 @@ func network(t testing.TB, n int, edges []edge) *structural.Network {
 	return g
 }
 
-// randomValue draws a parameter well inside floating-point range and away
+// RandomValue draws a parameter well inside floating-point range and away
 // from zero: uniform on [-2, -0.5] U [0.5, 2].
-func randomValue(rng *rand.Rand) float64 {
+func RandomValue(rng *rand.Rand) float64 {
 	x := 0.5 + 1.5*rng.Float64()
 	if rng.IntN(2) == 0 {
 		return -x
@@ -43,40 +43,40 @@ func randomValue(rng *rand.Rand) float64 {
 	return x
 }
 
-// realiseA returns a random A with A[v][u] != 0 exactly for the edges u -> v
+// RealiseA returns a random A with A[v][u] != 0 exactly for the edges u -> v
 // of g.
-func realiseA(rng *rand.Rand, g *structural.Network) *mat.Dense {
+func RealiseA(rng *rand.Rand, g *structural.Network) *mat.Dense {
 	n := g.N()
 	a := mat.NewDense(n, n, nil)
 	for u := 0; u < n; u++ {
-		for _, v := range g.Out.Row(int32(u)) {
-			a.Set(int(v), u, randomValue(rng))
+		for _, v := range g.Succ(int32(u)) {
+			a.Set(int(v), u, RandomValue(rng))
 		}
 	}
 	return a
 }
 
-// realiseB returns a random n x len(inputs) B whose column i is nonzero
+// RealiseB returns a random n x len(inputs) B whose column i is nonzero
 // exactly on inputs[i].
-func realiseB(rng *rand.Rand, n int, inputs [][]int32) *mat.Dense {
+func RealiseB(rng *rand.Rand, n int, inputs [][]int32) *mat.Dense {
 	if len(inputs) == 0 {
 		return nil
 	}
 	b := mat.NewDense(n, len(inputs), nil)
 	for i, in := range inputs {
 		for _, v := range in {
-			b.Set(int(v), i, randomValue(rng))
+			b.Set(int(v), i, RandomValue(rng))
 		}
 	}
 	return b
 }
 
-// denseB returns a random n x m B with every entry nonzero.
-func denseB(rng *rand.Rand, n, m int) *mat.Dense {
+// DenseB returns a random n x m B with every entry nonzero.
+func DenseB(rng *rand.Rand, n, m int) *mat.Dense {
 	b := mat.NewDense(n, m, nil)
 	for i := 0; i < n; i++ {
 		for j := 0; j < m; j++ {
-			b.Set(i, j, randomValue(rng))
+			b.Set(i, j, RandomValue(rng))
 		}
 	}
 	return b
@@ -92,13 +92,13 @@ const (
 	greyTop    = 1e-7
 )
 
-// kalmanRank returns the numerical rank of the Kalman matrix
+// KalmanRank returns the numerical rank of the Kalman matrix
 // [B AB ... A^(n-1)B] and whether a singular value fell in the grey band.
 // Each column of each block is scaled to unit length before the next
 // multiplication by A, which scales the Kalman columns by positive factors
 // (leaving the rank alone) and keeps the entries near one. Exact zero
 // columns (no walk from the input) stay exact zeros.
-func kalmanRank(a, b *mat.Dense) (int, bool) {
+func KalmanRank(a, b *mat.Dense) (int, bool) {
 	n, _ := a.Dims()
 	if b == nil {
 		return 0, false
@@ -141,12 +141,12 @@ func kalmanRank(a, b *mat.Dense) (int, bool) {
 	return rank, grey
 }
 
-// sampledRank returns the Kalman rank of a random realisation of g with
+// SampledRank returns the Kalman rank of a random realisation of g with
 // inputs drawn by mkB, redrawing borderline samples.
-func sampledRank(t testing.TB, rng *rand.Rand, g *structural.Network, mkB func() *mat.Dense) int {
+func SampledRank(t testing.TB, rng *rand.Rand, g *structural.Network, mkB func() *mat.Dense) int {
 	t.Helper()
 	for try := 0; try < 6; try++ {
-		r, grey := kalmanRank(realiseA(rng, g), mkB())
+		r, grey := KalmanRank(RealiseA(rng, g), mkB())
 		if !grey && r >= 0 {
 			return r
 		}
@@ -155,30 +155,62 @@ func sampledRank(t testing.TB, rng *rand.Rand, g *structural.Network, mkB func()
 	return -1
 }
 
-// patternNetwork builds the network whose edge u -> v is present when bit
+// Pattern builds the network whose edge u -> v is present when bit
 // v*n+u of mask is set (A[v][u] != 0), self-loops included.
-func patternNetwork(t testing.TB, n int, mask uint64) *structural.Network {
-	var es []edge
+func Pattern(t testing.TB, n int, mask uint64) *structural.Network {
+	var es []Edge
 	for v := 0; v < n; v++ {
 		for u := 0; u < n; u++ {
 			if mask>>(uint(v*n+u))&1 != 0 {
-				es = append(es, edge{int32(u), int32(v)})
+				es = append(es, Edge{int32(u), int32(v)})
 			}
 		}
 	}
-	return network(t, n, es)
+	return Network(t, n, es)
 }
 
-// randomNetwork builds a network of n states where each ordered pair
+// Random builds a network of n states where each ordered pair
 // (self-loops included) is an edge with probability p.
-func randomNetwork(t testing.TB, rng *rand.Rand, n int, p float64) *structural.Network {
-	var es []edge
+func Random(t testing.TB, rng *rand.Rand, n int, p float64) *structural.Network {
+	var es []Edge
 	for u := 0; u < n; u++ {
 		for v := 0; v < n; v++ {
 			if rng.Float64() < p {
-				es = append(es, edge{int32(u), int32(v)})
+				es = append(es, Edge{int32(u), int32(v)})
 			}
 		}
 	}
-	return network(t, n, es)
+	return Network(t, n, es)
+}
+
+// Design returns the design of g whose signal i touches signals[i].
+func Design(t testing.TB, g *structural.Network, signals [][]int32) structural.Design {
+	t.Helper()
+	d, err := structural.NewDesign(g, signals, nil)
+	if err != nil {
+		t.Fatalf("NewDesign: %v", err)
+	}
+	return d
+}
+
+// Check judges the design signals of g for property p, failing the test on
+// an error.
+func Check(t testing.TB, g *structural.Network, p structural.Property, signals [][]int32) *structural.Verdict {
+	t.Helper()
+	v, err := structural.Check(g, p, Design(t, g, signals))
+	if err != nil {
+		t.Fatalf("Check: %v", err)
+	}
+	return v
+}
+
+// Dimension returns the generic controllable (observable) dimension of the
+// design signals of g, failing the test on an error.
+func Dimension(t testing.TB, g *structural.Network, p structural.Property, signals [][]int32) int {
+	t.Helper()
+	d, err := structural.Dimension(g, p, Design(t, g, signals))
+	if err != nil {
+		t.Fatalf("Dimension: %v", err)
+	}
+	return d
 }

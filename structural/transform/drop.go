@@ -1,15 +1,16 @@
-package structural
+package transform
 
 import (
+	"github.com/netsteer/netsteer/structural"
+
 	"math"
 	"math/rand/v2"
 	"slices"
-	"strconv"
 )
 
 // DropEdges returns g with each edge removed independently with
 // probability p (random link failures). All states stay.
-func DropEdges(g *Network, p float64, rng *rand.Rand) (*Network, error) {
+func DropEdges(g *structural.Network, p float64, rng *rand.Rand) (*structural.Network, error) {
 	src, dst, w := edgeArrays(g)
 	k := 0
 	for i := range src {
@@ -25,12 +26,12 @@ func DropEdges(g *Network, p float64, rng *rand.Rand) (*Network, error) {
 	if w != nil {
 		w = w[:k]
 	}
-	return rebuild(g.names, src[:k], dst[:k], w)
+	return g.WithEdges(src[:k], dst[:k], w)
 }
 
 // AddSelfLoops returns g with a self-loop added, with probability p, to
 // each state that has none (p = 1: every state gets its own dynamics).
-func AddSelfLoops(g *Network, p float64, rng *rand.Rand) (*Network, error) {
+func AddSelfLoops(g *structural.Network, p float64, rng *rand.Rand) (*structural.Network, error) {
 	src, dst, w := edgeArrays(g)
 	for u := 0; u < g.N(); u++ {
 		if hasLoop(g, int32(u)) || rng.Float64() >= p {
@@ -42,17 +43,17 @@ func AddSelfLoops(g *Network, p float64, rng *rand.Rand) (*Network, error) {
 			w = append(w, 1)
 		}
 	}
-	return rebuild(g.names, src, dst, w)
+	return g.WithEdges(src, dst, w)
 }
 
-func hasLoop(g *Network, u int32) bool {
-	_, ok := slices.BinarySearch(g.Out.Row(u), u)
+func hasLoop(g *structural.Network, u int32) bool {
+	_, ok := slices.BinarySearch(g.Succ(u), u)
 	return ok
 }
 
 // RemoveStates returns g without round(f N) states chosen uniformly at
 // random, and without their edges (random failures of nodes).
-func RemoveStates(g *Network, f float64, rng *rand.Rand) (*Network, error) {
+func RemoveStates(g *structural.Network, f float64, rng *rand.Rand) (*structural.Network, error) {
 	n := g.N()
 	k := removeCount(n, f)
 	order := make([]int32, n)
@@ -69,7 +70,7 @@ func RemoveStates(g *Network, f float64, rng *rand.Rand) (*Network, error) {
 // AttackStates returns g without the round(f N) states of highest total
 // degree (in plus out), ties broken at random: a targeted attack (Albert,
 // Jeong & Barabási, Nature 406:378, 2000).
-func AttackStates(g *Network, f float64, rng *rand.Rand) (*Network, error) {
+func AttackStates(g *structural.Network, f float64, rng *rand.Rand) (*structural.Network, error) {
 	n := g.N()
 	k := removeCount(n, f)
 	tie := make([]uint32, n)
@@ -78,7 +79,7 @@ func AttackStates(g *Network, f float64, rng *rand.Rand) (*Network, error) {
 		order[i] = int32(i)
 		tie[i] = rng.Uint32()
 	}
-	deg := func(v int32) int { return g.Out.Degree(v) + g.In.Degree(v) }
+	deg := func(v int32) int { return len(g.Succ(v)) + len(g.Pred(v)) }
 	slices.SortFunc(order, func(a, b int32) int {
 		if da, db := deg(a), deg(b); da != db {
 			return db - da
@@ -100,7 +101,7 @@ func removeCount(n int, f float64) int {
 
 // withoutStates returns g less the listed states and their edges; the
 // survivors keep their names and their order.
-func withoutStates(g *Network, gone []int32) (*Network, error) {
+func withoutStates(g *structural.Network, gone []int32) (*structural.Network, error) {
 	n := g.N()
 	if len(gone) >= n {
 		return nil, errNoStates
@@ -109,18 +110,18 @@ func withoutStates(g *Network, gone []int32) (*Network, error) {
 	for _, v := range gone {
 		newID[v] = -1
 	}
-	names := NewNames()
+	b := structural.NewBuilder()
 	var buf []byte
 	for v := 0; v < n; v++ {
 		if newID[v] < 0 {
 			continue
 		}
-		if g.names.ints {
-			buf = strconv.AppendInt(buf[:0], int64(v+g.names.base), 10)
-		} else {
-			buf = append(buf[:0], g.names.bytesOf(int32(v))...)
+		buf = g.AppendName(buf[:0], int32(v))
+		id, err := b.Intern(buf)
+		if err != nil {
+			return nil, err
 		}
-		newID[v] = names.Intern(buf)
+		newID[v] = id
 	}
 	var src, dst []int32
 	var w []float64
@@ -128,17 +129,18 @@ func withoutStates(g *Network, gone []int32) (*Network, error) {
 		if newID[u] < 0 {
 			continue
 		}
-		for k := g.Out.Ptr[u]; k < g.Out.Ptr[u+1]; k++ {
-			v := g.Out.Adj[k]
+		for k := g.Out().Ptr[u]; k < g.Out().Ptr[u+1]; k++ {
+			v := g.Out().Adj[k]
 			if newID[v] < 0 {
 				continue
 			}
 			src = append(src, newID[u])
 			dst = append(dst, newID[v])
-			if g.OutW != nil {
-				w = append(w, g.OutW[k])
+			if g.Weights() != nil {
+				w = append(w, g.Weights()[k])
 			}
 		}
 	}
-	return rebuild(names, src, dst, w)
+	b.AddEdges(src, dst, w)
+	return b.Build(structural.BuildOptions{})
 }

@@ -1,9 +1,12 @@
-package structural
+package placement
 
 import (
 	"fmt"
 	"math/rand/v2"
 	"testing"
+
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
 // The count formula m + beta - alpha (Pequito, Kar & Aguiar, IEEE TAC
@@ -14,40 +17,40 @@ func TestCountBruteForce(t *testing.T) {
 	rng := rand.New(rand.NewPCG(7, 3))
 	for i := 0; i < 500; i++ {
 		n := 1 + rng.IntN(9)
-		g := plRandom(t, rng, n, []float64{0.08, 0.15, 0.3}[i%3])
-		o := newPlOracle(g)
-		d := randomDevices(rng, n, 0, []float64{0, 0.2, 0.4}[i%3], 0)
+		g := testnet.Random(t, rng, n, []float64{0.08, 0.15, 0.3}[i%3])
+		o := testnet.NewOracle(g)
+		d := testnet.RandomDevices(rng, n, 0, []float64{0, 0.2, 0.4}[i%3], 0)
 		for _, sensors := range []bool{false, true} {
-			count, place := CountActuators, PlaceActuators
+			prop := structural.Controllability
 			if sensors {
-				count, place = CountSensors, PlaceSensors
+				prop = structural.Observability
 			}
 			label := fmt.Sprintf("trial %d (n=%d, sensors=%v)", i, n, sensors)
-			c, err := count(g, d.Forbidden)
+			c, err := Count(g, prop, d.Forbidden)
 			if err != nil {
 				t.Fatal(err)
 			}
-			want := bruteForce(o, sensors, d)
-			if c.Feasible != want.feasible {
-				t.Fatalf("%s: feasible %v, brute force %v", label, c.Feasible, want.feasible)
+			want := testnet.BruteForce(o, sensors, d)
+			if c.Feasible != want.Feasible {
+				t.Fatalf("%s: feasible %v, brute force %v", label, c.Feasible, want.Feasible)
 			}
-			if !want.feasible {
+			if !want.Feasible {
 				continue
 			}
-			if c.Count != want.count || len(c.Devices) != c.Count {
+			if c.Count != want.Count || len(c.Devices.IDs()) != c.Count {
 				t.Fatalf("%s: m+beta-alpha = %d+%d-%d = %d with %d devices, brute force %d",
-					label, c.Unmatched, c.SourceComponents, c.Alpha, c.Count, len(c.Devices), want.count)
+					label, c.Unmatched, c.SourceComponents, c.Alpha, c.Count, len(c.Devices.IDs()), want.Count)
 			}
-			s := maskOf(c.Devices)
-			if sensors && !o.observable(s) || !sensors && !o.controllable(s) {
-				t.Fatalf("%s: set %v fails Lin's theorem", label, c.Devices)
+			s := testnet.MaskOf(c.Devices.IDs())
+			if sensors && !o.Observable(s) || !sensors && !o.Controllable(s) {
+				t.Fatalf("%s: set %v fails Lin's theorem", label, c.Devices.IDs())
 			}
-			pl, err := place(g, d)
+			pl, err := Place(g, prop, d)
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(pl.Devices) != c.Count {
-				t.Fatalf("%s: cost engine places %d, formula %d", label, len(pl.Devices), c.Count)
+			if len(pl.Devices.IDs()) != c.Count {
+				t.Fatalf("%s: cost engine places %d, formula %d", label, len(pl.Devices.IDs()), c.Count)
 			}
 		}
 	}
@@ -82,7 +85,7 @@ func TestCountShapes(t *testing.T) {
 		{"isolated states", 3, nil, 3, 3, 3, 3},
 	} {
 		g := plNet(t, tc.n, tc.edges)
-		c, err := CountActuators(g, nil)
+		c, err := Count(g, structural.Controllability, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -90,9 +93,9 @@ func TestCountShapes(t *testing.T) {
 			t.Errorf("%s: m, beta, alpha, count = %d, %d, %d, %d; want %d, %d, %d, %d",
 				tc.name, c.Unmatched, c.SourceComponents, c.Alpha, c.Count, tc.m, tc.beta, tc.alpha, tc.nd)
 		}
-		o := newPlOracle(g)
-		if want := bruteForce(o, false, Devices{}); want.count != tc.nd {
-			t.Errorf("%s: brute force finds %d, table says %d", tc.name, want.count, tc.nd)
+		o := testnet.NewOracle(g)
+		if want := testnet.BruteForce(o, false, structural.Devices{}); want.Count != tc.nd {
+			t.Errorf("%s: brute force finds %d, table says %d", tc.name, want.Count, tc.nd)
 		}
 	}
 }

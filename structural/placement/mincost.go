@@ -1,4 +1,4 @@
-package structural
+package placement
 
 // This file routes the mandatory unit of every source component through the
 // residual network of the greedy flow (see PlaceActuators), by the
@@ -113,7 +113,7 @@ func (p *placer) route() {
 			}
 			served := len(pending) - k
 			if served == 0 {
-				panic("structural: placement routing made no progress")
+				panic("placement: placement routing made no progress")
 			}
 			pending = pending[:k]
 			multiCost = (work + served - 1) / served
@@ -129,7 +129,7 @@ func (p *placer) route() {
 			work += len(s.settled) + 1
 			s.round++
 			if !p.augmentFrom(int32(2*p.n+1)+pending[done], s) {
-				panic("structural: placement routing made no progress")
+				panic("placement: placement routing made no progress")
 			}
 			done++
 			if done >= 8 && work > 2*done*(multiCost+1) {
@@ -200,7 +200,7 @@ func (p *placer) dijkstra(pending []int32, s *flowState) {
 		}
 	}
 	if dT < 0 {
-		panic("structural: placement routing found no path")
+		panic("placement: placement routing found no path")
 	}
 	// pi += min(dist, dT) for all nodes, stored as pi -= dT - dist for the
 	// nodes settled before T (a uniform shift leaves reduced costs alone).

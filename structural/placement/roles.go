@@ -1,27 +1,38 @@
-package structural
+package placement
 
 import (
 	"cmp"
+	"encoding/json"
 	"slices"
 
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
 )
 
 // DeviceRole says whether a new device of a cheapest placement must be
 // where it is, and where else it could go.
 type DeviceRole struct {
 	// State is the state holding the device (an entry of Added).
-	State int32
+	State int32 `json:"-"`
 	// Forced reports that every cheapest placement has a device on State.
-	Forced bool
+	Forced bool `json:"forced"`
 	// Alternatives are states that could take this device's place on
 	// their own, at the same cost: replacing State by one of them leaves a
 	// cheapest placement. They are listed in increasing order, at most the
 	// number asked for.
-	Alternatives []int32
+	Alternatives structural.States `json:"alternatives"`
 	// More reports that there are further alternatives beyond those
 	// listed.
-	More bool
+	More bool `json:"more_alternatives"`
+}
+
+// MarshalJSON writes the role with the state's name under "state".
+func (r DeviceRole) MarshalJSON() ([]byte, error) {
+	type plain DeviceRole
+	return json.Marshal(struct {
+		State string `json:"state"`
+		plain
+	}{r.Alternatives.NameOf(r.State), plain(r)})
 }
 
 // Roles returns, for every entry of Added in order, whether it is forced
@@ -43,24 +54,24 @@ type DeviceRole struct {
 // one. Time O((N + E) K log K) for K = max, plus one alternating search per
 // such lone device. Roles returns nil for an infeasible placement.
 func (pl *Placement) Roles(max int) []DeviceRole {
-	if !pl.Feasible || len(pl.Added) == 0 {
+	if !pl.Feasible || len(pl.added) == 0 {
 		return nil
 	}
 	if max < 0 {
 		max = 0
 	}
 	p := pl.p
-	forced := p.forced(pl.Added)
+	forced := p.forced(pl.added)
 	alts := p.alternatives(pl, max)
-	out := make([]DeviceRole, len(pl.Added))
-	for i, x := range pl.Added {
+	out := make([]DeviceRole, len(pl.added))
+	for i, x := range pl.added {
 		out[i] = DeviceRole{State: x, Forced: forced[i]}
 		a := alts[i]
 		if len(a) > max {
 			out[i].More = true
 			a = a[:max]
 		}
-		out[i].Alternatives = a
+		out[i].Alternatives = pl.net.States(a)
 	}
 	return out
 }
@@ -114,7 +125,7 @@ func (p *placer) forced(added []int32) []bool {
 			g0.Adj = make([]int32, g0.Ptr[nn])
 		}
 	}
-	comp := SCC(&g0)
+	comp := structural.SCC(&g0)
 	out := make([]bool, len(added))
 	for i, x := range added {
 		out[i] = true
@@ -170,7 +181,7 @@ func (p *placer) alternatives(pl *Placement, max int) [][]int32 {
 			}
 		}
 	}
-	comps := SCC(&h)
+	comps := structural.SCC(&h)
 	eligible := func(y int32) bool { return !inS[y] && !p.isForbidden(y) }
 	less := func(a, b int32) int {
 		if c := cmp.Compare(p.w[a], p.w[b]); c != 0 {
@@ -232,11 +243,11 @@ func (p *placer) alternatives(pl *Placement, max int) [][]int32 {
 			sInComp[j]++
 		}
 	}
-	out := make([][]int32, len(pl.Added))
+	out := make([][]int32, len(pl.added))
 	seen := make([]int32, n)
 	stamp := int32(0)
 	var queue []int32
-	for i, x := range pl.Added {
+	for i, x := range pl.added {
 		j := p.srcIdx[p.comps.Of[x]]
 		c := comps.Of[x]
 		if j < 0 || sInComp[j] > 1 {

@@ -1,28 +1,13 @@
-package structural
+package placement
 
 import (
 	"errors"
-	"fmt"
 	"math"
 	"slices"
 
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
 )
-
-// Devices says where dedicated devices (actuators or sensors, one state
-// each) may go and what a new one costs. Every non-nil slice has one entry
-// per state.
-type Devices struct {
-	// Cost is the cost of a new device on each state, at least 0; nil
-	// means 1 for every state.
-	Cost []int64
-	// Forbidden marks the states that cannot take a device; nil means
-	// none.
-	Forbidden []bool
-	// Existing marks the states that already have a device. Existing
-	// devices are kept and cost nothing.
-	Existing []bool
-}
 
 // Placement is a cheapest set of dedicated devices that makes a network
 // structurally controllable (actuators) or observable (sensors).
@@ -32,43 +17,58 @@ type Devices struct {
 // enough to break ties exactly; see FewestDevices). With unit costs it is
 // the minimum number of devices.
 type Placement struct {
+	// Property is the property the devices provide: actuators for
+	// Controllability, sensors for Observability.
+	Property structural.Property `json:"-"`
 	// Feasible reports whether the allowed states can make the network
 	// structurally controllable (observable).
-	Feasible bool
+	Feasible bool `json:"feasible"`
 	// Devices is the complete set, existing devices included, in
 	// increasing order.
-	Devices []int32
+	Devices structural.States `json:"devices"`
 	// Added lists the new devices, in increasing order.
-	Added []int32
+	Added structural.States `json:"added"`
+	// Existing lists the devices kept, in increasing order.
+	Existing structural.States `json:"existing"`
 	// Cost is the total cost of Added.
-	Cost int64
+	Cost structural.Cost `json:"total_cost"`
 	// FewestDevices reports whether ties in cost were broken exactly
 	// toward fewer devices. It is false only when costs times the number
 	// of states would overflow 64-bit integers.
-	FewestDevices bool
+	FewestDevices bool `json:"fewest_devices"`
 	// Unmatchable lists the states of dilations (contractions, for
 	// sensors) that only devices on forbidden states could remove; Deficit
 	// is how many devices they lack. Both are empty when feasible.
-	Unmatchable []int32
-	Deficit     int
+	Unmatchable structural.States `json:"unmatchable"`
+	Deficit     int               `json:"unmatchable_deficit"`
 	// Unreached lists the source components (sink components, for
 	// sensors) with no state allowed to take a device: nothing can reach
 	// (observe) them.
-	Unreached [][]int32
+	Unreached []structural.States `json:"unreached_components"`
 	// Matched is the size of the matching of the states among themselves
 	// in the returned design.
-	Matched int
+	Matched int `json:"-"`
 
-	p *placer
+	p       *placer
+	net     *structural.Network
+	devices structural.Devices
+	added   []int32
 }
 
 // CostOf returns the cost of a new device on state v as given in
-// Devices.Cost (1 when it was nil).
-func (pl *Placement) CostOf(v int32) int64 { return pl.p.costOf(v) }
+// Devices.Cost (Unit when it was nil).
+func (pl *Placement) CostOf(v int32) structural.Cost { return pl.devices.CostOf(v) }
 
-// PlaceActuators returns a cheapest set of dedicated actuators (each
-// driving one state) that, with the existing ones, makes g structurally
-// controllable under the restrictions of d.
+// IsAdded reports whether v holds a new device of the placement.
+func (pl *Placement) IsAdded(v int32) bool {
+	_, ok := slices.BinarySearch(pl.added, v)
+	return ok
+}
+
+// Place returns a cheapest set of dedicated devices (each on one state)
+// that, with the existing ones, makes g structurally controllable
+// (actuators, for Controllability) or observable (sensors, for
+// Observability) under the restrictions of d.
 //
 // A set S of dedicated actuators is enough exactly when (Lin 1974) every
 // source strongly connected component holds a state of S, and the states
@@ -96,6 +96,9 @@ func (pl *Placement) CostOf(v int32) int64 { return pl.p.costOf(v) }
 //     routed by successive shortest paths (Dijkstra with potentials, then
 //     vertex-disjoint augmentations along zero reduced-cost arcs).
 //
+// Sensors are actuators of the transposed network: sink components take
+// the place of source components and out-neighbours that of in-neighbours.
+//
 // Time: O(K E sqrt(N)) for step 1 in the worst case with K distinct costs
 // (one maximum matching for uniform costs), O(E) for step 2, and
 // O(R (E + N) log N) for step 3, where R <= the number of source components
@@ -105,30 +108,86 @@ func (pl *Placement) CostOf(v int32) int64 { return pl.p.costOf(v) }
 // The result is infeasible when some forbidden states form a dilation that
 // no allowed device can remove, or a source component has no allowed
 // state; the placement then covers everything else.
-func PlaceActuators(g *Network, d Devices) (*Placement, error) {
-	p, err := newPlacer(g, d)
+func Place(g *structural.Network, p structural.Property, d structural.Devices) (*Placement, error) {
+	if err := d.Check(g); err != nil {
+		return nil, err
+	}
+	pr, err := newPlacer(graphOf(g, p), d)
 	if err != nil {
 		return nil, err
 	}
-	return p.solve(), nil
-}
-
-// PlaceSensors returns a cheapest set of dedicated sensors (each measuring
-// one state) that, with the existing ones, makes g structurally observable
-// under the restrictions of d. It is PlaceActuators on the transposed
-// network: sink components take the place of source components and
-// out-neighbours that of in-neighbours.
-func PlaceSensors(g *Network, d Devices) (*Placement, error) {
-	p, err := newPlacer(reversed(g), d)
-	if err != nil {
-		return nil, err
+	h := g
+	if p == structural.Observability {
+		h = g.Transpose()
 	}
-	return p.solve(), nil
+	pr.comps, pr.match = h.Components(), h.Matching()
+	return pr.solve().wrap(g, p, d, g.N()), nil
 }
 
-// reversed returns the transpose of g sharing g's storage.
-func reversed(g *Network) *Network {
-	return &Network{Out: g.In, In: g.Out, names: g.names}
+// graph is the part of a network a placement reads: its rows both ways.
+type graph struct {
+	Out, In matching.CSR
+}
+
+func (g *graph) N() int { return g.Out.Rows }
+
+// graphOf returns the rows of g on which p is controllability.
+func graphOf(g *structural.Network, p structural.Property) *graph {
+	if p == structural.Observability {
+		return &graph{Out: *g.In(), In: *g.Out()}
+	}
+	return &graph{Out: *g.Out(), In: *g.In()}
+}
+
+// raw is a placement in state indices, before it is tied to a network.
+type raw struct {
+	feasible, fewest bool
+	devices, added   []int32
+	cost             int64
+	unmatchable      []int32
+	deficit          int
+	unreached        [][]int32
+	matched          int
+	p                *placer
+}
+
+// wrap ties r to g, keeping only the states below n (a completion's
+// extended network has more).
+func (r *raw) wrap(g *structural.Network, prop structural.Property, d structural.Devices, n int) *Placement {
+	keep := func(ids []int32) []int32 {
+		out := ids[:0:0]
+		for _, v := range ids {
+			if int(v) < n {
+				out = append(out, v)
+			}
+		}
+		return out
+	}
+	devices, added := keep(r.devices), keep(r.added)
+	existing := make([]int32, 0, len(devices)-len(added))
+	k := 0
+	for _, v := range devices {
+		if k < len(added) && added[k] == v {
+			k++
+			continue
+		}
+		existing = append(existing, v)
+	}
+	cost := structural.Cost(r.cost)
+	if d.Cost == nil {
+		cost *= structural.Unit
+	}
+	pl := &Placement{
+		Property: prop, Feasible: r.feasible, FewestDevices: r.fewest,
+		Devices: g.States(devices), Added: g.States(added), Existing: g.States(existing),
+		Cost: cost, Unmatchable: g.States(keep(r.unmatchable)), Deficit: r.deficit,
+		Matched: r.matched, p: r.p, net: g, devices: d, added: added,
+	}
+	pl.Unreached = make([]structural.States, len(r.unreached))
+	for i, c := range r.unreached {
+		pl.Unreached[i] = g.States(c)
+	}
+	return pl
 }
 
 // costLimit bounds the sum of the working costs so that potentials and
@@ -141,16 +200,17 @@ const costLimit = math.MaxInt64 / 8
 // pool P, merged: they are joined by zero-cost arcs both ways), and the
 // mandatory source of source component j is 2n+1+j.
 type placer struct {
-	g         *Network
+	g         *graph
 	n         int
-	cost      []int64 // caller's costs, nil = 1
-	w         []int64 // working cost of a new device on each state
+	cost      []structural.Cost // caller's costs, nil = Unit
+	w         []int64           // working cost of a new device on each state
 	forbidden []bool
 	existing  []bool
 	lexico    bool
 
-	comps  Components
-	srcIdx []int32 // per component: index among source components, -1
+	comps  *structural.Components // given, or found by components
+	match  *matching.Matching     // a maximum matching of g, or nil
+	srcIdx []int32                // per component: index among source components, -1
 	nsrc   int
 	aPtr   []int64 // allowed states of each source component
 	aAdj   []int32
@@ -165,29 +225,22 @@ type placer struct {
 	unreached   [][]int32
 }
 
-func newPlacer(g *Network, d Devices) (*placer, error) {
+// newPlacer sets up a placement on g; d has been checked (Devices.Check)
+// against the states of g (completions add states with existing devices).
+func newPlacer(g *graph, d structural.Devices) (*placer, error) {
 	n := g.N()
-	if d.Cost != nil && len(d.Cost) != n || d.Forbidden != nil && len(d.Forbidden) != n || d.Existing != nil && len(d.Existing) != n {
-		return nil, errors.New("structural: device table length differs from the number of states")
-	}
 	p := &placer{g: g, n: n, cost: d.Cost, forbidden: d.Forbidden, existing: d.Existing}
 	var sum int64
 	for v := 0; v < n; v++ {
 		c := p.costOf(int32(v))
-		if c < 0 {
-			return nil, fmt.Errorf("structural: negative device cost %d on state %s", c, g.Name(int32(v)))
-		}
 		if p.isExisting(int32(v)) {
-			if p.isForbidden(int32(v)) {
-				return nil, fmt.Errorf("structural: state %s has a device but forbids one", g.Name(int32(v)))
-			}
 			continue
 		}
 		if p.isForbidden(int32(v)) {
 			continue
 		}
 		if c > costLimit-sum {
-			return nil, errors.New("structural: device costs too large (their sum overflows)")
+			return nil, errors.New("placement: device costs too large (their sum overflows)")
 		}
 		sum += c
 	}
@@ -209,11 +262,14 @@ func newPlacer(g *Network, d Devices) (*placer, error) {
 	return p, nil
 }
 
+// costOf returns the cost of a device on v: 1 when the caller gave no
+// costs (wrap scales the total to Unit each), so that tie-breaking by
+// count stays exact on the largest networks.
 func (p *placer) costOf(v int32) int64 {
 	if p.cost == nil {
 		return 1
 	}
-	return p.cost[v]
+	return int64(p.cost[v])
 }
 
 func (p *placer) isForbidden(v int32) bool { return p.forbidden != nil && p.forbidden[v] }
@@ -234,7 +290,7 @@ func (p *placer) actuated(v int32) bool {
 	return p.colMate[v] < 0 && !p.dead[v]
 }
 
-func (p *placer) solve() *Placement {
+func (p *placer) solve() *raw {
 	p.components()
 	p.greedy()
 	p.potentials()
@@ -245,8 +301,10 @@ func (p *placer) solve() *Placement {
 // components finds the source components and their allowed states.
 func (p *placer) components() {
 	g, n := p.g, p.n
-	p.comps = SCC(&g.Out)
-	src := p.comps.Sources(&g.Out)
+	if p.comps == nil {
+		p.comps = structural.SCC(&g.Out)
+	}
+	src := p.comps.Source
 	p.srcIdx = make([]int32, p.comps.Count)
 	for k, s := range src {
 		p.srcIdx[k] = -1
@@ -319,8 +377,12 @@ func (p *placer) greedy() {
 		}
 	}
 	if uniform {
-		m := matching.Maximum(&g.Out, &g.In)
-		p.rowMate, p.colMate = m.RowMate, m.ColMate
+		m := p.match
+		if m == nil {
+			m = matching.Maximum(&g.Out, &g.In)
+		}
+		// The flow changes the matching: work on a copy.
+		p.rowMate, p.colMate = slices.Clone(m.RowMate), slices.Clone(m.ColMate)
 		return
 	}
 	p.rowMate = make([]int32, n)
@@ -443,21 +505,21 @@ func (p *placer) potentials() {
 }
 
 // result collects the placement from the final flow.
-func (p *placer) result() *Placement {
-	res := &Placement{p: p, FewestDevices: p.lexico, Deficit: p.deficit, Unmatchable: p.unmatchable, Unreached: p.unreached}
-	res.Feasible = p.deficit == 0 && len(p.unreached) == 0
+func (p *placer) result() *raw {
+	res := &raw{p: p, fewest: p.lexico, deficit: p.deficit, unmatchable: p.unmatchable, unreached: p.unreached}
+	res.feasible = p.deficit == 0 && len(p.unreached) == 0
 	for v := 0; v < p.n; v++ {
 		vv := int32(v)
 		if p.colMate[v] >= 0 {
-			res.Matched++
+			res.matched++
 		}
 		switch {
 		case p.isExisting(vv):
-			res.Devices = append(res.Devices, vv)
+			res.devices = append(res.devices, vv)
 		case p.actuated(vv):
-			res.Devices = append(res.Devices, vv)
-			res.Added = append(res.Added, vv)
-			res.Cost += p.costOf(vv)
+			res.devices = append(res.devices, vv)
+			res.added = append(res.added, vv)
+			res.cost += p.costOf(vv)
 		}
 	}
 	return res

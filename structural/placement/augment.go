@@ -1,4 +1,4 @@
-package structural
+package placement
 
 // sideAdj is the adjacency of the left side of a bipartite graph: left
 // vertices [0, n0) use the primary compressed rows (ptr, adj), and left
