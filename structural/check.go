@@ -56,8 +56,18 @@ type Verdict struct {
 	// subspace (see Dimension); N when Holds.
 	Dimension int `json:"dimension"`
 
-	n int
+	n    int
+	from []int32
 }
+
+// MatchedFrom returns, for each state v, where the maximum matching of
+// [A B] behind the verdict feeds v from: a state u (0..N-1) with u -> v,
+// N+i for signal i, or -1 when v is left without (a dilation member).
+// Followed backwards from the states fed by signals these are the stems,
+// and the matched edges on no stem form cycles: the structure that
+// carries control (Lin's cactus). For observability the edges are those of
+// the transposed network. The slice is shared and must not be modified.
+func (v *Verdict) MatchedFrom() []int32 { return v.from }
 
 // Deficiency returns N - TermRank: the fewest signals that must be added to
 // remove every dilation.
@@ -117,6 +127,7 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	b := inNeighbourCSR(h, inputs)
 	m := matching.Maximum(b, nil)
 	vd.TermRank = m.Size
+	vd.from = m.RowMate
 	if m.Size < n {
 		vd.Dilation = dilationWitness(g, b, m, n, d)
 	}
@@ -246,4 +257,16 @@ func dilationWitness(g *Network, b *matching.CSR, m *matching.Matching, n int, d
 		num[i] = design.Number(x)
 	}
 	return &Dilation{States: g.States(rows), Neighbours: g.States(nb), Signals: sig, SignalNumbers: num}
+}
+
+// MarshalText writes the property's name.
+func (p Property) MarshalText() ([]byte, error) { return []byte(p.String()), nil }
+
+// Device names the dedicated device that provides the property:
+// "actuator" or "sensor".
+func (p Property) Device() string {
+	if p == Observability {
+		return "sensor"
+	}
+	return "actuator"
 }

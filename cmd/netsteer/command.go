@@ -4,8 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
-	"regexp"
 	"sort"
 	"strings"
 
@@ -25,6 +23,8 @@ type env struct {
 	Stdout      io.Writer
 	Stderr      io.Writer
 	StderrIsTTY bool
+	// Width is the width text reports wrap to: the terminal's, or 100.
+	Width int
 }
 
 // status shows what a long step is doing on the last line of a terminal's
@@ -39,15 +39,22 @@ func (e *env) status(format string, args ...any) {
 	}
 }
 
+// warn prints a warning line on standard error.
+func (e *env) warn(format string, args ...any) {
+	fmt.Fprintf(e.Stderr, "netsteer: warning: "+format+"\n", args...)
+}
+
 // command is one subcommand. Each lives in its own file and registers itself
 // from an init function.
 type command struct {
 	name    string
 	summary string // one line for the command list
 	usage   string // full help: synopsis, description, example
-	// run parses its own flags from fs (already holding the help flag) and
-	// returns the exit status.
-	run func(e *env, c *command, fs *pflag.FlagSet, args []string) int
+	// flags registers the command's options on fs and returns the function
+	// that runs it with the remaining arguments. A run returns nil when the
+	// answer is yes, errNo when the answer (already written) is no, and any
+	// other error to be reported.
+	flags func(e *env, fs *pflag.FlagSet) func(args []string) error
 }
 
 var commands = map[string]*command{}
@@ -57,6 +64,19 @@ func register(c *command) {
 		panic("netsteer: command registered twice: " + c.name)
 	}
 	commands[c.name] = c
+}
+
+// errNo reports that the command wrote its answer and the answer is no.
+var errNo = errors.New("the answer is no")
+
+// usageErr is a problem with the command line; it is printed with a pointer
+// to the command's help.
+type usageErr struct{ msg string }
+
+func (u *usageErr) Error() string { return u.msg }
+
+func usagef(format string, args ...any) error {
+	return &usageErr{fmt.Sprintf(format, args...)}
 }
 
 const topUsage = `netsteer: structural controllability of large networks.
@@ -77,7 +97,9 @@ local codes or licensed engineering review.
 func listCommands() string {
 	names := make([]string, 0, len(commands))
 	for n := range commands {
-		names = append(names, n)
+		if !strings.Contains(n, " ") {
+			names = append(names, n)
+		}
 	}
 	sort.Strings(names)
 	var b strings.Builder
@@ -87,8 +109,12 @@ func listCommands() string {
 	return b.String()
 }
 
-// run dispatches args and returns the exit status.
+// run dispatches args and returns the exit status: the one place where
+// errors and answers become statuses.
 func run(e *env, args []string) int {
+	if e.Width <= 0 {
+		e.Width = 100
+	}
 	if len(args) == 0 {
 		fmt.Fprintf(e.Stderr, topUsage, listCommands())
 		return exitError
@@ -97,21 +123,22 @@ func run(e *env, args []string) int {
 	switch name {
 	case "help", "-h", "--help":
 		if len(args) > 1 {
-			if c, ok := commands[args[1]]; ok {
-				// The same text as "netsteer COMMAND --help", options included.
-				fs := pflag.NewFlagSet(c.name, pflag.ContinueOnError)
-				fs.SetOutput(io.Discard)
-				fs.SortFlags = false
-				return c.run(e, c, fs, []string{"--help"})
+			if _, ok := commands[args[1]]; !ok {
+				fmt.Fprintf(e.Stderr, "netsteer: unknown command %q\n", args[1])
+				return exitError
 			}
-			fmt.Fprintf(e.Stderr, "netsteer: unknown command %q\n", args[1])
-			return exitError
+			return run(e, []string{args[1], "--help"})
 		}
 		fmt.Fprintf(e.Stdout, topUsage, listCommands())
 		return exitOK
 	case "version", "--version":
 		fmt.Fprintln(e.Stdout, "netsteer", version())
 		return exitOK
+	}
+	if len(args) > 1 {
+		if sub, ok := commands[name+" "+args[1]]; ok {
+			name, args = sub.name, args[1:]
+		}
 	}
 	c, ok := commands[name]
 	if !ok {
@@ -121,66 +148,59 @@ func run(e *env, args []string) int {
 	fs := pflag.NewFlagSet(name, pflag.ContinueOnError)
 	fs.SetOutput(io.Discard)
 	fs.SortFlags = false
-	return c.run(e, c, fs, args[1:])
-}
-
-// parse parses flags; it prints help or a usage error and reports whether
-// the command should go on (and if not, with which status).
-func parse(e *env, c *command, fs *pflag.FlagSet, args []string) (bool, int) {
 	help := fs.BoolP("help", "h", false, "show this help")
-	err := fs.Parse(args)
+	runFn := c.flags(e, fs)
+	err := fs.Parse(args[1:])
 	if *help || errors.Is(err, pflag.ErrHelp) {
 		fmt.Fprint(e.Stdout, c.usage)
 		fmt.Fprintf(e.Stdout, "\nOptions:\n%s", fs.FlagUsages())
-		return false, exitOK
+		return exitOK
 	}
-	if err != nil {
-		fmt.Fprintf(e.Stderr, "netsteer %s: %v (see netsteer %s --help)\n", c.name, err, c.name)
-		return false, exitError
+	if err == nil {
+		err = runFn(fs.Args())
+	} else {
+		err = &usageErr{err.Error()}
 	}
-	return true, exitOK
-}
-
-// fail prints a one-line error and returns the error status.
-func fail(e *env, err error) int {
-	fmt.Fprintln(e.Stderr, "netsteer: "+userMessage(err.Error()))
+	e.status("")
+	var u *usageErr
+	switch {
+	case err == nil:
+		return exitOK
+	case errors.Is(err, errNo):
+		return exitNo
+	case errors.As(err, &u):
+		fmt.Fprintf(e.Stderr, "netsteer %s: %s (see netsteer %s --help)\n", c.name, oneLine(u.msg), c.name)
+	default:
+		fmt.Fprintln(e.Stderr, "netsteer: "+oneLine(describe(err)))
+	}
 	return exitError
 }
 
-// usageError prints a usage problem for command c.
-func usageError(e *env, c *command, format string, args ...any) int {
-	fmt.Fprintf(e.Stderr, "netsteer %s: %s (see netsteer %s --help)\n", c.name, userMessage(fmt.Sprintf(format, args...)), c.name)
-	return exitError
+// oneLine keeps a message on one line.
+func oneLine(msg string) string {
+	return strings.NewReplacer("\r\n", " ", "\n", " ", "\r", " ").Replace(msg)
 }
 
-// overwritesInput reports an error when the output file out is one of the
-// files the command reads ("-" and "" are never files).
-func overwritesInput(out string, inputs ...string) error {
-	if out == "" || out == "-" {
-		return nil
+// oneArg checks that exactly one network file is given.
+func oneArg(args []string) (string, error) {
+	if len(args) != 1 {
+		return "", usagef("want one network file, got %d arguments", len(args))
 	}
-	ost, err := os.Stat(out)
-	if err != nil {
-		return nil
-	}
-	for _, in := range inputs {
-		if in == "" || in == "-" {
-			continue
-		}
-		if ist, err := os.Stat(in); err == nil && os.SameFile(ost, ist) {
-			return fmt.Errorf("-o %s would overwrite the input file %s", out, in)
-		}
-	}
-	return nil
+	return args[0], nil
 }
 
-// pkgPrefix matches the package names that library errors start with
-// ("structural: ..."), at the start of a message or after a colon.
-var pkgPrefix = regexp.MustCompile(`(^|: )(structural|gen|matching|numeric|netread|netwrite|nodetable|design|sweepcsv|plot|render|htmlreport|fileout): `)
+func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
 
-// userMessage turns a library error into the line a user reads: one
-// line, without the package names, which mean nothing to a user.
-func userMessage(msg string) string {
-	msg = strings.NewReplacer("\r\n", " ", "\n", " ", "\r", " ").Replace(msg)
-	return pkgPrefix.ReplaceAllString(msg, "$1")
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+func capital(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
 }

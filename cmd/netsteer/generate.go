@@ -1,9 +1,6 @@
 package main
 
 import (
-	"bufio"
-	"encoding/csv"
-	"fmt"
 	"io"
 	"strconv"
 	"strings"
@@ -12,7 +9,8 @@ import (
 
 	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/netwrite"
-	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/io/textout"
+	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/gen"
 )
 
@@ -55,7 +53,7 @@ Example:
   netsteer drivers --node-table er.nodes.csv er.edges
   netsteer generate scale-free --nodes 1000000 --mean-degree 6 --gamma-out 2.5 --gamma-in 3 -o sf.mtx
 `,
-	run: runGenerate,
+	flags: generateFlags,
 }
 
 func init() { register(generateCmd) }
@@ -93,184 +91,154 @@ func (m *modelFlags) given() map[string]string {
 	return out
 }
 
-func runGenerate(e *env, c *command, fs *pflag.FlagSet, args []string) int {
+func generateFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	var mf modelFlags
 	mf.register(fs)
 	seed := fs.Uint64("seed", 1, "random seed")
-	output := fs.StringP("output", "o", "", "network file to write (- for standard output)")
-	outFormat := fs.String("output-format", "", "network file format: edges or mtx (default: from the file name)")
-	nodeTable := fs.String("output-node-table", "", "where the node table goes (default: beside the edge list)")
-	format := fs.String("format", "text", "summary format: text, json or csv")
-	if ok, st := parse(e, c, fs, args); !ok {
-		return st
-	}
-	if fs.NArg() != 1 {
-		return usageError(e, c, "want one model (%s), got %d arguments", strings.Join(gen.Models, ", "), fs.NArg())
-	}
-	if *output == "" {
-		return usageError(e, c, "-o FILE is required")
-	}
-	if err := (&outFlags{format: *format}).check(); err != nil {
-		return usageError(e, c, "%v", err)
-	}
-	model := fs.Arg(0)
-	p, err := gen.FromSettings(model, mf.given())
-	if err != nil {
-		return usageError(e, c, "%s", strings.TrimPrefix(err.Error(), "gen: "))
-	}
-	f := netwrite.FormatOf(*output)
-	if *outFormat != "" {
-		if f, err = netwrite.ParseFormat(*outFormat); err != nil {
-			return usageError(e, c, "--output-format: %v", err)
+	var nw netOut
+	nw.register(fs)
+	sf := summaryFlags(fs)
+	return func(args []string) error {
+		if len(args) != 1 {
+			return usagef("want one model (%s), got %d arguments", strings.Join(gen.Models, ", "), len(args))
 		}
-	}
-	if f == netwrite.MatrixMarket && *nodeTable != "" {
-		return usageError(e, c, "--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
-	}
-	rng := gen.NewRand(*seed)
-	var edges int64
-	written := netwrite.Written{Network: *output, Format: f}
-	if f == netwrite.MatrixMarket {
-		g, err := p.Network(rng)
+		if err := nw.check(); err != nil {
+			return err
+		}
+		format, err := sf()
 		if err != nil {
-			return fail(e, err)
+			return err
 		}
-		if written, err = netwrite.WriteFile(*output, g, netwrite.Options{Format: f, Stdout: e.Stdout}); err != nil {
-			return fail(e, err)
+		p, err := gen.FromSettings(args[0], mf.given())
+		if err != nil {
+			return usagef("%s", describe(err))
 		}
-		edges = int64(g.Edges())
-	} else {
-		// Stream the edges straight into the file.
-		err := fileout.Write(*output, e.Stdout, func(w io.Writer) error {
-			return netwrite.Compressed(*output, w, func(w io.Writer) error {
-				ew := netwrite.NewEdgeWriter(w, 1)
-				if err := p.Generate(rng, ew); err != nil {
+		rng := gen.NewRand(*seed)
+		var edges int64
+		written := netwrite.Written{Network: nw.output, Format: nw.format()}
+		if written.Format == netwrite.MatrixMarket {
+			g, err := p.Network(rng)
+			if err != nil {
+				return err
+			}
+			if written, err = netwrite.WriteFile(nw.output, g, netwrite.Options{Format: written.Format, Stdout: e.Stdout}); err != nil {
+				return err
+			}
+			edges = int64(g.Edges())
+		} else {
+			// Stream the edges straight into the file.
+			err := fileout.Write(nw.output, e.Stdout, func(w io.Writer) error {
+				return netwrite.Compressed(nw.output, w, func(w io.Writer) error {
+					if _, err := io.WriteString(w, genComment(p, *seed)); err != nil {
+						return err
+					}
+					ew := netwrite.NewEdgeWriter(w, 1)
+					if err := p.Generate(rng, ew); err != nil {
+						return err
+					}
+					edges = ew.Edges()
+					return ew.Flush()
+				})
+			})
+			if err != nil {
+				return err
+			}
+			if nt := nw.nodeTablePath(); nt != "" {
+				err := fileout.Write(nt, e.Stdout, func(w io.Writer) error { return netwrite.WriteIntNodeTable(w, p.Nodes, 1) })
+				if err != nil {
 					return err
 				}
-				edges = ew.Edges()
-				return ew.Flush()
-			})
-		})
-		if err != nil {
-			return fail(e, err)
-		}
-		nt := *nodeTable
-		if nt == "" && *output != "-" {
-			nt = netwrite.NodeTablePath(*output)
-		}
-		if nt != "" {
-			if nt == *output {
-				return usageError(e, c, "the node table would overwrite %s", *output)
+				written.NodeTable = nt
 			}
-			err := fileout.Write(nt, e.Stdout, func(w io.Writer) error { return netwrite.WriteIntNodeTable(w, p.Nodes, 1) })
-			if err != nil {
-				return fail(e, err)
-			}
-			written.NodeTable = nt
+		}
+		r := analysis.Generated(p, *seed, edges)
+		r.Output, r.NodeTable = written.Network, written.NodeTable
+		return writeSummary(e, format, nw.output == "-", textout.Generate{R: r, EdgeList: written.Format == netwrite.EdgeList})
+	}
+}
+
+// netOut is the network file a command writes (-o), its format and its
+// node table.
+type netOut struct {
+	output, outFormat, nodeTable string
+}
+
+func (n *netOut) register(fs *pflag.FlagSet) {
+	fs.StringVarP(&n.output, "output", "o", "", "network file to write (- for standard output)")
+	fs.StringVar(&n.outFormat, "output-format", "", "network file format: edges or mtx (default: from the file name)")
+	fs.StringVar(&n.nodeTable, "output-node-table", "", "where the node table goes (default: beside the edge list)")
+}
+
+func (n *netOut) check() error {
+	if n.output == "" {
+		return usagef("-o FILE is required")
+	}
+	if n.outFormat != "" {
+		if _, err := netwrite.ParseFormat(n.outFormat); err != nil {
+			return usagef("--output-format: %s", describe(err))
 		}
 	}
-	pred := -1.0
-	if out, in, ok := p.Distributions(); ok {
-		if v, err := structural.CavityDriverFraction(out, in); err == nil {
-			pred = v
-		}
+	if n.format() == netwrite.MatrixMarket && n.nodeTable != "" {
+		return usagef("--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
 	}
-	sum := &genSummary{model: model, p: p, seed: *seed, edges: edges, written: written, predicted: pred}
+	if nt := n.nodeTablePath(); nt != "" && nt == n.output {
+		return usagef("the node table would overwrite %s", n.output)
+	}
+	return nil
+}
+
+func (n *netOut) format() netwrite.Format {
+	if n.outFormat != "" {
+		f, _ := netwrite.ParseFormat(n.outFormat)
+		return f
+	}
+	return netwrite.FormatOf(n.output)
+}
+
+// nodeTablePath is where an edge list's node table goes ("" for none).
+func (n *netOut) nodeTablePath() string {
+	if n.format() == netwrite.MatrixMarket {
+		return ""
+	}
+	if n.nodeTable == "" && n.output != "-" {
+		return netwrite.NodeTablePath(n.output)
+	}
+	return n.nodeTable
+}
+
+// summaryFlags registers --format for a command whose -o is a network
+// file; the summary goes to standard output (standard error when the
+// network does).
+func summaryFlags(fs *pflag.FlagSet) func() (string, error) {
+	format := fs.String("format", "text", "summary format: text, json or csv")
+	return func() (string, error) {
+		f := strings.ToLower(*format)
+		switch f {
+		case "text", "json", "csv":
+			return f, nil
+		}
+		return "", usagef("--format %q: want text, json or csv", *format)
+	}
+}
+
+func writeSummary(e *env, format string, toStderr bool, r report) error {
 	w := e.Stdout
-	if *output == "-" {
+	if toStderr {
 		w = e.Stderr
 	}
-	switch *format {
-	case "json":
-		return genFinish(e, sum.writeJSON(w))
-	case "csv":
-		return genFinish(e, sum.writeCSV(w))
-	}
-	return genFinish(e, sum.writeText(w))
+	of := outFlags{format: format, output: "-"}
+	return of.write(&env{Stdout: w, Width: e.Width}, r)
 }
 
-func genFinish(e *env, err error) int {
-	if err != nil {
-		return fail(e, err)
+// genComment is the first line of a generated edge list: the model, its
+// parameters and the seed, so the file can be made again.
+func genComment(p gen.Params, seed uint64) string {
+	s := "# netsteer generate " + p.Model + " --nodes=" + strconv.Itoa(p.Nodes)
+	if p.Model == "er" || p.Model == "scale-free" {
+		s += " --mean-degree=" + gen.FormatFloat(p.MeanDegree)
 	}
-	return exitOK
-}
-
-type genSummary struct {
-	model     string
-	p         gen.Params
-	seed      uint64
-	edges     int64
-	written   netwrite.Written
-	predicted float64
-}
-
-func (s *genSummary) params() [][2]string {
-	out := [][2]string{}
-	for _, st := range s.p.Settings() {
-		out = append(out, [2]string{st.Name, st.Value})
+	for _, kv := range p.Settings() {
+		s += " --" + strings.ReplaceAll(kv.Name, "_", "-") + "=" + kv.Value
 	}
-	return out
-}
-
-func (s *genSummary) meanDegree() float64 { return 2 * float64(s.edges) / float64(s.p.Nodes) }
-
-func (s *genSummary) writeText(w io.Writer) error {
-	bw := bufio.NewWriter(w)
-	fmt.Fprintf(bw, "Wrote %s: %s, %s (model %s, mean degree <k> = 2L/N = %.4g).\n",
-		s.written.Network, count(s.p.Nodes, "state", "states"), count(int(s.edges), "edge", "edges"), s.model, s.meanDegree())
-	if s.written.NodeTable != "" {
-		fmt.Fprintf(bw, "Node table with all %d states: %s (read back with --node-table %s).\n", s.p.Nodes, s.written.NodeTable, s.written.NodeTable)
-	} else if s.written.Format == netwrite.EdgeList {
-		fmt.Fprintf(bw, "No node table written: states without edges are missing from the edge list.\n")
-	}
-	if s.predicted >= 0 {
-		fmt.Fprintf(bw, "Cavity prediction of the driver fraction for this model: n_D = %.4g (Liu, Slotine & Barabasi 2011).\n", s.predicted)
-	}
-	fmt.Fprintf(bw, "\nseed %d", s.seed)
-	for _, kv := range s.params() {
-		fmt.Fprintf(bw, ", %s %s", kv[0], kv[1])
-	}
-	fmt.Fprintf(bw, "\n\n%s", caution)
-	return bw.Flush()
-}
-
-func (s *genSummary) writeJSON(w io.Writer) error {
-	j := newJSON(bufio.NewWriter(w))
-	j.val("model", s.model)
-	j.int("nodes", s.p.Nodes)
-	j.val("edges", s.edges)
-	j.float("mean_degree", s.meanDegree())
-	j.val("seed", s.seed)
-	params := map[string]string{}
-	for _, kv := range s.params() {
-		params[kv[0]] = kv[1]
-	}
-	j.val("params", params)
-	j.val("output", s.written.Network)
-	j.val("node_table", s.written.NodeTable)
-	if s.predicted >= 0 {
-		j.float("predicted_fraction", s.predicted)
-	} else {
-		j.val("predicted_fraction", nil)
-	}
-	return j.end()
-}
-
-func (s *genSummary) writeCSV(w io.Writer) error {
-	cw := csv.NewWriter(w)
-	pred := ""
-	if s.predicted >= 0 {
-		pred = strconv.FormatFloat(s.predicted, 'g', 10, 64)
-	}
-	var ps []string
-	for _, kv := range s.params() {
-		ps = append(ps, kv[0]+"="+kv[1])
-	}
-	cw.Write([]string{"model", "nodes", "edges", "mean_degree", "seed", "params", "output", "node_table", "predicted_fraction"})
-	cw.Write([]string{s.model, strconv.Itoa(s.p.Nodes), strconv.FormatInt(s.edges, 10),
-		strconv.FormatFloat(s.meanDegree(), 'g', 12, 64), strconv.FormatUint(s.seed, 10),
-		strings.Join(ps, ";"), s.written.Network, s.written.NodeTable, pred})
-	cw.Flush()
-	return cw.Error()
+	return s + " --seed=" + strconv.FormatUint(seed, 10) + "\n"
 }

@@ -57,9 +57,9 @@ func TestGenerateReadBack(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if g.N() != sum.Nodes || g.Edges() != sum.Edges || g.DuplicatesMerged != 0 || g.SelfLoops != 0 {
+		if g.N() != sum.Nodes || g.Edges() != sum.Edges || g.DuplicatesMerged() != 0 || g.SelfLoops() != 0 {
 			t.Errorf("%v: read back N=%d L=%d (merged %d, loops %d), generate said N=%d L=%d",
-				args, g.N(), g.Edges(), g.DuplicatesMerged, g.SelfLoops, sum.Nodes, sum.Edges)
+				args, g.N(), g.Edges(), g.DuplicatesMerged(), g.SelfLoops(), sum.Nodes, sum.Edges)
 		}
 		if want := map[string]int{"er": 5000, "small-world": 3000, "regular": 3000, "grid": 1000, "tree": 999, "scale-free": 5000}[args[0]]; sum.Nodes != want {
 			t.Errorf("%v: N=%d, want %d", args, sum.Nodes, want)

@@ -12,6 +12,7 @@ func main() {
 		Stdout:      os.Stdout,
 		Stderr:      os.Stderr,
 		StderrIsTTY: isTerminal(os.Stderr),
+		Width:       terminalWidth(os.Stdout),
 	}
 	os.Exit(run(e, os.Args[1:]))
 }

@@ -3,12 +3,12 @@ package main
 import (
 	"errors"
 	"fmt"
-	"io"
 	"strings"
 	"time"
 
 	"github.com/spf13/pflag"
 
+	"github.com/netsteer/netsteer/io/design"
 	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/io/nodetable"
@@ -17,31 +17,23 @@ import (
 
 // netFlags are the options of every command that reads a network.
 type netFlags struct {
+	e            *env
 	format       string
 	undirected   bool
 	selfDynamics bool
 	nodeTable    string
-
-	// table is the node table read by load (nil without --node-table);
-	// its states are added to the network. load prints its warnings
-	// (unknown columns, listed states in no edge) and, on a terminal, its
-	// progress to e.Stderr.
-	table *nodetable.Table
-	e     *env
 }
 
-// register adds the flags to fs; load reports to e.Stderr.
-func (f *netFlags) register(fs *pflag.FlagSet, e *env) {
+func (f *netFlags) register(e *env, fs *pflag.FlagSet) {
 	f.e = e
-	fs.Var(formatFlag{&f.format}, "input-format", "network format: edges, mtx or dot (default: from the file extension)")
+	fs.Var(formatFlag{&f.format}, "input-format", "network format: edges, mtx or dot (default: by content, then extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
 	fs.StringVar(&f.nodeTable, "node-table", "", "CSV node table: device costs, allowed and existing devices, groups, labels")
 }
 
-// formatFlag is the --input-format value. The name is checked when the flag
-// is parsed, so that a wrong one is a usage error (exit status 2, with the
-// pointer to --help) even before any file is read.
+// formatFlag is --input-format, checked when parsed so that a wrong name is
+// a usage error before any file is read.
 type formatFlag struct{ s *string }
 
 func (v formatFlag) String() string {
@@ -52,10 +44,8 @@ func (v formatFlag) String() string {
 }
 
 func (v formatFlag) Set(s string) error {
-	if s != "" {
-		if _, err := netread.ParseFormat(s); err != nil {
-			return errors.New(strings.TrimPrefix(err.Error(), "netread: "))
-		}
+	if _, err := netread.ParseFormat(s); err != nil {
+		return errors.New(describe(err))
 	}
 	*v.s = s
 	return nil
@@ -63,87 +53,137 @@ func (v formatFlag) Set(s string) error {
 
 func (v formatFlag) Type() string { return "string" }
 
-// options turns the flags into reader options.
-func (f *netFlags) options() (netread.Options, error) {
-	var opt netread.Options
-	if f.format != "" {
-		ff, err := netread.ParseFormat(f.format)
-		if err != nil {
-			return opt, fmt.Errorf("--input-format: %v", err)
-		}
-		opt.Format = ff
-	}
-	opt.Build = structural.BuildOptions{Undirected: f.undirected, SelfDynamics: f.selfDynamics}
-	return opt, nil
+// input is a network read for a command, with its node table.
+type input struct {
+	path  string
+	g     *structural.Network
+	table *nodetable.Table // nil without --node-table
+	readT time.Duration
 }
 
-// load reads the network at path and reports how long it took.
-func (f *netFlags) load(path string, extra func(*netread.Options) error) (*structural.Network, time.Duration, error) {
-	opt, err := f.options()
-	if err != nil {
-		return nil, 0, err
-	}
-	if extra != nil {
-		if err := extra(&opt); err != nil {
-			return nil, 0, err
+// load reads the network at path (and the node table), refusing an output
+// that would overwrite any file the command reads. extra lists the other
+// files the command reads (designs); out is the -o path.
+func (f *netFlags) load(path, out string, weights bool, extra ...string) (*input, error) {
+	reads := append([]string{path, f.nodeTable}, extra...)
+	stdin := 0
+	for _, p := range reads {
+		if p == "-" {
+			stdin++
 		}
 	}
+	if stdin > 1 {
+		return nil, usagef("only one of the files read can be standard input (-)")
+	}
+	if err := fileout.NotAnInput(out, reads...); err != nil {
+		return nil, usagef("%v", describe(err))
+	}
+	opt := netread.Options{Weights: weights, Build: structural.BuildOptions{Undirected: f.undirected, SelfDynamics: f.selfDynamics}}
+	if f.format != "" {
+		opt.Format, _ = netread.ParseFormat(f.format)
+	}
+	in := &input{path: path}
 	if f.nodeTable != "" {
-		t, err := nodetable.ReadFile(f.nodeTable)
+		t, err := f.readTable()
 		if err != nil {
-			return nil, 0, err
+			return nil, err
 		}
-		f.table = t
-		opt.States = append(opt.States, t.Names()...)
+		in.table = t
+		opt.States = t.Names()
 	}
 	start := time.Now()
-	f.e.status("reading %s", path)
-	g, err := netread.ReadFile(path, opt)
+	f.e.status("reading %s", displayFile(path))
+	var err error
+	if path == "-" {
+		in.g, err = netread.Read(f.e.Stdin, "stdin", opt)
+	} else {
+		in.g, err = netread.ReadFile(path, opt)
+	}
 	f.e.status("")
-	if err == nil && f.table != nil {
-		for _, m := range append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...) {
-			fmt.Fprintln(f.e.Stderr, "netsteer: warning: "+m)
+	if err != nil {
+		return nil, err
+	}
+	in.readT = time.Since(start)
+	if in.table != nil {
+		for _, m := range append(append([]string(nil), in.table.Warnings...), in.table.Isolated(in.g)...) {
+			f.e.warn("%s", m)
 		}
 	}
-	return g, time.Since(start), err
+	return in, nil
 }
 
-// outFlags select the output format and file.
-type outFlags struct {
-	format string
-	output string
-}
-
-func (f *outFlags) register(fs *pflag.FlagSet) {
-	fs.StringVar(&f.format, "format", "text", "output format: text, json or csv")
-	fs.StringVarP(&f.output, "output", "o", "-", "write the result to this file (- for standard output)")
-}
-
-func (f *outFlags) check() error {
-	switch f.format {
-	case "text", "json", "csv":
-		return nil
+func (f *netFlags) readTable() (*nodetable.Table, error) {
+	if f.nodeTable == "-" {
+		return nodetable.Read(f.e.Stdin, "stdin")
 	}
-	return fmt.Errorf("--format %q: want text, json or csv", f.format)
+	return nodetable.ReadFile(f.nodeTable)
 }
 
-// formatted is a command result that can print itself in each format.
-type formatted interface {
-	writeText(w io.Writer) error
-	writeJSON(w io.Writer) error
-	writeCSV(w io.Writer) error
+// devices returns the device facts of the node table for property p (zero
+// Devices without a table: unit costs, every state allowed).
+func (in *input) devices(p structural.Property) structural.Devices {
+	if in.table == nil {
+		return structural.Devices{}
+	}
+	if p == structural.Observability {
+		return in.table.Sensors(in.g)
+	}
+	return in.table.Actuators(in.g)
 }
 
-// write prints r in the chosen format to the chosen output, through
-// fileout (temporary file and rename).
-func (f *outFlags) write(e *env, r formatted) error {
-	return fileout.Write(f.output, e.Stdout, func(w io.Writer) error {
-		switch f.format {
-		case "json":
-			return r.writeJSON(w)
-		case "csv":
-			return r.writeCSV(w)
+// design reads a design file for the network; an empty one is an error,
+// as it is most likely the wrong file.
+func (in *input) design(e *env, path string, p structural.Property) (*structural.Design, []design.Signal, error) {
+	var sigs []design.Signal
+	var err error
+	if path == "-" {
+		sigs, err = design.Read(e.Stdin, "stdin", in.g, false)
+	} else {
+		sigs, err = design.ReadFile(path, in.g, false)
+	}
+	if err != nil {
+		return nil, nil, err
+	}
+	if len(sigs) == 0 {
+		what := "inputs"
+		if p == structural.Observability {
+			what = "outputs"
 		}
-		return r.writeText(w)
-	})
+		return nil, nil, &netread.Error{File: displayFile(path), Msg: "no " + what + " in the file"}
+	}
+	d, err := design.Design(in.g, sigs)
+	if err != nil {
+		return nil, nil, err
+	}
+	return &d, sigs, nil
+}
+
+// displayFile names an input file in a text report ("-" is standard input).
+func displayFile(path string) string {
+	if path == "-" {
+		return "standard input"
+	}
+	return path
+}
+
+// describe words an error for a user: reader errors are already
+// "FILE:LINE: message"; typed library errors are put in plain words.
+func describe(err error) string {
+	var ne *netread.Error
+	var te *structural.TooLargeError
+	var se *structural.StateError
+	var ie *fileout.InputError
+	switch {
+	case errors.As(err, &ie):
+		return fmt.Sprintf("-o %s would overwrite %s, which this command reads", ie.Output, ie.Input)
+	case errors.As(err, &ne):
+		return ne.Error()
+	case errors.As(err, &te):
+		return fmt.Sprintf("%s supports at most %d states; the network has %d", te.What, te.Limit, te.States)
+	case errors.As(err, &se):
+		return fmt.Sprintf("state %q: %s", se.State, se.Msg)
+	case errors.Is(err, structural.ErrForeignDesign):
+		return "the design was read for another network"
+	}
+	return strings.TrimSpace(err.Error())
 }

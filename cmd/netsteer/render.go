@@ -1,3 +1,5 @@
+//go:build netsteer_pending
+
 package main
 
 import (
@@ -217,8 +219,8 @@ func analyse(nf *netFlags, pf *pictureFlags, path string, sh showSet, complete b
 		a.actDev, a.senDev = t.Actuators(g), t.Sensors(g)
 	}
 	a.timed("drivers", func() {
-		a.c = structural.SCC(&g.Out)
-		a.ds = structural.DriversFrom(g, matching.Maximum(&g.Out, &g.In), a.c)
+		a.c = structural.SCC(g.Out())
+		a.ds = structural.DriversFrom(g, matching.Maximum(g.Out(), g.In()), a.c)
 	})
 	if pf.inputs != "" {
 		if a.inputs, err = design.ReadFile(pf.inputs, g, false); err != nil {
@@ -268,7 +270,7 @@ func analyse(nf *netFlags, pf *pictureFlags, path string, sh showSet, complete b
 		a.timed("roles", func() {
 			a.roles = structural.NodeRoles(g, a.ds.Matching)
 			t := structural.Transpose(g)
-			a.sensorRoles = structural.NodeRoles(t, matching.Maximum(&t.Out, &t.In))
+			a.sensorRoles = structural.NodeRoles(t, matching.Maximum(t.Out(), t.In()))
 		})
 	}
 	return a, nil

@@ -1,3 +1,5 @@
+//go:build netsteer_pending
+
 package main
 
 import (
@@ -283,8 +285,8 @@ func (a *analysis) answers(r *htmlreport.Review, pf *pictureFlags) {
 		Headline: fmt.Sprintf("%d %s, %d %s; %d independent control %s needed (N_D).", n, plural(n, "state", "states"), g.Edges(), plural(g.Edges(), "edge", "edges"), nd, plural(nd, "signal", "signals")),
 		Facts: []htmlreport.Fact{
 			fact("States", strconv.Itoa(n)),
-			fact("Edges", fmt.Sprintf("%d (%d self-loops, %d repeats merged)", g.Edges(), g.SelfLoops, g.DuplicatesMerged)),
-			fact("Strongly connected components", fmt.Sprintf("%d (%d sources)", a.c.Count, countTrue(a.c.Sources(&g.Out)))),
+			fact("Edges", fmt.Sprintf("%d (%d self-loops, %d repeats merged)", g.Edges(), g.SelfLoops(), g.DuplicatesMerged())),
+			fact("Strongly connected components", fmt.Sprintf("%d (%d sources)", a.c.Count, countTrue(a.c.Sources(g.Out())))),
 			fact("Driver nodes N_D", fmt.Sprintf("%d (fraction %.4f)", nd, float64(nd)/float64(n))),
 		},
 	})

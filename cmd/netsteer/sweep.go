@@ -1,25 +1,23 @@
 package main
 
 import (
-	"bufio"
 	"context"
 	"errors"
 	"fmt"
 	"io"
-	"math"
 	"os"
 	"os/signal"
 	"path/filepath"
-	"slices"
 	"strings"
 	"syscall"
 	"time"
 
 	"github.com/spf13/pflag"
 
+	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/plot"
 	"github.com/netsteer/netsteer/io/sweepcsv"
-	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/io/textout"
 )
 
 var sweepCmd = &command{
@@ -58,22 +56,22 @@ Example:
   netsteer sweep --model er --nodes 100000 --mean-degree 1:10:0.5 --shard 3/8 -o part3.csv
   netsteer sweep merge part*.csv -o all.csv
 `,
-	run: runSweep,
+	flags: sweepFlags,
 }
 
-func init() { register(sweepCmd) }
+func init() {
+	register(sweepCmd)
+	register(&command{name: "sweep merge", usage: sweepCmd.usage, flags: sweepMergeFlags})
+}
 
-func runSweep(e *env, c *command, fs *pflag.FlagSet, args []string) int {
-	if len(args) > 0 && args[0] == "merge" {
-		return runSweepMerge(e, c, fs, args[1:])
-	}
+func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	var mf modelFlags
 	var nf netFlags
 	var cf couplingFlags
 	model := fs.String("model", "", "model to generate: er, scale-free, small-world, regular, grid or tree")
 	base := fs.String("base", "", "sweep variants of this network instead of a model")
 	mf.register(fs)
-	nf.register(fs, e)
+	nf.register(e, fs)
 	cf.register(fs)
 	specs := fs.StringArray("transform", nil, "NAME=VALUES, applied in order (repeatable)")
 	replicates := fs.Int("replicates", 1, "networks per grid point")
@@ -83,127 +81,95 @@ func runSweep(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	output := fs.StringP("output", "o", "", "CSV file to write and resume (- for standard output)")
 	plotPath := fs.String("plot", "", "also draw the rows to this .svg or .png file")
 	noTiming := fs.Bool("no-timing", false, "write 0 in the seconds column, so that reruns give byte-identical files")
-	if ok, st := parse(e, c, fs, args); !ok {
-		return st
-	}
-	if fs.NArg() != 0 {
-		return usageError(e, c, "unexpected argument %q", fs.Arg(0))
-	}
-	if (*model == "") == (*base == "") {
-		return usageError(e, c, "give --model or --base (one of them)")
-	}
-	if *output == "" {
-		return usageError(e, c, "-o FILE is required")
-	}
-	if *replicates < 1 {
-		return usageError(e, c, "--replicates must be at least 1")
-	}
-	if *plotPath != "" {
-		if ext := strings.ToLower(filepath.Ext(*plotPath)); ext != ".svg" && ext != ".png" {
-			return usageError(e, c, "--plot %s: want a .svg or .png file", *plotPath)
+	return func(args []string) error {
+		switch {
+		case len(args) != 0:
+			return usagef("unexpected argument %q", args[0])
+		case (*model == "") == (*base == ""):
+			return usagef("give --model or --base (one of them)")
+		case *output == "":
+			return usagef("-o FILE is required")
+		case *replicates < 1:
+			return usagef("--replicates must be at least 1")
 		}
-	}
-	if !slices.Contains(structural.CouplingPatterns, cf.pattern) {
-		return usageError(e, c, "--coupling %q: want %s", cf.pattern, strings.Join(structural.CouplingPatterns, ", "))
-	}
-	pl := &sweepcsv.Plan{Model: *model, Replicates: *replicates, Seed: *seed, Coupling: cf.coupling()}
-	if *model != "" {
-		axes, err := sweepcsv.ModelAxes(*model, mf.given())
-		if err != nil {
-			return usageError(e, c, "%s", strings.TrimPrefix(err.Error(), "sweepcsv: "))
+		if err := checkPlot(*plotPath); err != nil {
+			return err
 		}
-		pl.Axes = axes
-	} else {
-		if len(mf.given()) > 0 {
-			return usageError(e, c, "model options do not apply to --base sweeps")
+		if _, err := cf.transforms(nil); err != nil {
+			return err // the coupling pattern is checked there
 		}
-		if len(*specs) == 0 {
-			return usageError(e, c, "--base needs at least one --transform NAME=VALUES")
+		pl := &sweepcsv.Plan{Model: *model, Replicates: *replicates, Seed: *seed}
+		pl.Coupling.Pattern, pl.Coupling.TwoWay, pl.Coupling.States = cf.pattern, cf.twoWay, cf.states
+		if *model != "" {
+			axes, err := sweepcsv.ModelAxes(*model, mf.given())
+			if err != nil {
+				return usagef("%s", describe(err))
+			}
+			pl.Axes = axes
+		} else if len(mf.given()) > 0 {
+			return usagef("model options do not apply to --base sweeps")
+		} else if len(*specs) == 0 {
+			return usagef("--base needs at least one --transform NAME=VALUES")
 		}
-	}
-	for _, s := range *specs {
-		ax, err := sweepcsv.TransformAxis(s)
-		if err != nil {
-			return usageError(e, c, "--transform: %s", strings.TrimPrefix(strings.TrimPrefix(err.Error(), "sweepcsv: "), "structural: "))
+		for _, s := range *specs {
+			ax, err := sweepcsv.TransformAxis(s)
+			if err != nil {
+				return usagef("--transform: %s", describe(err))
+			}
+			pl.Axes = append(pl.Axes, ax)
 		}
-		pl.Axes = append(pl.Axes, ax)
-	}
-	opt := sweepcsv.RunOptions{Output: *output, Stdout: e.Stdout, Workers: *workers, NoTiming: *noTiming}
-	if *shard != "" {
-		sh, err := sweepcsv.ParseShard(*shard)
-		if err != nil {
-			return usageError(e, c, "--shard: %s", strings.TrimPrefix(err.Error(), "sweepcsv: "))
+		opt := sweepcsv.RunOptions{Output: *output, Stdout: e.Stdout, Workers: *workers, NoTiming: *noTiming}
+		if *shard != "" {
+			var err error
+			if opt.Shard, err = sweepcsv.ParseShard(*shard); err != nil {
+				return usagef("--shard: %s", describe(err))
+			}
 		}
-		opt.Shard = sh
-	}
-	if *base != "" {
-		g, _, err := nf.load(*base, nil)
-		if err != nil {
-			return fail(e, err)
-		}
-		pl.Base, pl.BaseName = g, filepath.Base(*base)
-	}
-	if e.StderrIsTTY {
-		opt.Progress = progressBar(e.Stderr)
-	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
-	defer stop()
-	res, err := pl.Run(ctx, opt)
-	if opt.Progress != nil {
-		fmt.Fprintln(e.Stderr)
-	}
-	if errors.Is(err, context.Canceled) {
-		fmt.Fprintf(e.Stderr, "netsteer: interrupted; %d rows are saved in %s; run the same command again to finish\n", res.Computed+res.Skipped, *output)
-		return exitError
-	}
-	if err != nil {
-		return fail(e, err)
-	}
-	if *plotPath != "" {
-		title := "driver fraction, model " + *model
 		if *base != "" {
-			title = "driver fraction, variants of " + filepath.Base(*base)
+			in, err := nf.load(*base, *output, false)
+			if err != nil {
+				return err
+			}
+			pl.Base, pl.BaseName = in.g, filepath.Base(*base)
 		}
-		if err := plot.WriteFile(*plotPath, res.Rows, title); err != nil {
-			return fail(e, err)
+		if e.StderrIsTTY {
+			opt.Progress = progressBar(e.Stderr)
 		}
+		ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+		defer stop()
+		res, err := pl.Run(ctx, opt)
+		if opt.Progress != nil {
+			fmt.Fprintln(e.Stderr)
+		}
+		if errors.Is(err, context.Canceled) {
+			return fmt.Errorf("interrupted; %d rows are saved in %s; run the same command again to finish", res.Computed+res.Skipped, *output)
+		}
+		if err != nil {
+			return err
+		}
+		if *plotPath != "" {
+			title := "driver fraction, model " + *model
+			if *base != "" {
+				title = "driver fraction, variants of " + filepath.Base(*base)
+			}
+			if err := plot.WriteFile(*plotPath, res.Rows, title); err != nil {
+				return err
+			}
+		}
+		if *output == "-" {
+			return nil
+		}
+		return writeSummary(e, "text", false, textout.Sweep{R: res, Output: *output, Plot: *plotPath})
 	}
-	if *output == "-" {
-		return exitOK
-	}
-	return genFinish(e, writeSweepSummary(e.Stdout, *output, *plotPath, res))
 }
 
-// writeSweepSummary prints the answer first: measured mean against
-// prediction at each grid point.
-func writeSweepSummary(w io.Writer, path, plotPath string, res *sweepcsv.Result) error {
-	bw := bufio.NewWriter(w)
-	fmt.Fprintf(bw, "Wrote %d %s to %s (%d computed now, %d already there", len(res.Rows), plural(len(res.Rows), "row", "rows"), path, res.Computed, res.Skipped)
-	if res.Share != 0 && res.Share != res.Computed+res.Skipped {
-		fmt.Fprintf(bw, "; this share has %d", res.Share)
-	}
-	fmt.Fprintf(bw, ").\n")
-	if plotPath != "" {
-		fmt.Fprintf(bw, "Plot: %s\n", plotPath)
-	}
-	xName, series, err := plot.Aggregate(res.Rows)
-	if err == nil {
-		fmt.Fprintf(bw, "\n%-28s %10s %10s %10s %4s\n", strings.TrimPrefix(xName, "+"), "measured", "s.e.", "predicted", "reps")
-		for _, s := range series {
-			if s.Label != "" {
-				fmt.Fprintf(bw, "%s\n", s.Label)
-			}
-			for _, p := range s.Points {
-				pred := "-"
-				if !math.IsNaN(p.Predicted) {
-					pred = fmt.Sprintf("%.4f", p.Predicted)
-				}
-				fmt.Fprintf(bw, "%-28.6g %10.4f %10.4f %10s %4d\n", p.X, p.Mean, p.StdErr, pred, p.Replicates)
-			}
+func checkPlot(path string) error {
+	if path != "" {
+		if ext := strings.ToLower(filepath.Ext(path)); ext != ".svg" && ext != ".png" {
+			return usagef("--plot %s: want a .svg or .png file", path)
 		}
 	}
-	fmt.Fprintf(bw, "\n%s", caution)
-	return bw.Flush()
+	return nil
 }
 
 // progressBar returns a progress callback drawing a bar on a terminal, at
@@ -230,32 +196,37 @@ func progressBar(w io.Writer) func(done, total int) {
 	}
 }
 
-func runSweepMerge(e *env, c *command, fs *pflag.FlagSet, args []string) int {
+func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	output := fs.StringP("output", "o", "", "merged CSV file (- for standard output)")
 	plotPath := fs.String("plot", "", "also draw the merged rows to this .svg or .png file")
-	if ok, st := parse(e, c, fs, args); !ok {
-		return st
-	}
-	if fs.NArg() == 0 {
-		return usageError(e, c, "merge wants one or more sweep files")
-	}
-	if *output == "" {
-		return usageError(e, c, "-o FILE is required")
-	}
-	rows, err := sweepcsv.MergeFiles(fs.Args()...)
-	if err != nil {
-		return fail(e, errors.New(strings.TrimPrefix(err.Error(), "sweepcsv: ")))
-	}
-	if err := sweepcsv.WriteFile(*output, rows, e.Stdout); err != nil {
-		return fail(e, err)
-	}
-	if *plotPath != "" {
-		if err := plot.WriteFile(*plotPath, rows, "driver fraction"); err != nil {
-			return fail(e, err)
+	return func(args []string) error {
+		if len(args) == 0 {
+			return usagef("merge wants one or more sweep files")
 		}
+		if *output == "" {
+			return usagef("-o FILE is required")
+		}
+		if err := checkPlot(*plotPath); err != nil {
+			return err
+		}
+		if err := fileout.NotAnInput(*output, args...); err != nil {
+			return usagef("%s", describe(err))
+		}
+		rows, err := sweepcsv.MergeFiles(args...)
+		if err != nil {
+			return err
+		}
+		if err := sweepcsv.WriteFile(*output, rows, e.Stdout); err != nil {
+			return err
+		}
+		if *plotPath != "" {
+			if err := plot.WriteFile(*plotPath, rows, "driver fraction"); err != nil {
+				return err
+			}
+		}
+		if *output != "-" {
+			fmt.Fprintf(e.Stdout, "Merged %d %s into %s: %d %s.\n", len(args), plural(len(args), "file", "files"), *output, len(rows), plural(len(rows), "row", "rows"))
+		}
+		return nil
 	}
-	if *output != "-" {
-		fmt.Fprintf(e.Stdout, "Merged %d %s into %s: %d %s.\n", fs.NArg(), plural(fs.NArg(), "file", "files"), *output, len(rows), plural(len(rows), "row", "rows"))
-	}
-	return exitOK
 }

@@ -1,3 +1,5 @@
+//go:build netsteer_pending
+
 package main
 
 import (
@@ -475,7 +477,7 @@ func (v *verifyResult) writeText(w io.Writer) error {
 		}
 		warn = append(warn, v.warnings(p)...)
 	}
-	fmt.Fprintf(bw, "\nNetwork: %s, %s (%s)", count(rep.N, "state", "states"), count(rep.Edges, "edge", "edges"), count(v.g.SelfLoops, "self-loop", "self-loops"))
+	fmt.Fprintf(bw, "\nNetwork: %s, %s (%s)", count(rep.N, "state", "states"), count(rep.Edges, "edge", "edges"), count(v.g.SelfLoops(), "self-loop", "self-loops"))
 	if v.subnet != "" {
 		fmt.Fprintf(bw, ": the part of %s made of %s (%d of %d states)", v.file, v.subnet, rep.N, v.full)
 	}

@@ -1,11 +1,11 @@
 package transform
 
 import (
-	"github.com/netsteer/netsteer/structural"
-
 	"math"
 	"math/rand/v2"
 	"slices"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // DropEdges returns g with each edge removed independently with

@@ -1,10 +1,10 @@
 package transform
 
 import (
-	"github.com/netsteer/netsteer/structural"
-
 	"fmt"
 	"strconv"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // Coupling says how Replicate links the copies of a unit.

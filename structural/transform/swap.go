@@ -1,11 +1,11 @@
 package transform
 
 import (
-	"github.com/netsteer/netsteer/structural"
-
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // SwapEdges returns a degree-preserving randomisation of g: about perEdge

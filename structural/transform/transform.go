@@ -1,8 +1,6 @@
 package transform
 
 import (
-	"github.com/netsteer/netsteer/structural"
-
 	"errors"
 	"fmt"
 	"math"
@@ -10,12 +8,9 @@ import (
 	"math/rand/v2"
 	"strconv"
 	"strings"
-)
 
-// This file and the other variant*.go files build variants of a network:
-// randomised, thinned, attacked, looped or replicated copies, each a new
-// Network (the original is left as it is). Weights, when present, travel
-// with their edges; new edges get weight 1.
+	"github.com/netsteer/netsteer/structural"
+)
 
 // Transform names one variant operation and its level.
 type Transform struct {
@@ -41,15 +36,20 @@ var TransformNames = []struct{ Name, Value string }{
 	{"replicate", "number of copies of the whole network, coupled as chosen"},
 }
 
+// String writes the transform as Parse reads it: "dropout=0.1".
+func (t Transform) String() string {
+	return t.Name + "=" + strconv.FormatFloat(t.Value, 'g', -1, 64)
+}
+
 // Parse reads "name=value", e.g. "dropout=0.1".
 func Parse(s string) (Transform, error) {
 	name, val, ok := strings.Cut(s, "=")
 	if !ok {
-		return Transform{}, fmt.Errorf("transform: transform %q: want name=value", s)
+		return Transform{}, fmt.Errorf("transform: %q: want name=value", s)
 	}
 	v, err := strconv.ParseFloat(val, 64)
 	if err != nil {
-		return Transform{}, fmt.Errorf("transform: transform %q: value %q is not a number", s, val)
+		return Transform{}, fmt.Errorf("transform: %q: value %q is not a number", s, val)
 	}
 	t := Transform{Name: name, Value: v}
 	return t, t.check()

@@ -1,14 +1,14 @@
 package transform
 
 import (
-	"github.com/netsteer/netsteer/structural"
-
 	"fmt"
 	"math"
 	"math/rand/v2"
 	"sort"
 	"strings"
 	"testing"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 func testRand(seed uint64) *rand.Rand { return rand.New(rand.NewPCG(seed, seed^0x5bd1e995)) }

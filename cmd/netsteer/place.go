@@ -1,0 +1,88 @@
+package main
+
+import (
+	"time"
+
+	"github.com/spf13/pflag"
+
+	"github.com/netsteer/netsteer/io/textout"
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
+)
+
+const placeUsage = `Usage: netsteer %[1]s [options] NET
+
+Finds the cheapest dedicated %[2]s (one state each) that make the network
+structurally %[3]s. %[4]s already in place (the node table's %[5]s
+column) are kept and cost nothing. Without a node table every %[6]s costs 1
+and the answer is the minimum count m + beta - alpha (Pequito, Kar & Aguiar,
+IEEE TAC 2016); with one, the least total cost, then the fewest devices
+(Pequito, Kar & Aguiar, Automatica 2016).
+
+--roles says for each new %[6]s whether every cheapest placement has one
+there (forced), or lists the states that could take its place at the same
+cost (--alternatives bounds the list).
+
+When no placement the node table allows can succeed, the exit status is 1
+and the output names the states or components that block.
+
+Example:
+  netsteer %[1]s testdata/plant/heating.edges
+  netsteer %[1]s --node-table testdata/plant/heating-nodes.csv --roles testdata/plant/heating.edges
+`
+
+func placeCommand(name string, p structural.Property, devices, adjective, column string) *command {
+	return &command{
+		name:    name,
+		summary: "cheapest dedicated " + devices + " that make the network structurally " + adjective,
+		usage:   sprintf(placeUsage, name, devices, adjective, capital(devices), column, p.Device()),
+		flags: func(e *env, fs *pflag.FlagSet) func([]string) error {
+			var nf netFlags
+			var of outFlags
+			nf.register(e, fs)
+			of.register(fs)
+			roles := fs.Bool("roles", false, "say which new "+devices+" are forced and where the others could go instead")
+			alts := fs.Int("alternatives", 10, "with --roles, list at most this many alternatives per "+p.Device())
+			timings := fs.Bool("timings", false, "print stage times on standard error")
+			return func(args []string) error {
+				path, err := oneArg(args)
+				if err != nil {
+					return err
+				}
+				if err := of.resolve(); err != nil {
+					return err
+				}
+				if *alts < 0 {
+					return usagef("--alternatives %d: want 0 or more", *alts)
+				}
+				start := time.Now()
+				in, err := nf.load(path, of.output, false)
+				if err != nil {
+					return err
+				}
+				e.status("placing %s (%d states, %d edges)", devices, in.g.N(), in.g.Edges())
+				r, err := analysis.Place(in.g, analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts})
+				if err != nil {
+					return err
+				}
+				r.File = path
+				finish(&r.Timings, in, start)
+				if err := of.write(e, textout.Place{R: r, Costed: in.table != nil}); err != nil {
+					return err
+				}
+				if *timings {
+					printTimings(e, r.Timings)
+				}
+				if !r.Feasible {
+					return errNo
+				}
+				return nil
+			}
+		},
+	}
+}
+
+func init() {
+	register(placeCommand("actuators", structural.Controllability, "actuators", "controllable", "has_actuator"))
+	register(placeCommand("sensors", structural.Observability, "sensors", "observable", "has_sensor"))
+}

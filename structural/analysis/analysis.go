@@ -1,0 +1,243 @@
+package analysis
+
+import (
+	"time"
+
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/placement"
+)
+
+// Summary describes the network a result is about. File is left to the
+// caller, who knows where the network came from.
+type Summary struct {
+	File             string `json:"file,omitempty"`
+	Nodes            int    `json:"nodes"`
+	Edges            int    `json:"edges"`
+	SelfLoops        int    `json:"self_loops"`
+	DuplicatesMerged int    `json:"duplicates_merged"`
+
+	g *structural.Network
+}
+
+// Network returns the network the result is about.
+func (s Summary) Network() *structural.Network { return s.g }
+
+func summary(g *structural.Network) Summary {
+	return Summary{Nodes: g.N(), Edges: g.Edges(), SelfLoops: g.SelfLoops(), DuplicatesMerged: g.DuplicatesMerged(), g: g}
+}
+
+// DriversRequest says what Drivers computes beyond the driver set.
+type DriversRequest struct {
+	// Roles adds the role of every state across all minimum driver sets
+	// and of every edge across all maximum matchings.
+	Roles bool
+}
+
+// DriversResult is the answer to "how many independent signals, and
+// where?".
+type DriversResult struct {
+	Summary
+	// MatchingSize is |M*|, the size of a maximum matching.
+	MatchingSize int `json:"matching_size"`
+	// DriverCount is N_D = max(N - |M*|, 1).
+	DriverCount int `json:"driver_count"`
+	// DriverFraction is N_D / N.
+	DriverFraction float64 `json:"driver_fraction"`
+	// Drivers are the driver nodes.
+	Drivers structural.States `json:"drivers"`
+	// Inputs is a complete structurally controllable design with N_D
+	// signals: signal i drives Drivers[i] and possibly states of source
+	// components that hold no driver.
+	Inputs structural.Design `json:"inputs"`
+	// NodeRoles and LinkRoles, with DriversRequest.Roles.
+	NodeRoles *structural.NodeRoles `json:"node_roles,omitempty"`
+	LinkRoles *structural.LinkRoles `json:"link_roles,omitempty"`
+	Timings   Timings               `json:"timings"`
+}
+
+// Perfect reports whether the maximum matching is perfect: every state is
+// matched, so one signal suffices and node roles are all redundant.
+func (r *DriversResult) Perfect() bool { return r.MatchingSize == r.Nodes }
+
+// Drivers finds the fewest independent control signals, N_D = max(N -
+// |M*|, 1) (Liu, Slotine & Barabási, Nature 473:167, 2011), one set of
+// driver nodes and a complete design that achieves it; with req.Roles, the
+// node and link roles. Time: one maximum matching, one strongly connected
+// components pass, and O(N + E) for the roles.
+func Drivers(g *structural.Network, req DriversRequest) (*DriversResult, error) {
+	r := &DriversResult{Summary: summary(g)}
+	t := time.Now()
+	g.Matching()
+	t = r.Timings.Add("match", t)
+	g.Components()
+	t = r.Timings.Add("components", t)
+	ds := structural.Drivers(g)
+	r.MatchingSize, r.DriverCount = ds.MatchingSize, ds.Count()
+	r.DriverFraction = float64(ds.Count()) / float64(g.N())
+	r.Drivers, r.Inputs = ds.Drivers, ds.Inputs
+	if req.Roles {
+		r.NodeRoles = structural.StateRoles(g)
+		r.LinkRoles = structural.EdgeRoles(g)
+		r.Timings.Add("roles", t)
+	}
+	return r, nil
+}
+
+// CheckRequest is a design to judge: inputs for controllability, outputs
+// for observability (at least one).
+type CheckRequest struct {
+	Inputs, Outputs *structural.Design
+	// Actuators and Sensors give the costs and allowed states of the
+	// dedicated devices that complete a failing design (Existing is not
+	// used: the design says what is in place). Zero values: unit costs,
+	// every state allowed.
+	Actuators, Sensors structural.Devices
+	// SkipCompletion leaves out the cheapest completion of a failing
+	// design (a picture does not show it).
+	SkipCompletion bool
+}
+
+// PropertyResult is the answer for one property of a design: the structural
+// verdict and, when the design fails, its cheapest completion. It has one
+// shape wherever a property is reported.
+type PropertyResult struct {
+	*structural.Verdict
+	// DesignFile names where the design came from; set by the caller.
+	DesignFile string `json:"design_file,omitempty"`
+	// Completion is the cheapest set of dedicated devices to add to a
+	// failing design; nil when the design holds.
+	Completion *placement.Placement `json:"completion,omitempty"`
+}
+
+// CheckResult is the answer to "does this design work, and if not, what
+// is wrong and what fixes it?".
+type CheckResult struct {
+	Summary
+	Controllability *PropertyResult `json:"controllability,omitempty"`
+	Observability   *PropertyResult `json:"observability,omitempty"`
+	Timings         Timings         `json:"timings"`
+}
+
+// Holds reports whether every property asked for holds.
+func (r *CheckResult) Holds() bool {
+	return (r.Controllability == nil || r.Controllability.Holds) && (r.Observability == nil || r.Observability.Holds)
+}
+
+// Properties returns the properties judged, controllability first.
+func (r *CheckResult) Properties() []*PropertyResult {
+	var out []*PropertyResult
+	for _, p := range []*PropertyResult{r.Controllability, r.Observability} {
+		if p != nil {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// ErrNoDesign is returned by Check when the request holds no design.
+var ErrNoDesign = errorString("analysis: no design to check: give inputs, outputs or both")
+
+type errorString string
+
+func (e errorString) Error() string { return string(e) }
+
+// Check judges the designs of req by Lin's theorem (structural.Check), with
+// the generic dimension of a failing design and its cheapest completion by
+// dedicated devices (placement.Complete). Time: one matching per property
+// for a design that holds; a failing one adds the dimension's min-cost
+// flow and the completion's.
+func Check(g *structural.Network, req CheckRequest) (*CheckResult, error) {
+	if req.Inputs == nil && req.Outputs == nil {
+		return nil, ErrNoDesign
+	}
+	r := &CheckResult{Summary: summary(g)}
+	t := time.Now()
+	for _, x := range []struct {
+		p   structural.Property
+		d   *structural.Design
+		dev structural.Devices
+		to  **PropertyResult
+	}{
+		{structural.Controllability, req.Inputs, req.Actuators, &r.Controllability},
+		{structural.Observability, req.Outputs, req.Sensors, &r.Observability},
+	} {
+		if x.d == nil {
+			continue
+		}
+		v, err := structural.Check(g, x.p, *x.d)
+		if err != nil {
+			return nil, err
+		}
+		t = r.Timings.Add("check_"+x.p.String(), t)
+		prop := &PropertyResult{Verdict: v}
+		if !v.Holds && !req.SkipCompletion {
+			dev := x.dev
+			dev.Existing = nil
+			if prop.Completion, err = placement.Complete(g, x.p, *x.d, dev); err != nil {
+				return nil, err
+			}
+			t = r.Timings.Add("complete_"+x.p.String(), t)
+		}
+		*x.to = prop
+	}
+	return r, nil
+}
+
+// PlaceRequest asks for the cheapest dedicated devices for a property.
+type PlaceRequest struct {
+	// Property: Controllability places actuators, Observability sensors.
+	Property structural.Property
+	// Devices gives costs, forbidden states and existing devices.
+	Devices structural.Devices
+	// Roles says for each new device whether every cheapest placement has
+	// it, and lists up to Alternatives states that could take its place.
+	Roles        bool
+	Alternatives int
+}
+
+// PlaceResult is the answer to "where do the cheapest devices go?".
+type PlaceResult struct {
+	Summary
+	Property structural.Property `json:"property"`
+	// Device is "actuator" or "sensor".
+	Device string `json:"device"`
+	*placement.Placement
+	// DeviceCount is the size of the complete set (existing included).
+	DeviceCount int `json:"device_count"`
+	// Count gives the closed form m + beta - alpha when every allowed
+	// state costs the same and no device exists yet; nil otherwise.
+	Count *placement.DeviceCount `json:"count,omitempty"`
+	// Roles, with PlaceRequest.Roles: one entry per added device.
+	Roles   []placement.DeviceRole `json:"roles,omitempty"`
+	Timings Timings                `json:"timings"`
+}
+
+// Place finds the cheapest dedicated devices that make g structurally
+// controllable (actuators) or observable (sensors) under req.Devices
+// (placement.Place), the closed-form count when costs are uniform
+// (placement.Count) and, with req.Roles, the devices' roles.
+func Place(g *structural.Network, req PlaceRequest) (*PlaceResult, error) {
+	r := &PlaceResult{Summary: summary(g), Property: req.Property, Device: req.Property.Device()}
+	t := time.Now()
+	pl, err := placement.Place(g, req.Property, req.Devices)
+	if err != nil {
+		return nil, err
+	}
+	t = r.Timings.Add("place", t)
+	r.Placement, r.DeviceCount = pl, pl.Devices.Len()
+	if req.Devices.Uniform() {
+		c, err := placement.Count(g, req.Property, req.Devices.Forbidden)
+		if err != nil {
+			return nil, err
+		}
+		if c.Feasible {
+			r.Count = c
+		}
+		t = r.Timings.Add("count", t)
+	}
+	if req.Roles {
+		r.Roles = pl.Roles(max(req.Alternatives, 0))
+		r.Timings.Add("roles", t)
+	}
+	return r, nil
+}
