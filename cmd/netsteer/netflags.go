@@ -45,7 +45,11 @@ func (v formatFlag) String() string {
 
 func (v formatFlag) Set(s string) error {
 	if _, err := netread.ParseFormat(s); err != nil {
-		return errors.New(describe(err))
+		names := make([]string, len(netread.Formats))
+		for i, f := range netread.Formats {
+			names[i] = string(f)
+		}
+		return fmt.Errorf("unknown format %q (want %s)", s, strings.Join(names, ", "))
 	}
 	*v.s = s
 	return nil
@@ -166,6 +170,10 @@ func displayFile(path string) string {
 	return path
 }
 
+// messager is a library error that gives its text without the package
+// name.
+type messager interface{ Message() string }
+
 // describe words an error for a user: reader errors are already
 // "FILE:LINE: message"; typed library errors are put in plain words.
 func describe(err error) string {
@@ -184,6 +192,10 @@ func describe(err error) string {
 		return fmt.Sprintf("state %q: %s", se.State, se.Msg)
 	case errors.Is(err, structural.ErrForeignDesign):
 		return "the design was read for another network"
+	}
+	var m messager
+	if errors.As(err, &m) {
+		return m.Message()
 	}
 	return strings.TrimSpace(err.Error())
 }

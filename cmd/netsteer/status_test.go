@@ -27,7 +27,7 @@ func TestStatusOnlyOnTerminal(t *testing.T) {
 			t.Errorf("not a terminal: stderr = %q, want nothing", got)
 		}
 		if tty {
-			for _, want := range []string{"netsteer: reading ", "netsteer: matching (3 states, 2 edges)...", "netsteer: strongly connected components..."} {
+			for _, want := range []string{"netsteer: reading ", "netsteer: matching and components (3 states, 2 edges)..."} {
 				if !strings.Contains(got, want) {
 					t.Errorf("terminal: stderr %q lacks %q", got, want)
 				}

@@ -140,8 +140,6 @@ func orNone(s string) string {
 // network writes the one-line description of the network.
 func (t *tw) network(nodes, edges, loops, merged int) {
 	s := fmt.Sprintf("Network: %s, %s (%s", count(nodes, "state", "states"), count(edges, "edge", "edges"), count(loops, "self-loop", "self-loops"))
-	if merged > 0 {
-		s += fmt.Sprintf(", %s merged", count(merged, "repeated edge", "repeated edges"))
-	}
+	s += fmt.Sprintf(", %s merged", count(merged, "repeated edge", "repeated edges"))
 	t.p("  ", "%s).", s)
 }

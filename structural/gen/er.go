@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math/rand/v2"
 )
 
@@ -15,14 +14,14 @@ import (
 // edge.
 func ER(n int, l int64, rng *rand.Rand, sink Sink) error {
 	if n < 1 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", n, maxStates)
+		return errorf("nodes %d out of range [1, %d]", n, maxStates)
 	}
 	m := uint64(n) * uint64(n-1) // possible edges, no self-loops
 	if l < 0 || uint64(l) > m {
-		return fmt.Errorf("gen: %d edges do not fit in %d states without self-loops or repeats (at most %d)", l, n, m)
+		return errorf("%d edges do not fit in %d states without self-loops or repeats (at most %d)", l, n, m)
 	}
 	if l > maxEdges {
-		return fmt.Errorf("gen: %d edges exceed the limit of %d", l, int64(maxEdges))
+		return errorf("%d edges exceed the limit of %d", l, int64(maxEdges))
 	}
 	if l == 0 {
 		return nil

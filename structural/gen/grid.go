@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"strings"
 )
 
@@ -46,11 +45,11 @@ func ParseDirections(s string) (Direction, error) {
 			}
 		}
 		if !found {
-			return 0, fmt.Errorf("gen: grid direction %q: want right, left, down, up or all", f)
+			return 0, errorf("grid direction %q: want right, left, down, up or all", f)
 		}
 	}
 	if d == 0 {
-		return 0, fmt.Errorf("gen: no grid direction given")
+		return 0, errorf("no grid direction given")
 	}
 	return d, nil
 }
@@ -73,13 +72,13 @@ func (d Direction) String() string {
 // grid with two-way couplings. Time O(n).
 func Grid(n, width int, dirs Direction, sink Sink) error {
 	if n < 1 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", n, maxStates)
+		return errorf("nodes %d out of range [1, %d]", n, maxStates)
 	}
 	if width < 1 || width > n {
-		return fmt.Errorf("gen: grid width %d out of range [1, %d]", width, n)
+		return errorf("grid width %d out of range [1, %d]", width, n)
 	}
 	if dirs == 0 {
-		return fmt.Errorf("gen: no grid direction given")
+		return errorf("no grid direction given")
 	}
 	for i := 0; i < n; i++ {
 		c := i % width

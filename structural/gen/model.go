@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math"
 	"math/rand/v2"
 	"strconv"
@@ -56,67 +55,67 @@ func (p Params) Check() error {
 		known = known || m == p.Model
 	}
 	if !known {
-		return fmt.Errorf("gen: unknown model %q (want one of er, scale-free, small-world, regular, grid, tree)", p.Model)
+		return errorf("unknown model %q (want one of er, scale-free, small-world, regular, grid, tree)", p.Model)
 	}
 	if p.Nodes < 1 || p.Nodes > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", p.Nodes, maxStates)
+		return errorf("nodes %d out of range [1, %d]", p.Nodes, maxStates)
 	}
 	n := int64(p.Nodes)
 	switch p.Model {
 	case "er", "scale-free":
 		if !(p.MeanDegree >= 0) || math.IsInf(p.MeanDegree, 0) {
-			return fmt.Errorf("gen: mean-degree %v is not a nonnegative number", p.MeanDegree)
+			return errorf("mean-degree %v is not a nonnegative number", p.MeanDegree)
 		}
 		// The most edges without self-loops or repeats; the static model
 		// draws by rejection and is held to half of them.
 		most, what := n*(n-1), "without self-loops or repeats"
 		if p.Model == "scale-free" {
 			if n < 2 {
-				return fmt.Errorf("gen: the scale-free model needs nodes of at least 2, not %d", n)
+				return errorf("the scale-free model needs nodes of at least 2, not %d", n)
 			}
 			for _, x := range []struct {
 				name string
 				v    float64
 			}{{"gamma-out", p.GammaOut}, {"gamma-in", p.GammaIn}} {
 				if !(x.v > 2) {
-					return fmt.Errorf("gen: %s %v must be greater than 2 (inf for none)", x.name, x.v)
+					return errorf("%s %v must be greater than 2 (inf for none)", x.name, x.v)
 				}
 			}
 			most, what = most/2, "in the static model (half of all possible edges)"
 		}
 		l := p.targetEdges()
 		if l > most {
-			return fmt.Errorf("gen: mean-degree %v asks for %d edges; %d states hold at most %d %s, mean-degree %v",
+			return errorf("mean-degree %v asks for %d edges; %d states hold at most %d %s, mean-degree %v",
 				p.MeanDegree, l, n, most, what, FormatFloat(2*float64(most)/float64(n)))
 		}
 		if l > maxEdges {
-			return fmt.Errorf("gen: mean-degree %v asks for %d edges, more than the limit of %d", p.MeanDegree, l, int64(maxEdges))
+			return errorf("mean-degree %v asks for %d edges, more than the limit of %d", p.MeanDegree, l, int64(maxEdges))
 		}
 	case "small-world", "regular":
 		if p.Degree < 0 || int64(p.Degree) > n-1 {
-			return fmt.Errorf("gen: degree %d out of range [0, %d] for %d states", p.Degree, n-1, n)
+			return errorf("degree %d out of range [0, %d] for %d states", p.Degree, n-1, n)
 		}
 		if n*int64(p.Degree) > maxEdges {
-			return fmt.Errorf("gen: degree %d gives %d edges, more than the limit of %d", p.Degree, n*int64(p.Degree), int64(maxEdges))
+			return errorf("degree %d gives %d edges, more than the limit of %d", p.Degree, n*int64(p.Degree), int64(maxEdges))
 		}
 		if p.Model == "small-world" {
 			if p.TwoWay && p.Degree%2 != 0 {
-				return fmt.Errorf("gen: a two-way ring needs an even degree, not %d", p.Degree)
+				return errorf("a two-way ring needs an even degree, not %d", p.Degree)
 			}
 			if !(p.Rewire >= 0 && p.Rewire <= 1) {
-				return fmt.Errorf("gen: rewire %v is not a probability in [0, 1]", p.Rewire)
+				return errorf("rewire %v is not a probability in [0, 1]", p.Rewire)
 			}
 		}
 	case "grid":
 		if p.Width < 0 || int64(p.Width) > n {
-			return fmt.Errorf("gen: width %d out of range [1, %d] for %d states", p.Width, n, n)
+			return errorf("width %d out of range [1, %d] for %d states", p.Width, n, n)
 		}
 		if e := p.EdgeHint(); e > maxEdges {
-			return fmt.Errorf("gen: the grid has %d edges, more than the limit of %d", e, int64(maxEdges))
+			return errorf("the grid has %d edges, more than the limit of %d", e, int64(maxEdges))
 		}
 	case "tree":
 		if p.Branching < 0 {
-			return fmt.Errorf("gen: branching %d is negative", p.Branching)
+			return errorf("branching %d is negative", p.Branching)
 		}
 	}
 	return nil
@@ -178,7 +177,7 @@ func (p Params) Generate(rng *rand.Rand, sink Sink) error {
 	case "tree":
 		return Tree(p.Nodes, p.Branching, p.TwoWay, rng, sink)
 	}
-	return fmt.Errorf("gen: unknown model %q", p.Model)
+	return errorf("unknown model %q", p.Model)
 }
 
 // Network generates the network into a structural.Network. State i is

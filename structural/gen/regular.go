@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math/rand/v2"
 )
 
@@ -30,7 +29,7 @@ func ParseSide(s string) (Side, error) {
 	case "in":
 		return In, nil
 	}
-	return 0, fmt.Errorf("gen: regular side %q: want both, out or in", s)
+	return 0, errorf("regular side %q: want both, out or in", s)
 }
 
 func (s Side) String() string {
@@ -53,13 +52,13 @@ func (s Side) String() string {
 // Time O(n d), memory 4 n d bytes.
 func Regular(n, d int, side Side, rng *rand.Rand, sink Sink) error {
 	if n < 1 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", n, maxStates)
+		return errorf("nodes %d out of range [1, %d]", n, maxStates)
 	}
 	if d < 0 || d > n-1 {
-		return fmt.Errorf("gen: degree %d out of range [0, %d] for %d states", d, n-1, n)
+		return errorf("degree %d out of range [0, %d] for %d states", d, n-1, n)
 	}
 	if int64(n)*int64(d) > maxEdges {
-		return fmt.Errorf("gen: %d edges exceed the limit of %d", int64(n)*int64(d), int64(maxEdges))
+		return errorf("%d edges exceed the limit of %d", int64(n)*int64(d), int64(maxEdges))
 	}
 	if d == 0 {
 		return nil
@@ -137,7 +136,7 @@ func Regular(n, d int, side Side, rng *rand.Rand, sink Sink) error {
 		u := int32(slot / d)
 		for tries := 0; ; tries++ {
 			if tries > 1000000 {
-				return fmt.Errorf("gen: cannot remove self-loops and repeats from a %d-regular network of %d states", d, n)
+				return errorf("cannot remove self-loops and repeats from a %d-regular network of %d states", d, n)
 			}
 			v := out[slot]
 			other := rng.IntN(total)

@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"errors"
 	"math/bits"
 )
 
@@ -29,7 +28,7 @@ func distinct(l int, maxCode uint64, draw func() uint64) ([]uint64, error) {
 		if len(codes) == before {
 			stale++
 			if stale > 1000 {
-				return nil, errors.New("gen: cannot place that many distinct edges (network too dense)")
+				return nil, errorf("cannot place that many distinct edges (network too dense)")
 			}
 		} else {
 			stale = 0

@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math"
 	"math/rand/v2"
 )
@@ -21,16 +20,16 @@ import (
 // (Walker's alias tables), memory about 24 bytes per edge plus 24 per state.
 func ScaleFree(n int, l int64, gammaOut, gammaIn float64, rng *rand.Rand, sink Sink) error {
 	if n < 2 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [2, %d]", n, maxStates)
+		return errorf("nodes %d out of range [2, %d]", n, maxStates)
 	}
 	for _, g := range []float64{gammaOut, gammaIn} {
 		if !(g > 2) {
-			return fmt.Errorf("gen: degree exponent %v must be greater than 2", g)
+			return errorf("degree exponent %v must be greater than 2", g)
 		}
 	}
 	m := uint64(n) * uint64(n-1)
 	if l < 0 || uint64(l) > m/2 || l > maxEdges {
-		return fmt.Errorf("gen: %d edges are too many for a static-model network of %d states (at most %d)", l, n, min(m/2, uint64(maxEdges)))
+		return errorf("%d edges are too many for a static-model network of %d states (at most %d)", l, n, min(m/2, uint64(maxEdges)))
 	}
 	if l == 0 {
 		return nil

@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -77,7 +76,7 @@ func AllParamSpecs() []ParamSpec {
 func FromSettings(model string, values map[string]string) (Params, error) {
 	specs := ParamSpecs(model)
 	if specs == nil {
-		return Params{}, fmt.Errorf("gen: unknown model %q (want one of %s)", model, strings.Join(Models, ", "))
+		return Params{}, errorf("unknown model %q (want one of %s)", model, strings.Join(Models, ", "))
 	}
 	known := map[string]bool{}
 	for _, s := range specs {
@@ -85,7 +84,7 @@ func FromSettings(model string, values map[string]string) (Params, error) {
 	}
 	for name := range values {
 		if !known[name] {
-			return Params{}, fmt.Errorf("gen: %s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
+			return Params{}, errorf("%s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
 		}
 	}
 	p := Params{Model: model}
@@ -93,7 +92,7 @@ func FromSettings(model string, values map[string]string) (Params, error) {
 		v, ok := values[s.Name]
 		if !ok {
 			if s.Default == "" {
-				return Params{}, fmt.Errorf("gen: the %s model needs %s", model, strings.ReplaceAll(s.Name, "_", "-"))
+				return Params{}, errorf("the %s model needs %s", model, strings.ReplaceAll(s.Name, "_", "-"))
 			}
 			v = s.Default
 		}
@@ -106,7 +105,7 @@ func FromSettings(model string, values map[string]string) (Params, error) {
 
 func (p *Params) set(s ParamSpec, v string) error {
 	bad := func() error {
-		return fmt.Errorf("gen: %s %q is not %s", strings.ReplaceAll(s.Name, "_", "-"), v, map[int]string{
+		return errorf("%s %q is not %s", strings.ReplaceAll(s.Name, "_", "-"), v, map[int]string{
 			kindInt: "a whole number", kindFloat: "a number", kindBool: "true or false", kindWord: "valid"}[s.kind])
 	}
 	var iv int
@@ -123,7 +122,7 @@ func (p *Params) set(s ParamSpec, v string) error {
 		}
 		if s.Name == "width" && iv == 0 {
 			// 0 would silently mean auto.
-			return fmt.Errorf("gen: width 0: want a whole number of at least 1, or auto")
+			return errorf("width 0: want a whole number of at least 1, or auto")
 		}
 	case kindFloat:
 		if v == "inf" {

@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math/rand/v2"
 )
 
@@ -14,19 +13,19 @@ import (
 // lattice and p = 1 close to a random network. Time O(n k).
 func SmallWorld(n, k int, p float64, twoWay bool, rng *rand.Rand, sink Sink) error {
 	if n < 1 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", n, maxStates)
+		return errorf("nodes %d out of range [1, %d]", n, maxStates)
 	}
 	if k < 0 || k > n-1 {
-		return fmt.Errorf("gen: ring degree %d out of range [0, %d] for %d states", k, n-1, n)
+		return errorf("ring degree %d out of range [0, %d] for %d states", k, n-1, n)
 	}
 	if twoWay && k%2 != 0 {
-		return fmt.Errorf("gen: a two-way ring needs an even out-degree, not %d", k)
+		return errorf("a two-way ring needs an even out-degree, not %d", k)
 	}
 	if !(p >= 0 && p <= 1) {
-		return fmt.Errorf("gen: rewiring probability %v out of [0, 1]", p)
+		return errorf("rewiring probability %v out of [0, 1]", p)
 	}
 	if int64(n)*int64(k) > maxEdges {
-		return fmt.Errorf("gen: %d edges exceed the limit of %d", int64(n)*int64(k), int64(maxEdges))
+		return errorf("%d edges exceed the limit of %d", int64(n)*int64(k), int64(maxEdges))
 	}
 	if k == 0 {
 		return nil

@@ -1,7 +1,6 @@
 package gen
 
 import (
-	"fmt"
 	"math/rand/v2"
 )
 
@@ -14,10 +13,10 @@ import (
 // leader). Time O(n).
 func Tree(n, branching int, twoWay bool, rng *rand.Rand, sink Sink) error {
 	if n < 1 || n > maxStates {
-		return fmt.Errorf("gen: nodes %d out of range [1, %d]", n, maxStates)
+		return errorf("nodes %d out of range [1, %d]", n, maxStates)
 	}
 	if branching < 0 {
-		return fmt.Errorf("gen: branching %d is negative", branching)
+		return errorf("branching %d is negative", branching)
 	}
 	for i := 1; i < n; i++ {
 		var leader int

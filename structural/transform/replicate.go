@@ -1,7 +1,6 @@
 package transform
 
 import (
-	"fmt"
 	"strconv"
 
 	"github.com/netsteer/netsteer/structural"
@@ -35,10 +34,10 @@ var CouplingPatterns = []string{"chain", "ring", "star", "all", "none"}
 func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, error) {
 	n := g.N()
 	if k < 1 {
-		return nil, fmt.Errorf("transform: replicate %d copies: want at least one", k)
+		return nil, errorf("replicate %d copies: want at least one", k)
 	}
 	if int64(n)*int64(k) > structural.MaxStates {
-		return nil, fmt.Errorf("transform: %d copies of %d states exceed %d states", k, n, structural.MaxStates)
+		return nil, errorf("%d copies of %d states exceed %d states", k, n, structural.MaxStates)
 	}
 	// Count the couplings before building them: "all" grows as k^2.
 	var npairs int64
@@ -63,7 +62,7 @@ func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, e
 	}
 	if copyEdges := int64(g.Edges()) * kk; copyEdges > maxVariantEdges ||
 		ncoupled > 0 && npairs > (maxVariantEdges-copyEdges)/ncoupled {
-		return nil, fmt.Errorf("transform: %d copies of %d edges with %d couplings of %d states exceed %d edges",
+		return nil, errorf("%d copies of %d edges with %d couplings of %d states exceed %d edges",
 			k, g.Edges(), npairs, ncoupled, int64(maxVariantEdges))
 	}
 	var pairs [][2]int // (from copy, to copy), 0-based
@@ -89,7 +88,7 @@ func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, e
 		}
 	case "none":
 	default:
-		return nil, fmt.Errorf("transform: coupling %q: want chain, ring, star, all or none", c.Pattern)
+		return nil, errorf("coupling %q: want chain, ring, star, all or none", c.Pattern)
 	}
 	if c.TwoWay && c.Pattern != "all" {
 		// No reverse repeats a pair: chains and rings run j -> j+1 (and
@@ -108,7 +107,7 @@ func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, e
 		for _, s := range c.States {
 			v, ok := g.Lookup(s)
 			if !ok {
-				return nil, fmt.Errorf("transform: coupling state %q is not in the network", s)
+				return nil, errorf("coupling state %q is not in the network", s)
 			}
 			coupled = append(coupled, v)
 		}
@@ -126,7 +125,7 @@ func Replicate(g *structural.Network, k int, c Coupling) (*structural.Network, e
 		}
 	}
 	if b.States() != n*k {
-		return nil, fmt.Errorf("transform: copy names collide (a state name ends in @<number>)")
+		return nil, errorf("copy names collide (a state name ends in @<number>)")
 	}
 	m := g.Edges()
 	total := m*k + len(pairs)*len(coupled)

@@ -1,7 +1,6 @@
 package transform
 
 import (
-	"fmt"
 	"math"
 	"math/rand/v2"
 
@@ -53,7 +52,7 @@ func RewireEdges(g *structural.Network, p float64, rng *rand.Rand) (*structural.
 	n := g.N()
 	m := len(src)
 	if uint64(m) > uint64(n)*uint64(n-1) {
-		return nil, fmt.Errorf("transform: cannot rewire %d edges among %d states", m, n)
+		return nil, errorf("cannot rewire %d edges among %d states", m, n)
 	}
 	set := newEdgeSet(m)
 	for i := range src {

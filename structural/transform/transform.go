@@ -1,8 +1,6 @@
 package transform
 
 import (
-	"errors"
-	"fmt"
 	"math"
 	"math/bits"
 	"math/rand/v2"
@@ -45,11 +43,11 @@ func (t Transform) String() string {
 func Parse(s string) (Transform, error) {
 	name, val, ok := strings.Cut(s, "=")
 	if !ok {
-		return Transform{}, fmt.Errorf("transform: %q: want name=value", s)
+		return Transform{}, errorf("%q: want name=value", s)
 	}
 	v, err := strconv.ParseFloat(val, 64)
 	if err != nil {
-		return Transform{}, fmt.Errorf("transform: %q: value %q is not a number", s, val)
+		return Transform{}, errorf("%q: value %q is not a number", s, val)
 	}
 	t := Transform{Name: name, Value: v}
 	return t, t.check()
@@ -58,23 +56,23 @@ func Parse(s string) (Transform, error) {
 func (t Transform) check() error {
 	v := t.Value
 	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return fmt.Errorf("transform: %s=%v is not a finite number", t.Name, v)
+		return errorf("%s=%v is not a finite number", t.Name, v)
 	}
 	switch t.Name {
 	case "swap":
 		if v < 0 {
-			return fmt.Errorf("transform: swap=%v: want swaps per edge >= 0", v)
+			return errorf("swap=%v: want swaps per edge >= 0", v)
 		}
 	case "rewire", "dropout", "remove", "attack", "loops":
 		if v < 0 || v > 1 {
-			return fmt.Errorf("transform: %s=%v: want a fraction in [0, 1]", t.Name, v)
+			return errorf("%s=%v: want a fraction in [0, 1]", t.Name, v)
 		}
 	case "replicate":
 		if v < 1 || v != math.Trunc(v) {
-			return fmt.Errorf("transform: replicate=%v: want a whole number of copies >= 1", v)
+			return errorf("replicate=%v: want a whole number of copies >= 1", v)
 		}
 	default:
-		return fmt.Errorf("transform: unknown transform %q (want swap, rewire, dropout, remove, attack, loops or replicate)", t.Name)
+		return errorf("unknown transform %q (want swap, rewire, dropout, remove, attack, loops or replicate)", t.Name)
 	}
 	return nil
 }
@@ -100,7 +98,7 @@ func (t Transform) Apply(g *structural.Network, rng *rand.Rand) (*structural.Net
 	case "replicate":
 		return Replicate(g, int(t.Value), t.Coupling)
 	}
-	return nil, fmt.Errorf("transform: unknown transform %q", t.Name)
+	return nil, errorf("unknown transform %q", t.Name)
 }
 
 // edgeArrays returns g's edges as parallel slices (and weights, or nil).
@@ -192,4 +190,4 @@ func (s *edgeSet) remove(u, v int32) {
 	s.slot[gap] = emptySlot
 }
 
-var errNoStates = errors.New("transform: the variant has no states left")
+var errNoStates = errorf("the variant has no states left")
