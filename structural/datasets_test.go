@@ -2,8 +2,6 @@ package structural_test
 
 import (
 	"math"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/netsteer/netsteer/io/netread"
@@ -11,17 +9,11 @@ import (
 	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
 
-// sharedDatasets is the folder of public networks shared by the project
-// (../shared/datasets from the repository root).
-const sharedDatasets = "../../shared/datasets"
-
-// readShared reads a shared dataset, skipping the test when it is absent.
+// readShared reads a shared dataset (testnet.Dataset: skipped when
+// absent, a failure under CI).
 func readShared(t *testing.T, name string) *structural.Network {
 	t.Helper()
-	path := filepath.Join(sharedDatasets, name)
-	if _, err := os.Stat(path); err != nil {
-		t.Skipf("%s not available: %v", path, err)
-	}
+	path := testnet.Dataset(t, name)
 	g, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatalf("reading %s: %v", path, err)

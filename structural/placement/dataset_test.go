@@ -1,8 +1,6 @@
 package placement_test
 
 import (
-	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/netsteer/netsteer/io/netread"
@@ -18,10 +16,7 @@ import (
 // file). Also: the two placement routes agree on the real network, and the
 // cheapest placement with unit costs passes Lin's theorem.
 func TestRolesWikiVote(t *testing.T) {
-	path := filepath.Join("..", "..", "..", "shared", "datasets", "wiki-vote.edges.gz")
-	if _, err := os.Stat(path); err != nil {
-		t.Skip("shared dataset absent:", path)
-	}
+	path := testnet.Dataset(t, "wiki-vote.edges.gz")
 	g, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatal(err)
