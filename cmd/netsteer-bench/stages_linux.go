@@ -71,8 +71,8 @@ func stagesMain(args []string) {
 		}
 	})
 	var m *matching.Matching
-	out["match"] = best(*runs, func() { m = matching.Maximum(&g.Out, &g.In) })
-	out["components"] = best(*runs, func() { structural.SCC(&g.Out) })
+	out["match"] = best(*runs, func() { m = matching.Maximum(g.Out(), g.In()) })
+	out["components"] = best(*runs, func() { structural.SCC(g.Out()) })
 	out["nodes"], out["edges"], out["matching_size"] = g.N(), g.Edges(), m.Size
 	json.NewEncoder(os.Stdout).Encode(out)
 }
