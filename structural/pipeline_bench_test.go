@@ -5,13 +5,13 @@ import (
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
-	"github.com/netsteer/netsteer/structural/gen/netgen"
+	"github.com/netsteer/netsteer/structural/gen"
 )
 
-// Stage benchmarks of the read-match-decompose pipeline on fixed-seed
-// networks: directed Erdős–Rényi and static-model scale-free (gamma 2.5 and
-// 2.1) with mean total degree 10, and randomly oriented square grids, at
-// 10^4, 10^5 and 10^6 states. Run them with
+// Stage benchmarks of the read-match-decompose pipeline on the fixed-seed
+// workloads of gen.Workload (seed 1): directed Erdős–Rényi and static-model
+// scale-free (gamma 2.5 and 2.1) with mean total degree 10, and right-and-down
+// square grids, at 10^4, 10^5 and 10^6 states. Run them with
 //
 //	go test -run '^$' -bench 'Build|SCC|Drivers' -benchmem ./structural
 //
@@ -21,29 +21,20 @@ import (
 var benchModels = []string{"er", "sf", "sf2.1", "grid"}
 var benchSizes = []int{10_000, 100_000, 1_000_000}
 
-func benchEdges(model string, n int) *netgen.Edges {
-	switch model {
-	case "er":
-		return netgen.ER(n, 10, 1)
-	case "sf":
-		return netgen.ScaleFree(n, 10, 2.5, 1)
-	case "sf2.1":
-		return netgen.ScaleFree(n, 10, 2.1, 1)
+func benchEdges(b *testing.B, model string, n int) *gen.Edges {
+	p, err := gen.Workload(model, n)
+	if err != nil {
+		b.Fatal(err)
 	}
-	side := 1
-	for (side+1)*(side+1) <= n {
-		side++
+	e, err := p.Edges(gen.NewRand(1))
+	if err != nil {
+		b.Fatal(err)
 	}
-	return netgen.Grid(side, 1)
+	return e
 }
 
-func benchNetwork(b *testing.B, e *netgen.Edges) *structural.Network {
-	bl := structural.NewIntBuilder(e.N, 0)
-	bl.Grow(len(e.Src))
-	for i := range e.Src {
-		bl.AddEdge(e.Src[i], e.Dst[i])
-	}
-	g, err := bl.Build(structural.BuildOptions{})
+func benchNetwork(b *testing.B, e *gen.Edges) *structural.Network {
+	g, err := e.Network(0)
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -60,7 +51,7 @@ func BenchmarkBuild(b *testing.B) {
 	for _, model := range benchModels {
 		for _, n := range benchSizes {
 			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
-				e := benchEdges(model, n)
+				e := benchEdges(b, model, n)
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
 					b.StopTimer()
@@ -85,7 +76,7 @@ func BenchmarkSCC(b *testing.B) {
 	for _, model := range benchModels {
 		for _, n := range benchSizes {
 			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
-				g := benchNetwork(b, benchEdges(model, n))
+				g := benchNetwork(b, benchEdges(b, model, n))
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
 					structural.SCC(g.Out())
@@ -102,7 +93,7 @@ func BenchmarkDrivers(b *testing.B) {
 	for _, model := range benchModels {
 		for _, n := range benchSizes {
 			b.Run(fmt.Sprintf("%s/n=%d", model, n), func(b *testing.B) {
-				g := benchNetwork(b, benchEdges(model, n))
+				g := benchNetwork(b, benchEdges(b, model, n))
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
 					// A fresh network each time: Drivers keeps its matching

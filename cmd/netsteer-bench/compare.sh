@@ -3,9 +3,11 @@
 #
 #   bash cmd/netsteer-bench/compare.sh [N] [K]       (default N=1000000, K=10)
 #
-# Workload: a directed Erdos-Renyi network with N states and mean total
-# degree K (N*K/2 edges), written by netsteer-bench gen (seed 1) as a plain text edge
-# list of integer names, plus the same edges as int32 pairs for Python.
+# Workload: a directed Erdos-Renyi network G(N, L) with N states and mean
+# total degree K, L = N*K/2 distinct edges without self-loops (structural/gen,
+# gen.Workload("er", N), seed 1: what `netsteer generate` gives users),
+# written by netsteer-bench gen as a plain text edge list of integer names,
+# plus the same edges as int32 pairs for Python.
 # Prints the matching time of each library on its own prebuilt graph, the
 # wall time and peak memory of the whole `netsteer drivers FILE --format
 # json` process, and the ratios. Installs python3-igraph and python3-scipy
@@ -92,7 +94,7 @@ print(f"peak RSS {rss_kb / 1024:.0f} MB, largest of 3 runs (target <= 350 MB); "
 PYEOF
 
 # Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
-# 2.1) and a randomly oriented square grid with the same number of states,
+# 2.1) and a right-and-down square grid with the same number of states,
 # against the ER workload: stage times from netsteer-bench stages (matching and
 # components in thread CPU time, fastest of 3; reading in wall time) and
 # the CPU time (user + system) of the whole drivers process.

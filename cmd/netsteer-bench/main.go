@@ -4,7 +4,7 @@
 //	netsteer-bench gen -model er -n 1000000 -k 10 -o er.edges -bin er.i32
 //	netsteer-bench stages -runs 3 FILE
 //
-// gen writes deterministic synthetic networks (structural/gen/netgen);
+// gen writes deterministic synthetic networks (structural/gen, gen.Workload);
 // stages times read, match and components in wall and thread CPU time.
 package main
 

@@ -14,7 +14,7 @@ import (
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
-	"github.com/netsteer/netsteer/structural/gen/netgen"
+	"github.com/netsteer/netsteer/structural/gen"
 )
 
 // readLines is the reference edge-list reader: one line at a time through
@@ -256,7 +256,11 @@ func TestBlockParserMatchesLineReader(t *testing.T) {
 // TestParallelReadLarge reads a generated network of 2*10^5 edges
 // sequentially and in parallel, plain and gzip-compressed.
 func TestParallelReadLarge(t *testing.T) {
-	data := netgen.ScaleFree(40000, 10, 2.5, 9).AppendEdgeList(nil, 1)
+	e, err := gen.Params{Model: "scale-free", Nodes: 40000, MeanDegree: 10, GammaOut: 2.5, GammaIn: 2.5}.Edges(gen.NewRand(9))
+	if err != nil {
+		t.Fatal(err)
+	}
+	data := e.AppendEdgeList(nil, 1)
 	var z bytes.Buffer
 	zw := gzip.NewWriter(&z)
 	zw.Write(data)

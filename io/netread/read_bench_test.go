@@ -6,7 +6,7 @@ import (
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
-	"github.com/netsteer/netsteer/structural/gen/netgen"
+	"github.com/netsteer/netsteer/structural/gen"
 )
 
 // benchInputs are fixed-seed edge lists of integer names: directed
@@ -18,18 +18,10 @@ func benchInput(model string, n int) []byte {
 	if b, ok := benchInputs[key]; ok {
 		return b
 	}
-	var e *netgen.Edges
-	switch model {
-	case "er":
-		e = netgen.ER(n, 10, 1)
-	case "sf":
-		e = netgen.ScaleFree(n, 10, 2.5, 1)
-	case "grid":
-		side := 1
-		for (side+1)*(side+1) <= n {
-			side++
-		}
-		e = netgen.Grid(side, 1)
+	p, _ := gen.Workload(model, n)
+	e, err := p.Edges(gen.NewRand(1))
+	if err != nil {
+		panic(err)
 	}
 	b := e.AppendEdgeList(nil, 0)
 	benchInputs[key] = b

@@ -35,7 +35,8 @@ type Row struct {
 	MeanDegree float64
 	// Replicate numbers the repeats of a grid point from 1.
 	Replicate int
-	// Seed is the row's own seed (see the package comment).
+	// Seed is the row's own seed, derived from the sweep seed and the
+	// key (structural/sweep).
 	Seed uint64
 	// Edges is L, self-loops included.
 	Edges int64
@@ -291,7 +292,7 @@ func Merge(sets ...[]Row) ([]Row, error) {
 			if i, ok := seen[k]; ok {
 				o := out[i]
 				if o.Seed != r.Seed {
-					return nil, fmt.Errorf("sweepcsv: row %s appears with seeds %d and %d (sweeps run with different --seed)", k, o.Seed, r.Seed)
+					return nil, fmt.Errorf("sweepcsv: row %s appears with seeds %d and %d (sweeps run with different seeds)", k, o.Seed, r.Seed)
 				}
 				if o.Edges != r.Edges || o.DriverCount != r.DriverCount || o.Nodes != r.Nodes {
 					return nil, fmt.Errorf("sweepcsv: row %s appears twice with different results", k)

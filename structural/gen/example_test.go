@@ -2,6 +2,7 @@ package gen_test
 
 import (
 	"fmt"
+	"strings"
 
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
@@ -21,4 +22,20 @@ func ExampleParams_Network() {
 	// Output:
 	// 10000 20000
 	// cavity n_D = 0.216
+}
+
+func ExampleParams_Edges() {
+	// The comparison workload at N = 1000: directed ER, <k> = 10, seed 1.
+	p, _ := gen.Workload("er", 1000)
+	e, err := p.Edges(gen.NewRand(1))
+	if err != nil {
+		panic(err)
+	}
+	fmt.Println(e.N, e.Len())
+	// Edges come sorted by source; the text names state i by i+1.
+	first, _, _ := strings.Cut(string(e.AppendEdgeList(nil, 1)), "\n")
+	fmt.Println(first)
+	// Output:
+	// 1000 5000
+	// 1 88
 }

@@ -121,7 +121,7 @@ func (p Params) Check() error {
 	return nil
 }
 
-// Edges returns L for er and scale-free, round(<k> N / 2).
+// targetEdges returns L for er and scale-free, round(<k> N / 2).
 func (p Params) targetEdges() int64 {
 	return int64(math.Round(p.MeanDegree * float64(p.Nodes) / 2))
 }

@@ -1,4 +1,4 @@
-package sweepcsv
+package sweep
 
 import (
 	"context"
@@ -11,7 +11,7 @@ import (
 	"strconv"
 	"time"
 
-	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/io/sweepcsv"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
 	"github.com/netsteer/netsteer/structural/transform"
@@ -20,10 +20,10 @@ import (
 // Compute builds the network of point p (generated from the model, or the
 // base network) with p's transforms applied in order, all randomness drawn
 // from gen.NewRand(p.Seed), and measures it.
-func (pl *Plan) Compute(p Point) (Row, error) {
+func (pl *Plan) Compute(p Point) (sweepcsv.Row, error) {
 	start := time.Now()
 	rng := gen.NewRand(p.Seed)
-	row := Row{Model: p.Model, Params: p.Params, Replicate: p.Replicate, Seed: p.Seed, PredictedFraction: math.NaN()}
+	row := sweepcsv.Row{Model: p.Model, Params: p.Params, Replicate: p.Replicate, Seed: p.Seed, PredictedFraction: math.NaN()}
 	var g *structural.Network
 	var params gen.Params
 	transforms := 0
@@ -48,7 +48,7 @@ func (pl *Plan) Compute(p Point) (Row, error) {
 		}
 	} else {
 		if pl.Base == nil {
-			return row, errors.New("sweepcsv: a plan needs a model or a base network")
+			return row, errors.New("sweep: a plan needs a model or a base network")
 		}
 		g = pl.Base
 	}
@@ -63,7 +63,7 @@ func (pl *Plan) Compute(p Point) (Row, error) {
 			return row, err
 		}
 	}
-	m := matching.Maximum(g.Out(), g.In())
+	m := g.Matching()
 	n := g.N()
 	row.Nodes = n
 	row.Edges = int64(g.Edges())
@@ -109,7 +109,7 @@ type RunOptions struct {
 // Result reports a run.
 type Result struct {
 	// Rows are all the rows of the output, in canonical order.
-	Rows []Row
+	Rows []sweepcsv.Row
 	// Computed rows were measured by this run; Skipped ones were in the
 	// output already; Share is the number of points in the shard.
 	Computed, Skipped, Share int
@@ -121,12 +121,12 @@ type Result struct {
 // finishes the sweep, giving the file an uninterrupted run gives.
 func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 	if pl.Replicates < 1 {
-		return nil, errors.New("sweepcsv: replicates must be at least 1")
+		return nil, errors.New("sweep: replicates must be at least 1")
 	}
 	toFile := opt.Output != "" && opt.Output != "-"
-	var have []Row
+	var have []sweepcsv.Row
 	if toFile && fileExists(opt.Output) {
-		rows, err := ReadFile(opt.Output)
+		rows, err := sweepcsv.ReadFile(opt.Output)
 		if err != nil {
 			return nil, err
 		}
@@ -145,7 +145,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		res.Share++
 		if s, ok := done[p.Key()]; ok {
 			if s != p.Seed {
-				return nil, fmt.Errorf("sweepcsv: %s holds row %s with seed %d, not %d: it comes from another --seed; choose another output file", opt.Output, p.describe(), s, p.Seed)
+				return nil, &SeedError{File: opt.Output, Row: p.describe(), Have: s, Want: p.Seed}
 			}
 			res.Skipped++
 			continue
@@ -167,11 +167,11 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				}
 			}
 			if _, err := gen.FromSettings(pl.Model, vals); err != nil {
-				return nil, fmt.Errorf("sweepcsv: grid point %s: %v", p.Params, err)
+				return nil, fmt.Errorf("sweep: grid point %s: %w", p.Params, err)
 			}
 		}
 	}
-	rows := append([]Row(nil), have...)
+	rows := append([]sweepcsv.Row(nil), have...)
 	workers := opt.Workers
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
@@ -182,14 +182,14 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		every = time.Second
 	}
 	type result struct {
-		row Row
+		row sweepcsv.Row
 		err error
 		key string
 	}
 	// Write what there is now, so that an output that cannot be written
 	// is reported before the first row is computed, not after.
 	if toFile {
-		if err := WriteFile(opt.Output, append([]Row(nil), rows...), nil); err != nil {
+		if err := sweepcsv.WriteFile(opt.Output, append([]sweepcsv.Row(nil), rows...), nil); err != nil {
 			return nil, err
 		}
 	}
@@ -220,7 +220,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		if !toFile {
 			return nil
 		}
-		return WriteFile(opt.Output, append([]Row(nil), rows...), nil)
+		return sweepcsv.WriteFile(opt.Output, append([]sweepcsv.Row(nil), rows...), nil)
 	}
 	last := time.Now()
 	if opt.Progress != nil {
@@ -249,7 +249,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				if err := checkpoint(); err != nil {
 					return nil, err
 				}
-				return nil, fmt.Errorf("sweepcsv: row %s: %v", r.key, r.err)
+				return nil, fmt.Errorf("sweep: row %s: %w", r.key, r.err)
 			}
 			if opt.NoTiming {
 				r.row.Seconds = 0
@@ -269,12 +269,12 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		}
 	}
 	close(stop)
-	Sort(rows)
+	sweepcsv.Sort(rows)
 	res.Rows = rows
 	if toFile {
-		return res, WriteFile(opt.Output, append([]Row(nil), rows...), nil)
+		return res, sweepcsv.WriteFile(opt.Output, append([]sweepcsv.Row(nil), rows...), nil)
 	}
-	return res, WriteFile("-", append([]Row(nil), rows...), opt.Stdout)
+	return res, sweepcsv.WriteFile("-", append([]sweepcsv.Row(nil), rows...), opt.Stdout)
 }
 
 // describe names a point for messages: model, coordinates, replicate.
@@ -285,4 +285,17 @@ func (p *Point) describe() string {
 func fileExists(path string) bool {
 	_, err := os.Stat(path)
 	return err == nil
+}
+
+// SeedError reports an output file holding a row of the plan computed from
+// another sweep seed: resuming into it would mix two sweeps.
+type SeedError struct {
+	File string
+	Row  string // the row, as (model MODEL, PARAMS, replicate R)
+	Have uint64 // the seed in the file
+	Want uint64 // the seed of the plan
+}
+
+func (e *SeedError) Error() string {
+	return fmt.Sprintf("sweep: %s holds row %s with seed %d, not %d: it comes from a sweep with another seed; choose another output file", e.File, e.Row, e.Have, e.Want)
 }

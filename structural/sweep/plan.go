@@ -1,16 +1,17 @@
-package sweepcsv
+package sweep
 
 import (
-	"github.com/netsteer/netsteer/structural/transform"
-
+	"errors"
 	"fmt"
 	"hash/fnv"
 	"math"
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/sweepcsv"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
+	"github.com/netsteer/netsteer/structural/transform"
 )
 
 // ParseValues expands a value specification: "start:stop:step" (stop
@@ -19,13 +20,21 @@ import (
 // integer set, they must be whole. A non-numeric single value or list is
 // returned as given when numeric is false.
 func ParseValues(spec string, numeric, integer bool) ([]string, error) {
+	v, err := parseValues(spec, numeric, integer)
+	if err != nil {
+		return nil, fmt.Errorf("sweep: %w", err)
+	}
+	return v, nil
+}
+
+func parseValues(spec string, numeric, integer bool) ([]string, error) {
 	spec = strings.TrimSpace(spec)
 	if spec == "" {
-		return nil, fmt.Errorf("sweepcsv: empty value")
+		return nil, errors.New("empty value")
 	}
 	if !numeric {
 		if strings.Contains(spec, ":") {
-			return nil, fmt.Errorf("sweepcsv: %q: ranges need a numeric parameter", spec)
+			return nil, fmt.Errorf("%q: ranges need a numeric parameter", spec)
 		}
 		return []string{spec}, nil
 	}
@@ -36,17 +45,17 @@ func ParseValues(spec string, numeric, integer bool) ([]string, error) {
 		}
 		v, err := strconv.ParseFloat(s, 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-			return 0, fmt.Errorf("sweepcsv: %q is not a number", s)
+			return 0, fmt.Errorf("%q is not a number", s)
 		}
 		if integer && v != math.Trunc(v) {
-			return 0, fmt.Errorf("sweepcsv: %q is not a whole number", s)
+			return 0, fmt.Errorf("%q is not a whole number", s)
 		}
 		return v, nil
 	}
 	var vals []float64
 	if parts := strings.Split(spec, ":"); len(parts) > 1 {
 		if len(parts) != 3 {
-			return nil, fmt.Errorf("sweepcsv: range %q: want start:stop:step", spec)
+			return nil, fmt.Errorf("range %q: want start:stop:step", spec)
 		}
 		var a [3]float64
 		for i, p := range parts {
@@ -58,14 +67,14 @@ func ParseValues(spec string, numeric, integer bool) ([]string, error) {
 		}
 		start, stop, step := a[0], a[1], a[2]
 		if math.IsInf(start, 0) || math.IsInf(stop, 0) || math.IsInf(step, 0) {
-			return nil, fmt.Errorf("sweepcsv: range %q: infinite bound", spec)
+			return nil, fmt.Errorf("range %q: infinite bound", spec)
 		}
 		if step <= 0 || stop < start {
-			return nil, fmt.Errorf("sweepcsv: range %q: want start <= stop and step > 0", spec)
+			return nil, fmt.Errorf("range %q: want start <= stop and step > 0", spec)
 		}
 		count := math.Floor((stop-start)/step+1e-9) + 1
 		if count > 1e6 {
-			return nil, fmt.Errorf("sweepcsv: range %q has %.0f values; the limit is 10^6", spec, count)
+			return nil, fmt.Errorf("range %q has %.0f values; the limit is 10^6", spec, count)
 		}
 		for i := 0; i < int(count); i++ {
 			vals = append(vals, start+float64(i)*step)
@@ -124,7 +133,7 @@ type Point struct {
 }
 
 // Key returns the point's row identity.
-func (p *Point) Key() string { return Key(p.Model, p.Params, p.Replicate) }
+func (p *Point) Key() string { return sweepcsv.Key(p.Model, p.Params, p.Replicate) }
 
 // ModelAxes builds the axes of a model sweep from option values (ParamSpecs
 // names to value specifications); parameters not given take their
@@ -132,7 +141,7 @@ func (p *Point) Key() string { return Key(p.Model, p.Params, p.Replicate) }
 func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 	ps := gen.ParamSpecs(model)
 	if ps == nil {
-		return nil, fmt.Errorf("sweepcsv: unknown model %q (want one of %s)", model, strings.Join(gen.Models, ", "))
+		return nil, fmt.Errorf("sweep: unknown model %q (want one of %s)", model, strings.Join(gen.Models, ", "))
 	}
 	known := map[string]bool{}
 	for _, s := range ps {
@@ -140,7 +149,7 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 	}
 	for name := range specs {
 		if !known[name] {
-			return nil, fmt.Errorf("sweepcsv: --%s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
+			return nil, fmt.Errorf("sweep: %s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
 		}
 	}
 	var axes []Axis
@@ -148,14 +157,14 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 		spec, ok := specs[s.Name]
 		if !ok {
 			if s.Default == "" {
-				return nil, fmt.Errorf("sweepcsv: the %s model needs --%s", model, strings.ReplaceAll(s.Name, "_", "-"))
+				return nil, fmt.Errorf("sweep: the %s model needs %s", model, strings.ReplaceAll(s.Name, "_", "-"))
 			}
 			spec = s.Default
 		}
 		numeric := s.Numeric() && !(s.Name == "width" && spec == "auto")
-		vals, err := ParseValues(spec, numeric, s.Integer())
+		vals, err := parseValues(spec, numeric, s.Integer())
 		if err != nil {
-			return nil, fmt.Errorf("--%s: %v", strings.ReplaceAll(s.Name, "_", "-"), err)
+			return nil, fmt.Errorf("sweep: %s: %w", strings.ReplaceAll(s.Name, "_", "-"), err)
 		}
 		if s.Name == "directions" {
 			d, err := gen.ParseDirections(vals[0])
@@ -174,12 +183,12 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 func TransformAxis(spec string) (Axis, error) {
 	name, vals, ok := strings.Cut(spec, "=")
 	if !ok {
-		return Axis{}, fmt.Errorf("sweepcsv: transform %q: want name=values", spec)
+		return Axis{}, fmt.Errorf("sweep: transform %q: want name=values", spec)
 	}
 	integer := name == "replicate"
-	values, err := ParseValues(vals, true, integer)
+	values, err := parseValues(vals, true, integer)
 	if err != nil {
-		return Axis{}, fmt.Errorf("transform %s: %v", name, err)
+		return Axis{}, fmt.Errorf("sweep: transform %s: %w", name, err)
 	}
 	for _, v := range values {
 		if _, err := transform.Parse(name + "=" + v); err != nil {
@@ -257,7 +266,7 @@ func ParseShard(s string) (Shard, error) {
 	i, err1 := strconv.Atoi(a)
 	k, err2 := strconv.Atoi(b)
 	if !ok || err1 != nil || err2 != nil || k < 1 || i < 0 || i >= k {
-		return Shard{}, fmt.Errorf("sweepcsv: shard %q: want i/k with 0 <= i < k", s)
+		return Shard{}, fmt.Errorf("sweep: shard %q: want i/k with 0 <= i < k", s)
 	}
 	return Shard{I: i, K: k}, nil
 }

@@ -1,17 +1,17 @@
-package sweepcsv
+package sweep
 
 import (
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
+	"github.com/netsteer/netsteer/io/sweepcsv"
 	"github.com/netsteer/netsteer/structural/gen"
-	"github.com/netsteer/netsteer/structural/transform"
 )
 
 func TestParseValues(t *testing.T) {
@@ -52,7 +52,7 @@ func erPlan(t *testing.T, seed uint64) *Plan {
 // between runs by design.
 func withoutSeconds(t *testing.T, path string) string {
 	t.Helper()
-	rows, err := ReadFile(path)
+	rows, err := sweepcsv.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -60,7 +60,7 @@ func withoutSeconds(t *testing.T, path string) string {
 		rows[i].Seconds = 0
 	}
 	var b bytes.Buffer
-	Write(&b, rows)
+	sweepcsv.Write(&b, rows)
 	return b.String()
 }
 
@@ -97,12 +97,12 @@ func TestReproducibleShardsResume(t *testing.T) {
 		}
 		parts = append(parts, p)
 	}
-	merged, err := MergeFiles(parts...)
+	merged, err := sweepcsv.MergeFiles(parts...)
 	if err != nil {
 		t.Fatal(err)
 	}
 	mpath := filepath.Join(dir, "merged.csv")
-	if err := WriteFile(mpath, merged, nil); err != nil {
+	if err := sweepcsv.WriteFile(mpath, merged, nil); err != nil {
 		t.Fatal(err)
 	}
 	if got := withoutSeconds(t, mpath); got != want {
@@ -134,15 +134,17 @@ func TestReproducibleShardsResume(t *testing.T) {
 		t.Errorf("resumed:\n%s\nwant\n%s", got, want)
 	}
 	// A rerun with another seed refuses to mix rows.
-	if _, err := erPlan(t, 12).Run(context.Background(), RunOptions{Output: killed}); err == nil {
-		t.Error("rerun with another seed into the same file: got no error")
+	_, err = erPlan(t, 12).Run(context.Background(), RunOptions{Output: killed})
+	var se *SeedError
+	if !errors.As(err, &se) || se.File != killed || se.Want == se.Have {
+		t.Errorf("rerun with another seed into the same file: got %v, want a *SeedError", err)
 	}
 	// Merging files from different seeds is refused too.
 	other := filepath.Join(dir, "other.csv")
 	if _, err := erPlan(t, 12).Run(context.Background(), RunOptions{Output: other}); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := MergeFiles(single, other); err == nil {
+	if _, err := sweepcsv.MergeFiles(single, other); err == nil {
 		t.Error("merging sweeps of different seeds: got no error")
 	}
 }
@@ -199,30 +201,6 @@ func TestBaseSweep(t *testing.T) {
 			t.Errorf("%s: measured %.4f, expectation %.4f", r.Params, r.DriverFraction, r.PredictedFraction)
 		}
 	}
-	var _ = transform.Transform{}
-}
-
-func TestReadErrors(t *testing.T) {
-	dir := t.TempDir()
-	for name, body := range map[string]string{
-		"nohead.csv": "a,b\n1,2\n",
-		"badnum.csv": strings.Join(Columns, ",") + "\ner,x,2,1,5,10,3,0.3,0.3,0.1,nodes=10,model\n",
-	} {
-		p := filepath.Join(dir, name)
-		os.WriteFile(p, []byte(body), 0o644)
-		_, err := ReadFile(p)
-		if err == nil {
-			t.Errorf("%s: got no error", name)
-			continue
-		}
-		if !strings.HasPrefix(err.Error(), p+":") {
-			t.Errorf("%s: error %q lacks FILE:LINE", name, err)
-		}
-	}
-	_, err := ReadFile(filepath.Join(dir, "badnum.csv"))
-	if err == nil || !strings.Contains(err.Error(), ":2: nodes") {
-		t.Errorf("bad number: got %v, want line 2", err)
-	}
 }
 
 func TestPointsOrderAndSeeds(t *testing.T) {
@@ -256,28 +234,5 @@ func TestRunUnwritableOutput(t *testing.T) {
 	}
 	if computed != 0 {
 		t.Errorf("%d rows computed before the error, want 0", computed)
-	}
-}
-
-// A row whose numbers contradict each other (a damaged or hand-edited
-// file) is refused with its line, so that a resumed sweep does not keep
-// it. The consistent row is the one a run writes (N_D/N, Liu et al. 2011).
-func TestReadRejectsInconsistentRows(t *testing.T) {
-	const header = "model,nodes,mean_degree,replicate,seed,edges,driver_count,driver_fraction,predicted_fraction,seconds,params,prediction_from\n"
-	good := "er,2000,1,1,7,1000,1298,0.649,0.6543680523,0.005,nodes=2000;mean_degree=1,model\n"
-	if _, err := Read(strings.NewReader(header+good), "ok.csv"); err != nil {
-		t.Fatalf("consistent row: %v", err)
-	}
-	for _, tc := range []struct{ row, want string }{
-		{"er,2000,1,1,7,1000,9999,0.649,0.65,0.005,nodes=2000;mean_degree=1,model\n", "driver_count 9999 out of range"},
-		{"er,2000,1,1,7,1000,1298,0.5,0.65,0.005,nodes=2000;mean_degree=1,model\n", "driver_fraction 0.5 is not driver_count/nodes"},
-		{"er,2000,1,0,7,1000,1298,0.649,0.65,0.005,nodes=2000;mean_degree=1,model\n", "replicate 0"},
-		{"er,2000,1,1,7,1000,1298,0.649,1.5,0.005,nodes=2000;mean_degree=1,model\n", "predicted_fraction 1.5"},
-		{"er,2000,1,1,7,1000,1298,0.649,0.65,0.005,nodes=2000;mean_degree=1,modelX\n", `prediction_from "modelX"`},
-	} {
-		_, err := Read(strings.NewReader(header+good+tc.row), "bad.csv")
-		if err == nil || !strings.Contains(err.Error(), "bad.csv:3: "+tc.want) {
-			t.Errorf("row %q: got %v, want bad.csv:3: %s...", tc.row, err, tc.want)
-		}
 	}
 }
