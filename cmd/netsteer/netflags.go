@@ -13,6 +13,7 @@ import (
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/io/nodetable"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/sweep"
 )
 
 // netFlags are the options of every command that reads a network.
@@ -181,7 +182,10 @@ func describe(err error) string {
 	var te *structural.TooLargeError
 	var se *structural.StateError
 	var ie *fileout.InputError
+	var sd *sweep.SeedError
 	switch {
+	case errors.As(err, &sd):
+		return fmt.Sprintf("%s holds row %s computed with another --seed (%d, not %d); choose another output file", sd.File, sd.Row, sd.Have, sd.Want)
 	case errors.As(err, &ie):
 		return fmt.Sprintf("-o %s would overwrite %s, which this command reads", ie.Output, ie.Input)
 	case errors.As(err, &ne):

@@ -18,6 +18,7 @@ import (
 	"github.com/netsteer/netsteer/io/plot"
 	"github.com/netsteer/netsteer/io/sweepcsv"
 	"github.com/netsteer/netsteer/io/textout"
+	"github.com/netsteer/netsteer/structural/sweep"
 )
 
 var sweepCmd = &command{
@@ -98,10 +99,10 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if _, err := cf.transforms(nil); err != nil {
 			return err // the coupling pattern is checked there
 		}
-		pl := &sweepcsv.Plan{Model: *model, Replicates: *replicates, Seed: *seed}
+		pl := &sweep.Plan{Model: *model, Replicates: *replicates, Seed: *seed}
 		pl.Coupling.Pattern, pl.Coupling.TwoWay, pl.Coupling.States = cf.pattern, cf.twoWay, cf.states
 		if *model != "" {
-			axes, err := sweepcsv.ModelAxes(*model, mf.given())
+			axes, err := sweep.ModelAxes(*model, mf.given())
 			if err != nil {
 				return usagef("%s", describe(err))
 			}
@@ -112,16 +113,16 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return usagef("--base needs at least one --transform NAME=VALUES")
 		}
 		for _, s := range *specs {
-			ax, err := sweepcsv.TransformAxis(s)
+			ax, err := sweep.TransformAxis(s)
 			if err != nil {
 				return usagef("--transform: %s", describe(err))
 			}
 			pl.Axes = append(pl.Axes, ax)
 		}
-		opt := sweepcsv.RunOptions{Output: *output, Stdout: e.Stdout, Workers: *workers, NoTiming: *noTiming}
+		opt := sweep.RunOptions{Output: *output, Stdout: e.Stdout, Workers: *workers, NoTiming: *noTiming}
 		if *shard != "" {
 			var err error
-			if opt.Shard, err = sweepcsv.ParseShard(*shard); err != nil {
+			if opt.Shard, err = sweep.ParseShard(*shard); err != nil {
 				return usagef("--shard: %s", describe(err))
 			}
 		}

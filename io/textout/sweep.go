@@ -8,12 +8,13 @@ import (
 
 	"github.com/netsteer/netsteer/io/plot"
 	"github.com/netsteer/netsteer/io/sweepcsv"
+	"github.com/netsteer/netsteer/structural/sweep"
 )
 
 // Sweep is the summary of a sweep run: the measured mean against the
 // prediction at each grid point. The rows themselves are the CSV file.
 type Sweep struct {
-	R            *sweepcsv.Result
+	R            *sweep.Result
 	Output, Plot string
 }
 

@@ -22,7 +22,7 @@ import (
 func ParseValues(spec string, numeric, integer bool) ([]string, error) {
 	v, err := parseValues(spec, numeric, integer)
 	if err != nil {
-		return nil, fmt.Errorf("sweep: %w", err)
+		return nil, errorf("%w", err)
 	}
 	return v, nil
 }
@@ -141,7 +141,7 @@ func (p *Point) Key() string { return sweepcsv.Key(p.Model, p.Params, p.Replicat
 func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 	ps := gen.ParamSpecs(model)
 	if ps == nil {
-		return nil, fmt.Errorf("sweep: unknown model %q (want one of %s)", model, strings.Join(gen.Models, ", "))
+		return nil, errorf("unknown model %q (want one of %s)", model, strings.Join(gen.Models, ", "))
 	}
 	known := map[string]bool{}
 	for _, s := range ps {
@@ -149,7 +149,7 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 	}
 	for name := range specs {
 		if !known[name] {
-			return nil, fmt.Errorf("sweep: %s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
+			return nil, errorf("%s does not apply to the %s model", strings.ReplaceAll(name, "_", "-"), model)
 		}
 	}
 	var axes []Axis
@@ -157,14 +157,14 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 		spec, ok := specs[s.Name]
 		if !ok {
 			if s.Default == "" {
-				return nil, fmt.Errorf("sweep: the %s model needs %s", model, strings.ReplaceAll(s.Name, "_", "-"))
+				return nil, errorf("the %s model needs %s", model, strings.ReplaceAll(s.Name, "_", "-"))
 			}
 			spec = s.Default
 		}
 		numeric := s.Numeric() && !(s.Name == "width" && spec == "auto")
 		vals, err := parseValues(spec, numeric, s.Integer())
 		if err != nil {
-			return nil, fmt.Errorf("sweep: %s: %w", strings.ReplaceAll(s.Name, "_", "-"), err)
+			return nil, errorf("%s: %w", strings.ReplaceAll(s.Name, "_", "-"), err)
 		}
 		if s.Name == "directions" {
 			d, err := gen.ParseDirections(vals[0])
@@ -183,12 +183,12 @@ func ModelAxes(model string, specs map[string]string) ([]Axis, error) {
 func TransformAxis(spec string) (Axis, error) {
 	name, vals, ok := strings.Cut(spec, "=")
 	if !ok {
-		return Axis{}, fmt.Errorf("sweep: transform %q: want name=values", spec)
+		return Axis{}, errorf("transform %q: want name=values", spec)
 	}
 	integer := name == "replicate"
 	values, err := parseValues(vals, true, integer)
 	if err != nil {
-		return Axis{}, fmt.Errorf("sweep: transform %s: %w", name, err)
+		return Axis{}, errorf("transform %s: %w", name, err)
 	}
 	for _, v := range values {
 		if _, err := transform.Parse(name + "=" + v); err != nil {
@@ -266,7 +266,7 @@ func ParseShard(s string) (Shard, error) {
 	i, err1 := strconv.Atoi(a)
 	k, err2 := strconv.Atoi(b)
 	if !ok || err1 != nil || err2 != nil || k < 1 || i < 0 || i >= k {
-		return Shard{}, fmt.Errorf("sweep: shard %q: want i/k with 0 <= i < k", s)
+		return Shard{}, errorf("shard %q: want i/k with 0 <= i < k", s)
 	}
 	return Shard{I: i, K: k}, nil
 }

@@ -2,7 +2,6 @@ package sweep
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -48,7 +47,7 @@ func (pl *Plan) Compute(p Point) (sweepcsv.Row, error) {
 		}
 	} else {
 		if pl.Base == nil {
-			return row, errors.New("sweep: a plan needs a model or a base network")
+			return row, errorf("a plan needs a model or a base network")
 		}
 		g = pl.Base
 	}
@@ -121,7 +120,7 @@ type Result struct {
 // finishes the sweep, giving the file an uninterrupted run gives.
 func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 	if pl.Replicates < 1 {
-		return nil, errors.New("sweep: replicates must be at least 1")
+		return nil, errorf("replicates must be at least 1")
 	}
 	toFile := opt.Output != "" && opt.Output != "-"
 	var have []sweepcsv.Row
@@ -167,7 +166,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				}
 			}
 			if _, err := gen.FromSettings(pl.Model, vals); err != nil {
-				return nil, fmt.Errorf("sweep: grid point %s: %w", p.Params, err)
+				return nil, errorf("grid point %s: %w", p.Params, err)
 			}
 		}
 	}
@@ -249,7 +248,7 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 				if err := checkpoint(); err != nil {
 					return nil, err
 				}
-				return nil, fmt.Errorf("sweep: row %s: %w", r.key, r.err)
+				return nil, errorf("row %s: %w", r.key, r.err)
 			}
 			if opt.NoTiming {
 				r.row.Seconds = 0
