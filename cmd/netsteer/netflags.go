@@ -183,7 +183,10 @@ func describe(err error) string {
 	var se *structural.StateError
 	var ie *fileout.InputError
 	var sd *sweep.SeedError
+	var sz *sweep.SizeError
 	switch {
+	case errors.As(err, &sz):
+		return fmt.Sprintf("the sweep has %.3g rows, more than %d (about %.3g core-hours); sweep fewer values or replicates", sz.Rows, sz.Max, sz.Seconds/3600)
 	case errors.As(err, &sd):
 		return fmt.Sprintf("%s holds row %s computed with another --seed (%d, not %d); choose another output file", sd.File, sd.Row, sd.Have, sd.Want)
 	case errors.As(err, &ie):

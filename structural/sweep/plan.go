@@ -198,9 +198,65 @@ func TransformAxis(spec string) (Axis, error) {
 	return Axis{Name: name, Values: values, Transform: true}, nil
 }
 
+// MaxRows bounds the rows of one plan: a sweep of more rows is refused
+// before anything is allocated (its point list alone would take over a
+// gigabyte); split it into several sweeps or shards of separate plans.
+const MaxRows = 10_000_000
+
+// SizeError reports a plan with more rows than MaxRows.
+type SizeError struct {
+	Rows float64 // points times replicates
+	Max  int
+	// Seconds estimates the time to compute them on one core, at the
+	// measured rate of a maximum matching (about 5*10^7 edges a second)
+	// and the plan's largest network.
+	Seconds float64
+}
+
+func (e *SizeError) Error() string {
+	return fmt.Sprintf("sweep: the plan has %.3g rows, more than %d (about %.3g core-hours to compute)", e.Rows, e.Max, e.Seconds/3600)
+}
+
+// Rows returns the number of rows the plan has: every combination of the
+// axes' values times the replicates (as a float, so a product too large
+// for an int is still reported).
+func (pl *Plan) Rows() float64 {
+	total := float64(max(pl.Replicates, 0))
+	for _, a := range pl.Axes {
+		total *= float64(len(a.Values))
+	}
+	return total
+}
+
+// checkSize refuses a plan of more than MaxRows rows with an estimate.
+func (pl *Plan) checkSize() error {
+	rows := pl.Rows()
+	if rows <= MaxRows {
+		return nil
+	}
+	edges := 0.0
+	if pl.Base != nil {
+		edges = float64(pl.Base.Edges())
+	}
+	for _, a := range pl.Axes {
+		if a.Name == "nodes" {
+			for _, v := range a.Values {
+				if x, err := strconv.ParseFloat(v, 64); err == nil {
+					edges = max(edges, 5*x) // <k> = 10 as a typical mean degree
+				}
+			}
+		}
+	}
+	return &SizeError{Rows: rows, Max: MaxRows, Seconds: rows * max(edges, 1) / 5e7}
+}
+
 // Points expands the plan in its order: the first axis varies slowest,
-// replicates fastest.
+// replicates fastest. It returns nil for a plan of more than MaxRows rows
+// (Run reports it).
 func (pl *Plan) Points() []Point {
+	if pl.checkSize() != nil {
+		return nil
+	}
 	model := pl.Model
 	if model == "" {
 		model = "base"

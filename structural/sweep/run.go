@@ -122,6 +122,9 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 	if pl.Replicates < 1 {
 		return nil, errorf("replicates must be at least 1")
 	}
+	if err := pl.checkSize(); err != nil {
+		return nil, err
+	}
 	toFile := opt.Output != "" && opt.Output != "-"
 	var have []sweepcsv.Row
 	if toFile && fileExists(opt.Output) {

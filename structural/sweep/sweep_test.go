@@ -236,3 +236,21 @@ func TestRunUnwritableOutput(t *testing.T) {
 		t.Errorf("%d rows computed before the error, want 0", computed)
 	}
 }
+
+// A plan too large to hold is refused before anything is allocated, with
+// its size (common practice: refuse what a flag merely claims).
+func TestPlanTooLarge(t *testing.T) {
+	axes, err := ModelAxes("er", map[string]string{"nodes": "1000", "mean_degree": "1:10:1"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pl := &Plan{Model: "er", Axes: axes, Replicates: 1_000_000_000, Seed: 1}
+	_, err = pl.Run(context.Background(), RunOptions{})
+	var se *SizeError
+	if !errors.As(err, &se) || se.Rows != 1e10 || se.Seconds <= 0 {
+		t.Fatalf("got %v", err)
+	}
+	if pl.Points() != nil {
+		t.Fatal("Points expanded a plan past the limit")
+	}
+}
