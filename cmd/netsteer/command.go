@@ -87,7 +87,8 @@ An edge "u v" in a network file means u acts on v (A[v][u] != 0).
 
 Commands:
 %s
-Run "netsteer help COMMAND" or "netsteer COMMAND --help" for details.
+Run "netsteer help COMMAND" or "netsteer COMMAND --help" for details, and
+"netsteer help formats" for the network file formats.
 
 Structural results hold for almost all parameter values. They are a
 screening step: they do not replace dynamic studies, safety analysis,
@@ -122,6 +123,10 @@ func run(e *env, args []string) int {
 	name := args[0]
 	switch name {
 	case "help", "-h", "--help":
+		if len(args) > 1 && topics[args[1]] != "" {
+			fmt.Fprint(e.Stdout, topics[args[1]])
+			return exitOK
+		}
 		if len(args) > 1 {
 			if _, ok := commands[args[1]]; !ok {
 				fmt.Fprintf(e.Stderr, "netsteer: unknown command %q\n", args[1])
@@ -204,3 +209,6 @@ func capital(s string) string {
 	}
 	return strings.ToUpper(s[:1]) + s[1:]
 }
+
+// topics are help texts that are not commands.
+var topics = map[string]string{"formats": formatsHelp}
