@@ -81,11 +81,11 @@ func BenchmarkFloat(b *testing.B) {
 func BenchmarkVerify(b *testing.B) {
 	g, in := erNetwork(2000, 6, 42)
 	for i := 0; i < b.N; i++ {
-		rep, err := Verify(g, mustDesign(g, in), mustDesign(g, nil), Options{Seed: uint64(i), MaxFloatStates: -1})
+		rep, err := Verify(g, Request{Inputs: dz(g, in), Seed: uint64(i), MaxFloatStates: -1})
 		if err != nil {
 			b.Fatal(err)
 		}
-		if !rep.Controllability.Full {
+		if !rep.Controllability.SampledHolds {
 			b.Fatal("design not confirmed")
 		}
 	}

@@ -45,10 +45,21 @@
 // shifted, stable system A - sI comes from the Bartels–Stewart method on a
 // real Schur form. Both use gonum's LAPACK.
 //
+// One call. Verify takes a network and a Request (the designs, the model's
+// values or a seed, limits, the part to verify) and returns one Result:
+// per property the structural verdict (structural.Verdict, the keys of a
+// check) with the sampled figures beside it (Sample), the warnings the
+// numbers call for as typed data (Warning), the standing cautions, and the
+// stage times. Results marshal to JSON with snake_case keys; no NaN or
+// Inf reaches JSON; Result.Table gives the trials as CSV rows whose
+// columns are the trials' JSON keys.
+//
 // Large networks. The exact check costs about r·(E + r·n/2) field operations
 // and r·n words of memory; Verify refuses networks above a size limit with an
-// estimate of both (SizeError), and Around, Induced and Restrict
-// cut out a part of a network to verify instead.
+// estimate of both (SizeError). CheckSize gives the same refusal from the
+// counts alone, before a network is built. Request.Part (or Around,
+// Induced and RestrictDesign) cuts out a connected part of a network to
+// verify instead.
 //
 // Numeric results describe the numbers checked. Like the structural results
 // they are a screening step and do not replace dynamic studies, safety

@@ -1,0 +1,121 @@
+package numeric
+
+import (
+	"encoding/json"
+	"slices"
+	"sort"
+	"strings"
+	"testing"
+)
+
+func keysOf(m map[string]any) []string {
+	var k []string
+	for s := range m {
+		k = append(k, s)
+	}
+	sort.Strings(k)
+	return k
+}
+
+// The JSON contract of a verify result: the property objects carry every
+// key of structural.Verdict's own JSON (one shape in check, verify and
+// report) beside the sampled keys; timing keys end in _s; a figure that is
+// not finite (the next modal bound when every eigenvalue was evaluated)
+// is left out rather than written as NaN or Inf; the CSV columns are
+// exactly the trials' JSON keys; and the part's states are counted once.
+func TestVerifyJSONContract(t *testing.T) {
+	g, in := erNetwork(30, 3, 7)
+	out := [][]int32{{0}, {5}}
+	res, err := Verify(g, Request{Inputs: dz(g, in), Outputs: dz(g, out), Seed: 2, Trials: 2, Part: &Part{Hops: NoLimit, Limit: 20}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := json.Marshal(res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var top map[string]any
+	if err := json.Unmarshal(b, &top); err != nil {
+		t.Fatal(err)
+	}
+	wantTop := []string{"cautions", "controllability", "duplicates_merged", "edges", "inexact_weights", "network_weights", "nodes",
+		"observability", "part", "prime", "seed", "self_loops", "timings", "trials", "warnings", "weights", "zero_entries"}
+	if got := keysOf(top); !slices.Equal(got, wantTop) {
+		t.Errorf("top-level keys %v, want %v", got, wantTop)
+	}
+	part := top["part"].(map[string]any)
+	if part["nodes"].(float64) != 20 || len(part["states"].([]any)) != 20 {
+		t.Errorf("part %v", part)
+	}
+	if top["nodes"].(float64) != 30 {
+		t.Errorf("nodes %v: the whole network's", top["nodes"])
+	}
+	for k := range top["timings"].(map[string]any) {
+		if !strings.HasSuffix(k, "_s") {
+			t.Errorf("timing key %q", k)
+		}
+	}
+	cols := map[string]bool{}
+	for _, c := range TrialColumns[1:] {
+		cols[c] = true
+	}
+	seen := map[string]bool{}
+	for i, p := range res.Properties() {
+		name := []string{"controllability", "observability"}[i]
+		obj := top[name].(map[string]any)
+		vb, err := json.Marshal(p.Verdict)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var verdict map[string]any
+		json.Unmarshal(vb, &verdict)
+		for _, k := range keysOf(verdict) {
+			if _, ok := obj[k]; !ok {
+				t.Errorf("%s: verdict key %q missing", name, k)
+			}
+		}
+		for _, k := range []string{"sampled_dimension", "sampled_holds", "agrees", "margin", "failure_bound", "trials"} {
+			if _, ok := obj[k]; !ok {
+				t.Errorf("%s: key %q missing", name, k)
+			}
+		}
+		for _, tr := range obj["trials"].([]any) {
+			m := tr.(map[string]any)
+			if _, ok := m["next_bound"]; ok {
+				t.Errorf("next_bound written although every eigenvalue was evaluated")
+			}
+			for k := range m {
+				seen[k] = true
+				if !cols[k] {
+					t.Errorf("trial key %q is not a CSV column", k)
+				}
+			}
+		}
+	}
+	// Columns never seen here: second_prime_dimension (weights only),
+	// next_bound (a partial margin only).
+	for c := range cols {
+		if !seen[c] && c != "second_prime_dimension" && c != "next_bound" {
+			t.Errorf("CSV column %q is no trial key", c)
+		}
+	}
+	header, rows := res.Table()
+	if !slices.Equal(header, TrialColumns) || len(rows) != 4 || rows[2][0] != "observability" {
+		t.Errorf("table %v with %d rows", header, len(rows))
+	}
+	// A margin evaluated at part of the eigenvalues writes next_bound, and
+	// the CSV cell agrees with the JSON value.
+	g2, in2 := erNetwork(40, 3, 9)
+	res, err = Verify(g2, Request{Inputs: dz(g2, in2), Seed: 1, Trials: 1, Float: &FloatOptions{Flops: 1}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ = json.Marshal(res.Controllability.Trials[0])
+	var tr map[string]any
+	json.Unmarshal(b, &tr)
+	_, rows = res.Table()
+	col := slices.Index(TrialColumns, "next_bound")
+	if nb, ok := tr["next_bound"].(float64); !ok || rows[0][col] == "" || cell(nb) != rows[0][col] {
+		t.Errorf("next_bound JSON %v, CSV %q", tr["next_bound"], rows[0][col])
+	}
+}
