@@ -90,3 +90,74 @@ func BenchmarkVerify(b *testing.B) {
 		}
 	}
 }
+
+// modesBench prepares the modes analysis of a random sample of an ER
+// network whose minimum driver design lost a tenth of its signals, so that
+// about that many states' worth of modes are stuck.
+func modesBench(n int) (*realSystem, *Pattern) {
+	g, in := erNetwork(n, 6, 42)
+	in = in[:len(in)-max(1, len(in)/10)]
+	p := &Pattern{Out: g.Out(), Signals: in}
+	re := DrawReal(p, rand.New(rand.NewPCG(1, 2)))
+	a, b := re.Dense(p, false)
+	f := NewField(Mersenne61)
+	sys := &realSystem{p: p, re: re, n: n, m: len(in), a: a, b: b, exact: exactOf(re, f, false),
+		alt: func() *Exact { return exactOf(re, NewField(Alt61), false) }}
+	return sys, p
+}
+
+// BenchmarkModes measures the stuck-mode analysis of one system: the exact
+// Krylov basis, the floating-point Kalman basis and decomposition, the
+// eigenvalues of the uncontrollable part with their vectors, the exact
+// quotient and its characteristic polynomial. Run: go test -run XXX
+// -bench Modes -benchtime 1x ./structural/numeric.
+func BenchmarkModes(b *testing.B) {
+	for _, n := range []int{250, 500, 1000} {
+		sys, p := modesBench(n)
+		b.Run("n="+itoa(n), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				kb := krylov(p, sys.exact, false, nil)
+				m, err := stuckModes(sys, kb, false, func(ids []int32) structural.States { return structural.States{} })
+				if err != nil {
+					b.Fatal(err)
+				}
+				if i == 0 {
+					b.ReportMetric(float64(n-m.Dimension), "stuck")
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkEffort measures the Gramian figures of a stable system with a
+// tenth of the states driven: the Schur form, the Lyapunov (Stein) solve
+// and the symmetric eigensolver; "horizon" adds the 2n×2n exponential.
+func BenchmarkEffort(b *testing.B) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, tc := range []struct {
+		n        int
+		discrete bool
+		horizon  float64
+	}{{250, false, 0}, {500, false, 0}, {1000, false, 0}, {500, true, 0}, {500, false, 1}} {
+		a := stableDense(rng, tc.n, tc.discrete)
+		m := tc.n / 10
+		bm := make([]float64, tc.n*m)
+		for j := 0; j < m; j++ {
+			bm[(10*j)*m+j] = 1
+		}
+		name := "n=" + itoa(tc.n)
+		if tc.discrete {
+			name += "/discrete"
+		}
+		if tc.horizon > 0 {
+			name += "/horizon"
+		}
+		b.Run(name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := GramianEffort(a, bm, tc.n, m, EffortRequest{Discrete: tc.discrete, Horizon: tc.horizon}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

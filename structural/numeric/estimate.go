@@ -238,8 +238,9 @@ func EstimateDense(n, props, trials int, modes, effort, horizon bool) Estimate {
 }
 
 // CheckSize refuses, from the counts alone, a network that Verify would
-// refuse for req: more states than req.MaxStates (the exact check). It
-// lets a caller refuse before reading a whole network. It does not
+// refuse for req: more states than req.MaxStates (the exact check) or,
+// when the modes or the effort are asked for, than req.MaxFloatStates
+// (the dense floating-point work they need). It lets a caller refuse before reading a whole network. It does not
 // apply to a request with a Part, whose size is known only once the part
 // is cut out of the built network.
 func CheckSize(c Counts, req Request) error {
@@ -251,6 +252,17 @@ func CheckSize(c Counts, req Request) error {
 	if c.States > maxStates {
 		return &SizeError{Stage: StageExact, States: c.States, Edges: c.Edges, Signals: c.Inputs + c.Outputs,
 			Limit: maxStates, Estimate: EstimateExact(c, trials)}
+	}
+	if limit := req.maxFloat(); (req.Modes || req.Effort) && limit >= 0 && c.States > limit {
+		props := 0
+		if c.Inputs > 0 {
+			props++
+		}
+		if c.Outputs > 0 {
+			props++
+		}
+		return &SizeError{Stage: StageDense, States: c.States, Edges: c.Edges, Signals: c.Inputs + c.Outputs,
+			Limit: limit, Estimate: EstimateDense(c.States, props, trials, req.Modes, req.Effort, req.Horizon > 0)}
 	}
 	return nil
 }

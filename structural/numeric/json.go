@@ -96,7 +96,9 @@ func (t *Trial) fields() []field {
 	if t.SecondPrime != nil {
 		fs = append(fs, field{"second_prime_dimension", *t.SecondPrime})
 	}
-	return append(fs, t.Float.fields()...)
+	fs = append(fs, t.Float.fields()...)
+	fs = append(fs, t.Modes.fields()...)
+	return append(fs, t.Effort.fields()...)
 }
 
 // MarshalJSON writes the trial as one flat object: its number, dimensions
@@ -107,7 +109,15 @@ func (t Trial) MarshalJSON() ([]byte, error) { return marshalFields(t.fields()) 
 // JSON keys of a trial's scalar figures.
 var TrialColumns = []string{"property", "trial", "sampled_dimension", "second_prime_dimension",
 	"margin", "smallest_singular_value", "at_re", "at_im", "scale", "eigenvalues", "eigenvalues_evaluated",
-	"next_bound", "shift", "shifted_gramian_min", "shifted_gramian_max"}
+	"next_bound", "shift", "shifted_gramian_min", "shifted_gramian_max",
+	"modes_dimension", "kalman_residual", "modes_stable", "modes_undecided",
+	"spectral_abscissa", "spectral_radius", "effort_skipped", "horizon",
+	"gramian_min", "gramian_max", "gramian_trace", "worst_case_energy"}
+
+// ModeColumns are the columns of ModeTable: "property" and "trial", then
+// the JSON keys of a mode.
+var ModeColumns = []string{"property", "trial", "re", "im", "conjugate", "multiplicity", "geometric_multiplicity",
+	"exact", "error_bound", "smallest_kept", "largest_dropped", "stability", "states"}
 
 // Table returns the trials as CSV rows, one per property and trial, under
 // TrialColumns: the column names are the keys of the trials' JSON
@@ -130,4 +140,31 @@ func (r *Result) Table() (header []string, rows [][]string) {
 		}
 	}
 	return append([]string(nil), TrialColumns...), rows
+}
+
+// ModeTable returns the modes as CSV rows, one per property, trial and
+// mode, under ModeColumns (the states as a JSON array of names).
+func (r *Result) ModeTable() (header []string, rows [][]string) {
+	col := make(map[string]int, len(ModeColumns))
+	for i, c := range ModeColumns {
+		col[c] = i
+	}
+	for _, p := range r.Properties() {
+		for _, tr := range p.Trials {
+			if tr.Modes == nil {
+				continue
+			}
+			for i := range tr.Modes.List {
+				row := make([]string, len(ModeColumns))
+				row[0], row[1] = p.Property.String(), strconv.Itoa(tr.Number)
+				for _, f := range tr.Modes.List[i].fields() {
+					if j, ok := col[f.key]; ok {
+						row[j] = cell(f.val)
+					}
+				}
+				rows = append(rows, row)
+			}
+		}
+	}
+	return append([]string(nil), ModeColumns...), rows
 }

@@ -26,7 +26,8 @@ func keysOf(m map[string]any) []string {
 func TestVerifyJSONContract(t *testing.T) {
 	g, in := erNetwork(30, 3, 7)
 	out := [][]int32{{0}, {5}}
-	res, err := Verify(g, Request{Inputs: dz(g, in), Outputs: dz(g, out), Seed: 2, Trials: 2, Part: &Part{Hops: NoLimit, Limit: 20}})
+	res, err := Verify(g, Request{Inputs: dz(g, in), Outputs: dz(g, out), Seed: 2, Trials: 2, Part: &Part{Hops: NoLimit, Limit: 20},
+		Modes: true, Effort: true, Horizon: 0.5})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -38,8 +39,8 @@ func TestVerifyJSONContract(t *testing.T) {
 	if err := json.Unmarshal(b, &top); err != nil {
 		t.Fatal(err)
 	}
-	wantTop := []string{"cautions", "controllability", "duplicates_merged", "edges", "inexact_weights", "network_weights", "nodes",
-		"observability", "part", "prime", "seed", "self_loops", "timings", "trials", "warnings", "weights", "zero_entries"}
+	wantTop := []string{"cautions", "controllability", "duplicates_merged", "edges", "inexact_weights", "kalman", "network_weights", "nodes",
+		"observability", "part", "prime", "seed", "self_loops", "time_domain", "timings", "trials", "warnings", "weights", "zero_entries"}
 	if got := keysOf(top); !slices.Equal(got, wantTop) {
 		t.Errorf("top-level keys %v, want %v", got, wantTop)
 	}
@@ -86,6 +87,9 @@ func TestVerifyJSONContract(t *testing.T) {
 			}
 			for k := range m {
 				seen[k] = true
+				if k == "modes" {
+					continue // the list of modes: ModeTable's rows
+				}
 				if !cols[k] {
 					t.Errorf("trial key %q is not a CSV column", k)
 				}
@@ -93,11 +97,37 @@ func TestVerifyJSONContract(t *testing.T) {
 		}
 	}
 	// Columns never seen here: second_prime_dimension (weights only),
-	// next_bound (a partial margin only).
+	// next_bound (a partial margin only), effort_skipped (an infinite
+	// horizon on an unstable A), worst_case_energy (left out for a singular
+	// Gramian).
 	for c := range cols {
-		if !seen[c] && c != "second_prime_dimension" && c != "next_bound" {
+		if !seen[c] && !slices.Contains([]string{"second_prime_dimension", "next_bound", "effort_skipped", "worst_case_energy"}, c) {
 			t.Errorf("CSV column %q is no trial key", c)
 		}
+	}
+	// Mode rows carry the keys of the mode objects.
+	mh, mrows := res.ModeTable()
+	if !slices.Equal(mh, ModeColumns) {
+		t.Errorf("mode columns %v", mh)
+	}
+	nModes := 0
+	for _, p := range res.Properties() {
+		for _, tr := range p.Trials {
+			for _, md := range tr.Modes.List {
+				nModes++
+				b, _ := json.Marshal(md)
+				var mm map[string]any
+				json.Unmarshal(b, &mm)
+				for k := range mm {
+					if !slices.Contains(ModeColumns, k) {
+						t.Errorf("mode key %q is no column", k)
+					}
+				}
+			}
+		}
+	}
+	if len(mrows) != nModes || nModes == 0 {
+		t.Errorf("%d mode rows for %d modes", len(mrows), nModes)
 	}
 	header, rows := res.Table()
 	if !slices.Equal(header, TrialColumns) || len(rows) != 4 || rows[2][0] != "observability" {

@@ -18,26 +18,23 @@ import (
 type quotient struct {
 	f    *Field
 	n, k int
-	free []int32    // the free positions, increasing: coordinates of V/C
-	slot []int32    // per state: its index in free, or -(1 + basis row) at a pivot
-	r    [][]uint64 // basis rows at the free positions
-	abar []uint64   // k×k, row-major
+	free []int32 // the free positions, increasing: coordinates of V/C
+	slot []int32 // per state: its index in free, or -(1 + basis row) at a pivot
+	e    *echelon
+	abar []uint64 // k×k, row-major
 }
 
 // newQuotient returns the quotient of the sample x of pattern p (Aᵀ with
-// transpose) by the subspace kb spans. It brings kb to reduced row
-// echelon form in place. Time O(r²·n) for the echelon form plus O(E·k)
-// for the matrix; memory O(r·k + k²).
+// transpose) by the subspace kb spans. When the quotient is large (k at
+// least r/2) the basis is brought to reduced row echelon form in place,
+// O(r²·n), and the matrix follows in O(E·k); otherwise each column
+// A·e_free[j] is reduced against the basis, O(k·r·n) in all. Memory
+// O(n + k²) beyond the basis.
 func newQuotient(p *Pattern, x *Exact, transpose bool, kb *krylovBasis) *quotient {
 	n, f := p.N(), &x.F
 	e := kb.echelon
 	rr := len(e.rows)
-	// Back substitution: rows after j are already reduced, so reducing
-	// row j against them clears its entries at their pivots.
-	for j := rr - 2; j >= 0; j-- {
-		e.reduceRange(e.rows[j], j+1, rr)
-	}
-	q := &quotient{f: f, n: n, slot: make([]int32, n)}
+	q := &quotient{f: f, n: n, slot: make([]int32, n), e: e}
 	for i, pv := range e.piv {
 		q.slot[pv] = -int32(i) - 1
 	}
@@ -49,15 +46,51 @@ func newQuotient(p *Pattern, x *Exact, transpose bool, kb *krylovBasis) *quotien
 	}
 	k := len(q.free)
 	q.k = k
-	q.r = make([][]uint64, rr)
-	for i, row := range e.rows {
-		q.r[i] = make([]uint64, k)
-		for j, v := range q.free {
-			q.r[i][j] = row[v]
-		}
-	}
 	q.abar = make([]uint64, k*k)
 	g := p.Out
+	if useDirect(k, rr) {
+		// Column j of Ā: the reduction of column free[j] of A (of Aᵀ: row
+		// free[j] of A) at the free positions.
+		var colPtr []int64
+		var colRow []int32
+		var colVal []uint64
+		if transpose {
+			colPtr, colRow, colVal = transposedColumns(p, x)
+		}
+		v := make([]uint64, n)
+		for j, c := range q.free {
+			for i := range v {
+				v[i] = 0
+			}
+			if transpose {
+				for t := colPtr[c]; t < colPtr[c+1]; t++ {
+					v[colRow[t]] = f.Add(v[colRow[t]], colVal[t])
+				}
+			} else {
+				for t := g.Ptr[c]; t < g.Ptr[c+1]; t++ {
+					w := g.Adj[t]
+					v[w] = f.Add(v[w], x.A[t])
+				}
+			}
+			e.reduceRange(v, 0, rr)
+			for i, fr := range q.free {
+				q.abar[i*k+j] = v[fr]
+			}
+		}
+		return q
+	}
+	// Back substitution: rows after j are already reduced, so reducing
+	// row j against them clears its entries at their pivots.
+	for j := rr - 2; j >= 0; j-- {
+		e.reduceRange(e.rows[j], j+1, rr)
+	}
+	r := make([][]uint64, rr)
+	for i, row := range e.rows {
+		r[i] = make([]uint64, k)
+		for j, v := range q.free {
+			r[i][j] = row[v]
+		}
+	}
 	for u := 0; u < n; u++ {
 		for t := g.Ptr[u]; t < g.Ptr[u+1]; t++ {
 			v := int(g.Adj[t])
@@ -79,7 +112,7 @@ func newQuotient(p *Pattern, x *Exact, transpose bool, kb *krylovBasis) *quotien
 				idx := int(ir)*k + int(jc)
 				q.abar[idx] = f.Add(q.abar[idx], val)
 			} else {
-				ri := q.r[-ir-1]
+				ri := r[-ir-1]
 				for i, rv := range ri {
 					if rv != 0 {
 						idx := i*k + int(jc)
@@ -92,27 +125,55 @@ func newQuotient(p *Pattern, x *Exact, transpose bool, kb *krylovBasis) *quotien
 	return q
 }
 
+// useDirect chooses the column-reduction route for a quotient of
+// dimension k by a basis of rr rows (a variable, so tests can force either
+// route).
+var useDirect = func(k, rr int) bool { return 2*k < rr }
+
+// transposedColumns returns the columns of Aᵀ (the rows of A) in CSR
+// form: column v lists the states u of the edges u -> v with A[v][u].
+func transposedColumns(p *Pattern, x *Exact) ([]int64, []int32, []uint64) {
+	g := p.Out
+	n := g.Rows
+	ptr := make([]int64, n+1)
+	for _, v := range g.Adj {
+		ptr[v+1]++
+	}
+	for v := 0; v < n; v++ {
+		ptr[v+1] += ptr[v]
+	}
+	pos := append([]int64(nil), ptr[:n]...)
+	rows := make([]int32, len(g.Adj))
+	vals := make([]uint64, len(g.Adj))
+	for u := 0; u < n; u++ {
+		for t := g.Ptr[u]; t < g.Ptr[u+1]; t++ {
+			v := g.Adj[t]
+			rows[pos[v]], vals[pos[v]] = int32(u), x.A[t]
+			pos[v]++
+		}
+	}
+	return ptr, rows, vals
+}
+
 // lift maps a functional w̄ on V/C (k coordinates) to the functional w on
-// V that vanishes on C: w at the free positions is w̄, and at the pivot
-// of row i it is -Σ_j R[i][j]·w̄[j].
+// V that vanishes on C: w is w̄ at the free positions, and wᵀrow_i = 0
+// fixes w at the pivot of each basis row, solved from the last row up
+// (row i is one at its pivot and zero at the earlier pivots). O(r·n).
 func (q *quotient) lift(wbar []uint64) []uint64 {
-	f := q.f
+	f, e := q.f, q.e
 	w := make([]uint64, q.n)
 	for j, v := range q.free {
 		w[v] = wbar[j]
 	}
-	for v, s := range q.slot {
-		if s >= 0 {
-			continue
-		}
-		ri := q.r[-s-1]
+	for i := len(e.rows) - 1; i >= 0; i-- {
+		row, pv := e.rows[i], e.piv[i]
 		var acc uint64
-		for j, rv := range ri {
-			if rv != 0 && wbar[j] != 0 {
-				acc = f.Add(acc, f.Mul(rv, wbar[j]))
+		for l, rv := range row {
+			if rv != 0 && w[l] != 0 && int32(l) != pv {
+				acc = f.Add(acc, f.Mul(rv, w[l]))
 			}
 		}
-		w[v] = f.Neg(acc)
+		w[pv] = f.Neg(acc)
 	}
 	return w
 }

@@ -3,6 +3,7 @@ package numeric
 import (
 	"math/big"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"github.com/netsteer/netsteer/matching"
@@ -364,5 +365,46 @@ func TestQuotientAgainstKalmanForm(t *testing.T) {
 	}
 	if tested < 100 {
 		t.Errorf("only %d informative cases", tested)
+	}
+}
+
+// Both routes to the quotient (reduced echelon form, or reducing each
+// column) and both orientations (the pattern of Aᵀ read transposed is the
+// pattern of A) give the same characteristic polynomial.
+func TestQuotientRoutesAgree(t *testing.T) {
+	f := NewField(Mersenne61)
+	rng := rand.New(rand.NewPCG(35, 36))
+	saved := useDirect
+	defer func() { useDirect = saved }()
+	for c := 0; c < 100; c++ {
+		n := 2 + rng.IntN(7)
+		k := 1 + rng.IntN(n-1)
+		a, b, _ := kalmanSystem(rng, n, k, 1+rng.IntN(2))
+		at := make([][]int64, n)
+		for i := range at {
+			at[i] = make([]int64, n)
+			for j := range at[i] {
+				at[i][j] = a[j][i]
+			}
+		}
+		var polys [][]uint64
+		for _, direct := range []bool{false, true} {
+			useDirect = func(int, int) bool { return direct }
+			for _, tr := range []bool{false, true} {
+				m := a
+				if tr {
+					m = at
+				}
+				p, x := denseSample(f, m, b)
+				kb := krylov(p, x, tr, nil)
+				q := newQuotient(p, x, tr, kb)
+				polys = append(polys, charPoly(&f, append([]uint64(nil), q.abar...), q.k))
+			}
+		}
+		for i := 1; i < len(polys); i++ {
+			if !slices.Equal(polys[i], polys[0]) {
+				t.Fatalf("case %d: route %d gives another polynomial", c, i)
+			}
+		}
 	}
 }

@@ -65,6 +65,20 @@ type Request struct {
 	Part *Part
 	// Float tunes the floating-point margin; nil for the defaults.
 	Float *FloatOptions
+	// Modes adds, per trial and property, the modes the signals cannot
+	// move (see): eigenvalues, multiplicities, the states they live on,
+	// whether they are stable (stabilizability, detectability), and with
+	// both designs the sizes of the four parts of the Kalman
+	// decomposition (see Modes, KalmanParts).
+	Modes bool
+	// Effort adds the control effort of each trial's system (see Effort):
+	// the Gramian over Horizon (0: infinite, for a stable A only).
+	Effort  bool
+	Horizon float64
+	// Discrete reads the systems as x(k+1) = A x(k) + B u(k): stability
+	// means |λ| < 1 and the Gramian is a sum. It affects Modes and Effort
+	// only.
+	Discrete bool
 	// Progress, when not nil, receives progress reports, one at a time.
 	Progress func(Progress)
 }
@@ -95,7 +109,7 @@ func (r *Request) warnMargin() float64 {
 
 // Progress reports how far Verify has come.
 type Progress struct {
-	Stage         string // "exact" or "float"
+	Stage         string // "exact", "float" or "modes"
 	Kind          string // "controllability" or "observability"
 	Trial, Trials int    // 1-based
 	Done, Total   int    // dimension reached of the structural one (exact)
@@ -151,10 +165,16 @@ type Result struct {
 	// ZeroEntries counts edges whose value is zero: repeated edges whose
 	// weights cancel. They stay in the structure but not in the numbers.
 	ZeroEntries int `json:"zero_entries"`
+	// TimeDomain is "continuous" or "discrete" when modes or efforts were
+	// computed.
+	TimeDomain string `json:"time_domain,omitempty"`
 	// Controllability and Observability are nil when no inputs (outputs)
 	// were given.
 	Controllability *PropertyResult `json:"controllability,omitempty"`
 	Observability   *PropertyResult `json:"observability,omitempty"`
+	// Kalman gives, per trial, the sizes of the four parts of the Kalman
+	// decomposition, with Modes and both designs.
+	Kalman []KalmanParts `json:"kalman,omitempty"`
 	// Warnings are what an engineer must hear about the numbers, one per
 	// kind of finding and property.
 	Warnings []Warning `json:"warnings"`
@@ -198,8 +218,27 @@ type Timings struct {
 	// dimension).
 	Structural float64 `json:"structural_s"`
 	Exact      float64 `json:"exact_s"`
-	Float      float64 `json:"float_s"`
-	Total      float64 `json:"total_s"`
+	// Float includes the efforts, computed on the same Schur forms.
+	Float float64 `json:"float_s"`
+	Modes float64 `json:"modes_s,omitempty"`
+	Total float64 `json:"total_s"`
+}
+
+// KalmanParts are the dimensions of the four parts of the Kalman
+// decomposition of one system (A, B, C) (Kalman, "Mathematical
+// description of linear dynamical systems", SIAM J. Control 1(2), 1963):
+// controllable and observable (the order of a minimal realisation of the
+// transfer function), controllable but unobservable, uncontrollable but
+// observable, neither. They add up to the number of states. Exact over
+// GF(p): with C the controllable subspace and N the unobservable one,
+// dim C∩N = dim C - rank(B_C·B_Oᵀ) for bases B_C of C and B_O of the row
+// space of the observability matrix.
+type KalmanParts struct {
+	Trial                      int `json:"trial"`
+	ControllableObservable     int `json:"controllable_observable"`
+	ControllableUnobservable   int `json:"controllable_unobservable"`
+	UncontrollableObservable   int `json:"uncontrollable_observable"`
+	UncontrollableUnobservable int `json:"uncontrollable_unobservable"`
 }
 
 // PropertyResult is one property verified: the structural verdict, with
@@ -229,6 +268,10 @@ type Sample struct {
 	// FloatSkipped says why the floating-point check did not run; empty
 	// when it ran.
 	FloatSkipped string `json:"float_skipped,omitempty"`
+	// ModesStable, with Request.Modes, reports that in every trial every
+	// mode the signals cannot move (see) is proved stable: the pair is
+	// stabilizable (detectable, for outputs).
+	ModesStable *bool `json:"modes_stable,omitempty"`
 	// Trials holds each trial's own figures.
 	Trials []Trial `json:"trials"`
 }
@@ -246,6 +289,10 @@ type Trial struct {
 	SecondPrime *int
 	// Float is the floating-point check, nil when skipped.
 	Float *FloatResult
+	// Modes (with Request.Modes) and Effort (with Request.Effort); nil
+	// otherwise.
+	Modes  *Modes
+	Effort *Effort
 }
 
 // Verify samples the parameters of g's pattern (or takes the model's own
@@ -254,12 +301,22 @@ type Trial struct {
 // the structural verdict (structural.Check) of each design. With
 // req.Part it verifies a connected part of g instead.
 //
+// With req.Modes it adds, per trial and property, the modes the signals
+// cannot move (see) with their stability (Modes), and with both designs
+// the four parts of the Kalman decomposition (KalmanParts); with
+// req.Effort the Gramian figures of control effort (Effort).
+//
 // Time: the structural verdicts (one matching each, plus the generic
 // dimension of a failing design); per trial and property, the exact
 // Krylov dimension r in O(r·(E + r·n)) field operations and r·n words,
 // trials in parallel; and, up to req.MaxFloatStates, the dense check in
-// O(n³) per trial. Networks above req.MaxStates are refused before any of
-// it with a *SizeError that carries the estimated cost.
+// O(n³) per trial, the effort included. The modes add a second exact
+// Krylov basis (of the floating-point values taken exactly), an
+// orthonormal basis in O(n·r²), O(n²·k) for the uncontrollable block of
+// size k = n - r, and O(k³) for its eigenvalues and its exact
+// characteristic polynomial. Networks above req.MaxStates (and, for modes
+// or effort, above req.MaxFloatStates) are refused before any of it with a
+// *SizeError that carries the estimated cost.
 func Verify(g *structural.Network, req Request) (*Result, error) {
 	start := time.Now()
 	var in, out structural.Design
@@ -278,6 +335,14 @@ func Verify(g *structural.Network, req Request) (*Result, error) {
 	if req.Trials > MaxTrials {
 		return nil, fmt.Errorf("numeric: %d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", req.Trials, MaxTrials)
 	}
+	if req.Effort {
+		if err := (EffortRequest{Discrete: req.Discrete, Horizon: req.Horizon}).check(); err != nil {
+			return nil, err
+		}
+	}
+	if (req.Modes || req.Effort) && req.maxFloat() < 0 {
+		return nil, errors.New("numeric: the modes and the effort need the floating-point check, which is turned off")
+	}
 	if err := checkWeights(in, req.InputWeights, "input"); err != nil {
 		return nil, err
 	}
@@ -289,6 +354,9 @@ func Verify(g *structural.Network, req Request) (*Result, error) {
 	if !req.Weights {
 		seed := req.Seed
 		res.Seed = &seed
+	}
+	if req.Modes || req.Effort {
+		res.TimeDomain = timeDomain(req.Discrete)
 	}
 	inW, outW := req.InputWeights, req.OutputWeights
 	if req.Part == nil {
@@ -525,11 +593,20 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 			report(Progress{Stage: "float", Kind: k.name(), Trial: t + 1, Trials: trials})
 			_, re := system(k, t)
 			a, b := re.Dense(k.pat, k.transpose)
-			fr, err := Float(a, b, n, len(k.signals), req.Float)
+			fr, sf, c, err := floatCheck(a, b, n, len(k.signals), req.Float)
 			if err != nil {
 				return err
 			}
 			r.Trials[t].Float = fr
+			if req.Effort {
+				solver, err := newEffortSolver(sf, EffortRequest{Discrete: req.Discrete, Horizon: req.Horizon})
+				if err != nil {
+					return err
+				}
+				if r.Trials[t].Effort, err = solver.effort(c, len(k.signals)); err != nil {
+					return err
+				}
+			}
 			if r.Margin == nil || fr.Margin < *r.Margin {
 				m := fr.Margin
 				r.Margin = &m
@@ -537,5 +614,107 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 		}
 	}
 	res.Timings.Float = time.Since(t0).Seconds()
+	if req.Modes {
+		t0 = time.Now()
+		if err := verifyModes(g, req, kinds, system, res); err != nil {
+			return err
+		}
+		res.Timings.Modes = time.Since(t0).Seconds()
+	}
+	return nil
+}
+
+// verifyModes analyses the stuck modes of every trial's real system, and
+// the Kalman parts when both properties are verified.
+func verifyModes(g *structural.Network, req *Request, kinds []*kind, system func(*kind, int) (*Exact, *Real), res *Result) error {
+	n := g.N()
+	main, alt := NewField(Mersenne61), NewField(Alt61)
+	for _, k := range kinds {
+		stable := true
+		k.res.ModesStable = &stable
+	}
+	for t := 0; t < req.trials(); t++ {
+		report := func(p Progress) {
+			if req.Progress != nil {
+				req.Progress(p)
+			}
+		}
+		type basis struct {
+			kb *krylovBasis
+			f  Field
+		}
+		var bases []basis
+		for _, k := range kinds {
+			report(Progress{Stage: "modes", Kind: k.name(), Trial: t + 1, Trials: req.trials()})
+			_, re := system(k, t)
+			image := func(f Field) *Exact {
+				if req.Weights {
+					x, _ := ExactFromWeights(k.pat, f, g.Weights(), k.weights)
+					return x
+				}
+				return exactOf(re, f, false)
+			}
+			first, second := main, alt
+			x := image(first)
+			kb := krylov(k.pat, x, k.transpose, nil)
+			if len(kb.rows) < k.res.Dimension {
+				// A prime dividing the minors would invent modes: try the
+				// other one and keep the larger dimension.
+				x2 := image(second)
+				if kb2 := krylov(k.pat, x2, k.transpose, nil); len(kb2.rows) > len(kb.rows) {
+					x, kb, first, second = x2, kb2, second, first
+				}
+			}
+			a, b := re.Dense(k.pat, k.transpose)
+			other := second
+			sys := &realSystem{p: k.pat, re: re, transpose: k.transpose, n: n, m: len(k.signals), a: a, b: b,
+				exact: x, alt: func() *Exact { return image(other) }, decimal: req.Weights}
+			md, err := stuckModes(sys, kb, req.Discrete, g.States)
+			if err != nil {
+				return err
+			}
+			k.res.Trials[t].Modes = md
+			if !md.Stable {
+				*k.res.ModesStable = false
+			}
+			bases = append(bases, basis{kb, first})
+		}
+		if len(kinds) == 2 {
+			c, o := bases[0], bases[1]
+			if c.f.P != o.f.P {
+				// Bring both to the prime that found the larger dimension.
+				k := kinds[0]
+				if c.f.P != alt.P {
+					k = kinds[1]
+				}
+				_, re := system(k, t)
+				var x *Exact
+				if req.Weights {
+					x, _ = ExactFromWeights(k.pat, alt, g.Weights(), k.weights)
+				} else {
+					x = exactOf(re, alt, false)
+				}
+				kb := krylov(k.pat, x, k.transpose, nil)
+				if k == kinds[0] {
+					c = basis{kb, alt}
+				} else {
+					o = basis{kb, alt}
+				}
+			}
+			rc, ro := len(c.kb.rows), len(o.kb.rows)
+			var co int
+			switch {
+			case rc == n:
+				co = ro
+			case ro == n:
+				co = rc
+			default:
+				co = jointRank(&c.f, c.kb.rows, o.kb.rows)
+			}
+			res.Kalman = append(res.Kalman, KalmanParts{Trial: t + 1, ControllableObservable: co,
+				ControllableUnobservable: rc - co, UncontrollableObservable: ro - co,
+				UncontrollableUnobservable: n - rc - ro + co})
+		}
+	}
 	return nil
 }

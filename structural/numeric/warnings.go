@@ -55,7 +55,27 @@ const (
 	WarnPartOnly WarningKind = "part_only"
 	// WarnSignalsLeftOut: Count signals act only outside the part.
 	WarnSignalsLeftOut WarningKind = "signals_left_out"
+	// WarnModesUndecided: Count modes lie within their error bound of the
+	// stability boundary: whether feedback must move them is not decided.
+	WarnModesUndecided WarningKind = "modes_undecided"
+	// WarnKalmanResidual: the floating-point basis of the controllable
+	// subspace is far from invariant (Value = the residual, Level =
+	// KalmanResidualLevel): the floating-point modes are unreliable.
+	WarnKalmanResidual WarningKind = "kalman_residual"
+	// WarnEffortSkipped: the infinite-horizon Gramian does not exist for
+	// an unstable A (Value = the spectral abscissa or radius).
+	WarnEffortSkipped WarningKind = "effort_skipped"
+	// WarnGramianSingular: the system is controllable exactly, but its
+	// Gramian is singular within rounding: some direction needs input
+	// energy beyond the precision of the others (Value =
+	// smallest/largest eigenvalue).
+	WarnGramianSingular WarningKind = "gramian_singular"
 )
+
+// KalmanResidualLevel is the Kalman residual above which the
+// floating-point modes are flagged: a basis this far from invariant moves
+// eigenvalues by about as much, relative to ‖A‖.
+const KalmanResidualLevel = 1e-6
 
 // Warning is one finding about the numbers, as data, with a sentence that
 // words it for a report.
@@ -193,6 +213,53 @@ func warnings(res *Result, req *Request) []Warning {
 				Message: fmt.Sprintf("%s the margin was evaluated at %d of %d eigenvalues, those with the weakest coupling to the signals (the time for all grows as N^3 times the signals); the others' coupling bound is at least %.2g.",
 					who(partial), f.Evaluated, f.Eigenvalues, f.NextBound/f.Scale)})
 		}
+		var undecided, resid, skipped, gsing []int
+		undecidedCount, worstResid := 0, 0.0
+		for i, tr := range p.Trials {
+			if m := tr.Modes; m != nil {
+				if m.Undecided > 0 {
+					undecided = append(undecided, i)
+					undecidedCount = max(undecidedCount, m.Undecided)
+				}
+				if m.KalmanResidual > KalmanResidualLevel {
+					resid = append(resid, i)
+					worstResid = math.Max(worstResid, m.KalmanResidual)
+				}
+			}
+			if e := tr.Effort; e != nil {
+				if e.Skipped != "" {
+					skipped = append(skipped, i)
+				} else if math.IsInf(e.WorstCaseEnergy, 1) && tr.Dimension == n {
+					gsing = append(gsing, i)
+				}
+			}
+		}
+		if len(undecided) > 0 {
+			out = append(out, Warning{Kind: WarnModesUndecided, Property: prop, Trials: numbers(undecided), WorstTrial: undecided[0] + 1, Count: undecidedCount,
+				Message: fmt.Sprintf("%s %d %s that the signals cannot move lie within rounding of the stability boundary: whether feedback must move them is not decided.",
+					who(undecided), undecidedCount, plural(undecidedCount, "mode", "modes"))})
+		}
+		if len(resid) > 0 {
+			out = append(out, Warning{Kind: WarnKalmanResidual, Property: prop, Trials: numbers(resid), Value: ptr(worstResid), Level: ptr(KalmanResidualLevel),
+				Message: fmt.Sprintf("%s the floating-point basis of the controllable subspace is far from invariant (residual %.2g): the values of the modes known in floating point only are unreliable; their number and the exact ones are not affected.",
+					who(resid), worstResid)})
+		}
+		if len(skipped) > 0 {
+			e := p.Trials[skipped[0]].Effort
+			v := e.SpectralAbscissa
+			if req.Discrete {
+				v = e.SpectralRadius
+			}
+			out = append(out, Warning{Kind: WarnEffortSkipped, Property: prop, Trials: numbers(skipped), WorstTrial: skipped[0] + 1, Value: ptr(v),
+				Message: fmt.Sprintf("%s A is not stable, so the infinite-horizon Gramian does not exist: the control effort needs a finite horizon.", who(skipped))})
+		}
+		if len(gsing) > 0 {
+			e := p.Trials[gsing[0]].Effort
+			out = append(out, Warning{Kind: WarnGramianSingular, Property: prop, Trials: numbers(gsing), WorstTrial: gsing[0] + 1,
+				Value: ptr(e.GramianMin / e.GramianMax), Level: ptr(round),
+				Message: fmt.Sprintf("%s the system is %s exactly, but its Gramian is singular within rounding (smallest/largest eigenvalue %.2g): some direction needs input energy beyond the precision of the others.",
+					who(gsing), adj, e.GramianMin/e.GramianMax)})
+		}
 		lost := p.Dimension - p.SampledDimension
 		switch {
 		case lost < 0:
@@ -242,10 +309,12 @@ func warnings(res *Result, req *Request) []Warning {
 
 // Standing cautions of a result.
 const (
-	CautionScreening = "Numeric results describe the numbers checked. Like the structural results they are a screening step, no substitute for dynamic studies, safety analysis, local codes or licensed engineering review."
-	CautionMargin    = "The margin is for unstructured changes of A and B and is evaluated at the eigenvalues of A only, so the true distance to an uncontrollable design can be smaller."
-	CautionFit       = "A model's numbers are only as good as its fit: these figures hold for the values given, and a change within the uncertainty of the identified parameters can change them."
-	CautionSamples   = "Random samples show what almost all parameter values do; a particular plant's values can be one of the exceptions (ties, cancellations, symmetric designs)."
+	CautionScreening    = "Numeric results describe the numbers checked. Like the structural results they are a screening step, no substitute for dynamic studies, safety analysis, local codes or licensed engineering review."
+	CautionMargin       = "The margin is for unstructured changes of A and B and is evaluated at the eigenvalues of A only, so the true distance to an uncontrollable design can be smaller."
+	CautionFit          = "A model's numbers are only as good as its fit: these figures hold for the values given, and a change within the uncertainty of the identified parameters can change them."
+	CautionSamples      = "Random samples show what almost all parameter values do; a particular plant's values can be one of the exceptions (ties, cancellations, symmetric designs)."
+	CautionSampledModes = "The modes and efforts of random samples are those of made-up numbers: exact modes that recur in every trial (such as the zero mode of an unreached state without dynamics) hold for every system of the pattern; the other values only illustrate."
+	CautionLinear       = "Modes, stabilizability and control effort are properties of the linear model about one operating point; input limits, nonlinearity and uncertainty of the numbers are not accounted for."
 )
 
 // cautions returns the standing cautions that apply to res.
@@ -261,6 +330,12 @@ func cautions(res *Result) []string {
 			out = append(out, CautionMargin)
 			break
 		}
+	}
+	if res.TimeDomain != "" {
+		if !res.Weights {
+			out = append(out, CautionSampledModes)
+		}
+		out = append(out, CautionLinear)
 	}
 	return append(out, CautionScreening)
 }
