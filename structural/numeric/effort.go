@@ -95,6 +95,11 @@ type effortSolver struct {
 	// the LU factors of T+I.
 	tc  []float64
 	tpi *mat.LU
+	// Continuous, finite horizon: the scaled step, and e^{-T·h'·2^i},
+	// e^{Tᵀ·h'·2^i} for i = 0..squarings (see blockGramian).
+	hs        float64
+	squarings int
+	f1, f2    []*mat.Dense
 }
 
 // newEffortSolver prepares the efforts of A given by its Schur form.
@@ -118,6 +123,9 @@ func newEffortSolver(sf *schurForm, req EffortRequest) (*effortSolver, error) {
 		s.stable = s.radius < 1-tol
 	} else {
 		s.stable = s.absc < -tol
+	}
+	if !req.Discrete && req.Horizon > 0 {
+		s.prepareHorizon(normOne(sf.t, n))
 	}
 	if req.Discrete && req.Horizon == 0 && s.stable {
 		// Stein equation A W Aᵀ - W + Q = 0 as the Lyapunov equation of its
@@ -183,7 +191,7 @@ func (s *effortSolver) effort(c []float64, m int) (*Effort, error) {
 	case s.req.Discrete:
 		x = steinSum(s.sf.t, q, n, int64(s.req.Horizon))
 	default:
-		x, err = vanLoan(s.sf.t, q, n, s.req.Horizon)
+		x, err = s.blockGramian(c, m)
 	}
 	if err != nil {
 		return nil, err
@@ -263,47 +271,131 @@ func steinSum(t, q []float64, n int, steps int64) []float64 {
 	return x.RawMatrix().Data
 }
 
-// vanLoan returns ∫₀ʰ e^{Ts}Qe^{Tᵀs} ds from one matrix exponential:
-// exp([[-T, Q], [0, Tᵀ]]·h) = [[F₁, G], [0, F₂]] with F₂ = e^{Tᵀh}, and
-// the integral is F₂ᵀG (Van Loan, "Computing integrals involving the
-// matrix exponential", IEEE TAC 23(3):395-404, 1978). It needs no
-// stability and no Lyapunov solve, so eigenvalues at zero or symmetric
-// about the imaginary axis are no trouble; F₁ = e^{-Th} may grow large
-// when h·‖T‖ does, so the horizon should be of the order of the slowest
-// time constants. Time: the exponential of a 2n×2n matrix (gonum's
-// scaling and squaring Padé).
-func vanLoan(t, q []float64, n int, h float64) ([]float64, error) {
-	big := mat.NewDense(2*n, 2*n, nil)
+// normOne is the largest absolute column sum of the n×n row-major t.
+func normOne(t []float64, n int) float64 {
+	best := 0.0
+	for j := 0; j < n; j++ {
+		var sum float64
+		for i := 0; i < n; i++ {
+			sum += math.Abs(t[i*n+j])
+		}
+		best = math.Max(best, sum)
+	}
+	return best
+}
+
+// prepareHorizon chooses the scaled step h' = h/2^s with ‖T‖₁·h' <= 1/4
+// and computes the exponentials every input matrix shares.
+func (s *effortSolver) prepareHorizon(norm1 float64) {
+	n, h := s.n, s.req.Horizon
+	sq := 0
+	if x := norm1 * h / 0.25; x > 1 {
+		sq = int(math.Ceil(math.Log2(x)))
+	}
+	s.squarings, s.hs = sq, h/math.Ldexp(1, sq)
+	neg := mat.NewDense(n, n, nil)
+	tr := mat.NewDense(n, n, nil)
 	for i := 0; i < n; i++ {
 		for j := 0; j < n; j++ {
-			big.Set(i, j, -t[i*n+j]*h)
-			big.Set(i, n+j, q[i*n+j]*h)
-			big.Set(n+i, n+j, t[j*n+i]*h)
+			neg.Set(i, j, -s.sf.t[i*n+j]*s.hs)
+			tr.Set(j, i, s.sf.t[i*n+j]*s.hs)
 		}
 	}
-	var ex mat.Dense
-	ex.Exp(big)
-	f2 := ex.Slice(n, 2*n, n, 2*n)
-	g := ex.Slice(0, n, n, 2*n)
+	var e1, e2 mat.Dense
+	e1.Exp(neg)
+	e2.Exp(tr)
+	s.f1, s.f2 = []*mat.Dense{&e1}, []*mat.Dense{&e2}
+	for i := 0; i < sq; i++ {
+		var a, b mat.Dense
+		a.Mul(s.f1[i], s.f1[i])
+		b.Mul(s.f2[i], s.f2[i])
+		s.f1, s.f2 = append(s.f1, &a), append(s.f2, &b)
+	}
+}
+
+// blockGramian returns ∫₀ʰ e^{Ts}ccᵀe^{Tᵀs} ds by Van Loan's block
+// exponential (Van Loan, "Computing integrals involving the matrix
+// exponential", IEEE TAC 23(3):395-404, 1978): exp([[-T, Q], [0, Tᵀ]]·h)
+// = [[F₁, G], [0, F₂]] with F₂ = e^{Tᵀh}, and the integral is F₂ᵀG. It
+// needs no stability and no Lyapunov solve, so eigenvalues at zero or
+// symmetric about the imaginary axis are no trouble. The diagonal blocks
+// do not depend on the inputs and are shared (prepareHorizon); only G is
+// computed per input matrix, by scaling and squaring: at the step h' the
+// Taylor series G = Σ_k P_k/k! with P₁ = h'Q and P_{k+1} = -h'T·P_k +
+// h'Q·(h'Tᵀ)^k converges fast (‖T‖₁h' <= 1/4: about 12 terms reach
+// 2^-53), and squaring gives G_{2t} = F₁(t)·G_t +
+// G_t·F₂(t). Q = ccᵀ has rank m, so Q·(h'Tᵀ)^k = c·((h'T)^k c)ᵀ costs n²m.
+// Time O((K + 2s)·n³) per input matrix for K terms and s squarings.
+// F₁ = e^{-Th} grows when h·‖T‖ does, so the horizon should be of the
+// order of the slowest time constants.
+func (s *effortSolver) blockGramian(c []float64, m int) ([]float64, error) {
+	n, hs := s.n, s.hs
+	tau := mat.NewDense(n, n, nil) // h'·T
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			tau.Set(i, j, s.sf.t[i*n+j]*hs)
+		}
+	}
+	cm := mat.NewDense(n, max(m, 1), nil)
+	for i := 0; i < n; i++ {
+		for j := 0; j < m; j++ {
+			cm.Set(i, j, c[i*m+j])
+		}
+	}
+	var p mat.Dense // P_k
+	p.Mul(cm, cm.T())
+	p.Scale(hs, &p)
+	g := mat.DenseCopyOf(&p) // Σ P_k/k!
+	v := mat.DenseCopyOf(cm) // (h'T)^k c
+	// ‖P_k‖ <= k·θ^{k-1}·‖h'Q‖ for θ = ‖h'T‖₁ <= 1/4 (P_k is a sum of k
+	// products (-h'T)^i·h'Q·(h'Tᵀ)^j, i + j = k - 1), and G is h'Q plus
+	// terms of relative size θ: the series stops once k·θ^{k-1}/k! falls
+	// below 2^-53. (A test on the terms themselves would stop early: P₂ of
+	// a scalar system is zero.)
+	theta := normOne(s.sf.t, n) * hs
+	fact := 1.0
+	for k := 1; k < 60; k++ {
+		if float64(k+1)*math.Pow(theta, float64(k))/(fact*float64(k+1)) < 0x1p-53 {
+			break
+		}
+		var tp, vv, low mat.Dense
+		tp.Mul(tau, &p)
+		vv.Mul(tau, v)
+		v = &vv
+		low.Mul(cm, v.T())
+		low.Scale(hs, &low)
+		p.Sub(&low, &tp)
+		fact *= float64(k + 1)
+		var term mat.Dense
+		term.Scale(1/fact, &p)
+		g.Add(g, &term)
+	}
+	for i := 0; i < s.squarings; i++ {
+		var a, b mat.Dense
+		a.Mul(s.f1[i], g)
+		b.Mul(g, s.f2[i])
+		g.Add(&a, &b)
+	}
 	var x mat.Dense
-	x.Mul(f2.T(), g)
-	out := x.RawMatrix()
+	x.Mul(s.f2[s.squarings].T(), g)
 	data := make([]float64, n*n)
 	for i := 0; i < n; i++ {
-		copy(data[i*n:(i+1)*n], out.Data[i*out.Stride:i*out.Stride+n])
-	}
-	for _, v := range data {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("numeric: the finite-horizon Gramian overflowed: horizon %g is too long for the fastest modes of A", h)
+		for j := 0; j < n; j++ {
+			v := x.At(i, j)
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("numeric: the finite-horizon Gramian overflowed: horizon %g is too long for the fastest modes of A", s.req.Horizon)
+			}
+			data[i*n+j] = v
 		}
 	}
 	return data, nil
 }
 
 // GramianEffort computes the effort of the dense system (A, B), a n×n and
-// b n×m row-major (neither modified). Time O(n³) (the Schur form, a
-// Lyapunov solve and a symmetric eigensolver), or with a continuous
-// horizon the exponential of a 2n×2n matrix.
+// b n×m row-major (neither modified). Time O(n³): the Schur form, a
+// Lyapunov solve (or, with a continuous horizon, two n×n exponentials and
+// a scaling and squaring of the coupling block; in discrete time a
+// doubling) and a symmetric eigensolver.
 func GramianEffort(a, b []float64, n, m int, req EffortRequest) (*Effort, error) {
 	if n == 0 {
 		return nil, errors.New("numeric: empty system")

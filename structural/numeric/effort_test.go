@@ -303,3 +303,45 @@ func TestRankPlacement(t *testing.T) {
 		t.Errorf("orders %v and %v", o1, o2)
 	}
 }
+
+// fullVanLoan is the finite-horizon Gramian from gonum's exponential of
+// the whole 2n×2n block matrix [[-A, BBᵀ], [0, Aᵀ]]·T (Van Loan 1978; the
+// reference route that blockGramian shortens).
+func fullVanLoan(a, b []float64, n, m int, h float64) *mat.Dense {
+	big := mat.NewDense(2*n, 2*n, nil)
+	for i := 0; i < n; i++ {
+		for j := 0; j < n; j++ {
+			var q float64
+			for l := 0; l < m; l++ {
+				q += b[i*m+l] * b[j*m+l]
+			}
+			big.Set(i, j, -a[i*n+j]*h)
+			big.Set(i, n+j, q*h)
+			big.Set(n+i, n+j, a[j*n+i]*h)
+		}
+	}
+	var ex mat.Dense
+	ex.Exp(big)
+	var x mat.Dense
+	x.Mul(ex.Slice(n, 2*n, n, 2*n).T(), ex.Slice(0, n, n, 2*n))
+	return &x
+}
+
+// The shared-exponential route agrees with gonum's exponential of the
+// whole block matrix, for horizons that need many squarings too.
+func TestEffortBlockGramian(t *testing.T) {
+	rng := rand.New(rand.NewPCG(55, 56))
+	for c := 0; c < 40; c++ {
+		n, m := 1+rng.IntN(8), 1+rng.IntN(3)
+		a, b := randDense(rng, n, n), randDense(rng, n, m)
+		h := []float64{0.05, 0.7, 3}[c%3]
+		e, err := GramianEffort(a, b, n, m, EffortRequest{Horizon: h})
+		if err != nil {
+			t.Fatal(err)
+		}
+		lo, hi, tr := symExtremes(fullVanLoan(a, b, n, m, h))
+		if !near(e.GramianMax, hi, 1e-9) || !near(e.GramianTrace, tr, 1e-9) || math.Abs(e.GramianMin-lo) > 1e-9*hi {
+			t.Fatalf("case %d (h=%g): %g..%g trace %g, full block exponential %g..%g trace %g", c, h, e.GramianMin, e.GramianMax, e.GramianTrace, lo, hi, tr)
+		}
+	}
+}
