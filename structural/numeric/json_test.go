@@ -2,10 +2,13 @@ package numeric
 
 import (
 	"encoding/json"
+	"math/rand/v2"
 	"slices"
 	"sort"
 	"strings"
 	"testing"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 func keysOf(m map[string]any) []string {
@@ -147,5 +150,52 @@ func TestVerifyJSONContract(t *testing.T) {
 	col := slices.Index(TrialColumns, "next_bound")
 	if nb, ok := tr["next_bound"].(float64); !ok || rows[0][col] == "" || cell(nb) != rows[0][col] {
 		t.Errorf("next_bound JSON %v, CSV %q", tr["next_bound"], rows[0][col])
+	}
+}
+
+// No NaN or Inf reaches JSON, whatever the numbers: encoding/json refuses
+// them, so marshalling every result of random weighted systems (unstable,
+// singular, uncontrollable, with zero entries, in both time domains, with
+// and without a horizon) must succeed.
+func TestVerifyJSONNeverNaN(t *testing.T) {
+	rng := rand.New(rand.NewPCG(61, 62))
+	vals := []float64{-2, -1, -0.5, 0.5, 1, 2, 3}
+	for c := 0; c < 200; c++ {
+		n := 1 + rng.IntN(6)
+		b := structural.NewIntBuilder(n, 0)
+		for u := 0; u < n; u++ {
+			for v := 0; v < n; v++ {
+				if rng.Float64() < 0.35 {
+					b.AddWeightedEdge(int32(u), int32(v), vals[rng.IntN(len(vals))])
+				}
+			}
+		}
+		g, err := b.Build(structural.BuildOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		in := [][]int32{{int32(rng.IntN(n))}}
+		out := [][]int32{{int32(rng.IntN(n))}}
+		req := Request{Inputs: dz(g, in), Outputs: dz(g, out), Weights: c%2 == 0, Seed: uint64(c), Trials: 1,
+			Modes: true, Effort: true, Discrete: c%3 == 0}
+		if c%4 == 1 {
+			req.Horizon = float64(1 + rng.IntN(3))
+		}
+		res, err := Verify(g, req)
+		if err != nil {
+			t.Fatalf("case %d: %v", c, err)
+		}
+		if _, err := json.Marshal(res); err != nil {
+			t.Fatalf("case %d: %v", c, err)
+		}
+		_, rows := res.Table()
+		_, mrows := res.ModeTable()
+		for _, row := range append(rows, mrows...) {
+			for _, cl := range row {
+				if strings.Contains(cl, "NaN") || strings.Contains(cl, "Inf") {
+					t.Fatalf("case %d: CSV cell %q", c, cl)
+				}
+			}
+		}
 	}
 }

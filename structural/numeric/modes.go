@@ -412,16 +412,23 @@ func stuckModes(sys *realSystem, kb *krylovBasis, discrete bool, names func([]in
 		}
 		var sum complex128
 		bound := 0.0
-		pair := false
+		reals, pairs := 0, 0
 		for _, j := range cl {
 			sum += ev[j].lam
 			bound = math.Max(bound, ev[j].bound)
-			pair = pair || ev[j].pairTop
+			if ev[j].pairTop {
+				pairs++
+			} else {
+				reals++
+			}
 		}
 		lam := sum / complex(float64(len(cl)), 0)
-		md := Mode{Eigenvalue: lam, Conjugate: pair, Multiplicity: len(cl), ErrorBound: bound}
-		if !pair && imag(lam) != 0 {
-			md.Eigenvalue = complex(real(lam), 0)
+		md := Mode{Eigenvalue: lam, Conjugate: true, Multiplicity: pairs, ErrorBound: bound}
+		if reals > 0 || math.Abs(imag(lam)) <= bound {
+			// A real eigenvalue, or a cluster that straddles the real axis
+			// within its bound (a defective real eigenvalue split by
+			// rounding): one real mode, conjugates counted.
+			md.Eigenvalue, md.Conjugate, md.Multiplicity = complex(real(lam), 0), false, reals+2*pairs
 		}
 		md.Stability = floatStability(md.Eigenvalue, bound, discrete)
 		// Support: union over the cluster of the lifted left eigenvectors.

@@ -171,6 +171,28 @@ func TestModesIrrational(t *testing.T) {
 	if m.List[0].Stability != Unstable || m.List[1].Stability != Stable || m.Stable {
 		t.Errorf("stability %s %s, stabilizable %v", m.List[0].Stability, m.List[1].Stability, m.Stable)
 	}
+	// Defective and irrational: the companion matrix of (x² - 2)² =
+	// x⁴ - 4x² + 4 has ±√2, each a double eigenvalue with one eigenvector
+	// (by hand); rounding splits each by about √ε, and the error bounds
+	// (huge condition numbers) put each pair back together as one mode of
+	// multiplicity 2.
+	a = [][]float64{
+		{-1, 0, 0, 0, 0},
+		{0, 0, 1, 0, 0},
+		{0, 0, 0, 1, 0},
+		{0, 0, 0, 0, 1},
+		{0, -4, 0, 4, 0},
+	}
+	m, _ = modesOf(t, a, [][]float64{{1}, {0}, {0}, {0}, {0}}, false)
+	if len(m.List) != 2 {
+		t.Fatalf("defective modes %+v", m.List)
+	}
+	for i, want := range []float64{math.Sqrt2, -math.Sqrt2} {
+		md := m.List[i]
+		if md.Exact != "" || md.Multiplicity != 2 || md.Conjugate || math.Abs(real(md.Eigenvalue)-want) > 1e-6 {
+			t.Errorf("defective mode %d: %+v, want %g twice", i, md, want)
+		}
+	}
 }
 
 // The four parts of the Kalman decomposition on a hand example with one
@@ -550,4 +572,100 @@ func TestModesUndecidedAndEffortSkipped(t *testing.T) {
 	if e := res.Controllability.Trials[0].Effort; e == nil || e.Skipped == "" {
 		t.Errorf("effort %+v", e)
 	}
+}
+
+// On random patterns with random samples, the stuck modes are a part of
+// the spectrum of A (gonum's eigenvalues), their multiplicities add up to
+// n minus the dimension, and at every one of them [A - λI, B] loses rank
+// by gonum's SVD (PBH): the modes of the floating-point path, tested
+// independently.
+func TestModesSampledPatterns(t *testing.T) {
+	rng := rand.New(rand.NewPCG(43, 44))
+	modes := 0
+	for c := 0; c < 60; c++ {
+		n := 5 + rng.IntN(20)
+		p := randomPattern(rng, n, 1.5/float64(n), 1+rng.IntN(2))
+		bl := structural.NewIntBuilder(n, 0)
+		for u := 0; u < n; u++ {
+			for k := p.Out.Ptr[u]; k < p.Out.Ptr[u+1]; k++ {
+				bl.AddEdge(int32(u), p.Out.Adj[k])
+			}
+		}
+		g, err := bl.Build(structural.BuildOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		d := mustDesign(g, p.Signals)
+		res, err := Verify(g, Request{Inputs: &d, Seed: uint64(c), Trials: 1, Modes: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		tr := res.Controllability.Trials[0]
+		m := tr.Modes
+		// The floating-point sample of this trial, as Verify drew it.
+		pat := &Pattern{Out: g.Out(), Signals: d.Signals()}
+		rr := rand.New(rand.NewPCG(uint64(c), 1))
+		av := make([]float64, g.Edges())
+		for k := range av {
+			av[k] = drawReal(rr)
+		}
+		rs := rand.New(rand.NewPCG(uint64(c), 2))
+		drawExactSignals(pat.Signals, NewField(Mersenne61), rs) // the exact draw comes first
+		re := &Real{A: av, B: drawRealSignals(pat.Signals, rs)}
+		ad, bd := re.Dense(pat, false)
+		a, b := make([][]float64, n), make([][]float64, n)
+		for i := 0; i < n; i++ {
+			a[i] = ad[i*n : (i+1)*n]
+			b[i] = bd[i*len(pat.Signals) : (i+1)*len(pat.Signals)]
+		}
+		sum := 0
+		var got []complex128
+		for _, md := range m.List {
+			mult := md.Multiplicity
+			if md.Conjugate {
+				mult *= 2
+			}
+			sum += mult
+			for r := 0; r < md.Multiplicity; r++ {
+				got = append(got, md.Eigenvalue)
+				if md.Conjugate {
+					got = append(got, cmplx.Conj(md.Eigenvalue))
+				}
+			}
+			if r := pbhRank(a, b, md.Eigenvalue); r >= n {
+				t.Errorf("case %d: [A - λI, B] has full rank at the mode %v", c, md.Eigenvalue)
+			}
+			modes++
+		}
+		if sum != n-m.Dimension || m.Dimension != res.Controllability.Dimension {
+			t.Fatalf("case %d: multiplicities add to %d, dimension %d of %d (structural %d)", c, sum, m.Dimension, n, res.Controllability.Dimension)
+		}
+		if !subMultiset(got, eigvals(a), 1e-6) {
+			t.Fatalf("case %d: modes %v not in the spectrum %v", c, got, eigvals(a))
+		}
+	}
+	if modes < 100 {
+		t.Errorf("only %d modes", modes)
+	}
+}
+
+// subMultiset reports whether every element of a matches a distinct
+// element of b within tol (square root allowance for defective ones).
+func subMultiset(a, b []complex128, tol float64) bool {
+	used := make([]bool, len(b))
+	for _, z := range a {
+		best, bd := -1, math.Inf(1)
+		for j, w := range b {
+			if !used[j] {
+				if d := cmplx.Abs(z - w); d < bd {
+					best, bd = j, d
+				}
+			}
+		}
+		if best < 0 || bd > math.Sqrt(tol)*(1+cmplx.Abs(z)) {
+			return false
+		}
+		used[best] = true
+	}
+	return true
 }
