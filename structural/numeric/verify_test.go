@@ -477,3 +477,33 @@ func TestVerifyPart(t *testing.T) {
 		t.Errorf("no part_only warning: %v", res.Warnings)
 	}
 }
+
+// Modes and effort need the dense floating-point work: above
+// MaxFloatStates they are refused with the dense stage's estimate (the
+// margin alone is skipped instead), and with the floating-point check
+// turned off they are an error.
+func TestVerifyDenseRefusal(t *testing.T) {
+	g, in := erNetwork(60, 3, 11)
+	req := Request{Inputs: dz(g, in), Seed: 1, MaxFloatStates: 50, Modes: true}
+	_, err := Verify(g, req)
+	var se *SizeError
+	if !errors.As(err, &se) || se.Stage != StageDense || se.Limit != 50 || se.States != 60 || se.Estimate.Seconds <= 0 || se.Estimate.Bytes < 60*60*8 {
+		t.Fatalf("modes above the dense limit: %v (%+v)", err, se)
+	}
+	if err2 := CheckSize(Counts{States: 60, Edges: g.Edges(), Inputs: len(in)}, req); !errors.As(err2, &se) || se.Stage != StageDense {
+		t.Errorf("CheckSize: %v", err2)
+	}
+	req.Modes = false
+	res, err := Verify(g, req)
+	if err != nil || res.Controllability.FloatSkipped == "" || res.Controllability.Margin != nil {
+		t.Errorf("margin above the limit: %v, %+v", err, res.Controllability.Sample)
+	}
+	req.Effort, req.MaxFloatStates = true, -1
+	if _, err := Verify(g, req); err == nil || errors.As(err, &se) {
+		t.Errorf("effort with the floating-point check off: %v", err)
+	}
+	req.MaxFloatStates, req.Horizon = 0, -2
+	if _, err := Verify(g, req); !errors.Is(err, ErrHorizon) {
+		t.Errorf("negative horizon: %v", err)
+	}
+}
