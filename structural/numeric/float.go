@@ -80,8 +80,15 @@ func (o *FloatOptions) flops() float64 {
 // Gramian, plus O(m·n²) per eigenvalue for the margin within the budget;
 // memory O(n²) per worker.
 func Float(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, error) {
+	r, _, _, err := floatCheck(a, b, n, m, opt)
+	return r, err
+}
+
+// floatCheck is Float, returning also the Schur form of A and c = ZᵀB
+// (n×m) for further work on the same system.
+func floatCheck(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, *schurForm, []float64, error) {
 	if n == 0 {
-		return nil, errors.New("numeric: empty system")
+		return nil, nil, nil, errors.New("numeric: empty system")
 	}
 	r := &FloatResult{}
 	var fa, fb float64
@@ -93,11 +100,11 @@ func Float(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, error) {
 	}
 	r.Scale = math.Sqrt(fa + fb)
 	if r.Scale == 0 {
-		return nil, errors.New("numeric: A and B are both zero")
+		return nil, nil, nil, errors.New("numeric: A and B are both zero")
 	}
 	sf, err := newSchur(append([]float64(nil), a...), n)
 	if err != nil {
-		return nil, err
+		return nil, nil, nil, err
 	}
 	// c = ZᵀB, n×m.
 	c := make([]float64, n*m)
@@ -147,10 +154,10 @@ func Float(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, error) {
 	if m > 0 {
 		r.GramianMin, r.GramianMax, err = gramianExtremes(sf, c, m, r.Shift)
 		if err != nil {
-			return nil, err
+			return nil, nil, nil, err
 		}
 	}
-	return r, nil
+	return r, sf, c, nil
 }
 
 // compressColumns replaces the n×m matrix c by an n×k matrix d with

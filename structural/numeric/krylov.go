@@ -24,9 +24,24 @@ import "math/bits"
 // in all, r·n words of memory. progress, when not nil, is called with the
 // dimension reached after each new basis vector.
 func Dimension(p *Pattern, x *Exact, transpose bool, progress func(dim int)) int {
+	return len(krylov(p, x, transpose, progress).rows)
+}
+
+// krylovBasis is the echelon basis of a controllable subspace, with the
+// number of basis vectors each signal's chain contributed (0 for a signal
+// already in the span of the earlier ones, and for the signals left once
+// the span is everything).
+type krylovBasis struct {
+	*echelon
+	chains []int
+}
+
+// krylov computes the basis of Dimension.
+func krylov(p *Pattern, x *Exact, transpose bool, progress func(dim int)) *krylovBasis {
 	n := p.N()
 	f := &x.F
 	e := newEchelon(f, n)
+	kb := &krylovBasis{echelon: e, chains: make([]int, len(p.Signals))}
 	mul := mulA
 	if transpose {
 		mul = mulAT
@@ -35,7 +50,7 @@ func Dimension(p *Pattern, x *Exact, transpose bool, progress func(dim int)) int
 	// against e.rows[:cur[i]]. Bringing a window of them up to date in one
 	// pass over the basis reads each basis row once for all of them.
 	var pend [][]uint64
-	var cur []int
+	var cur, sig []int
 	next := 0
 	load := func() {
 		for len(pend) < window && next < len(p.Signals) {
@@ -45,6 +60,7 @@ func Dimension(p *Pattern, x *Exact, transpose bool, progress func(dim int)) int
 			}
 			pend = append(pend, v)
 			cur = append(cur, 0)
+			sig = append(sig, next)
 			next++
 		}
 	}
@@ -59,18 +75,19 @@ func Dimension(p *Pattern, x *Exact, transpose bool, progress func(dim int)) int
 		for i := range cur {
 			cur[i] = len(e.rows)
 		}
-		v := pend[0]
-		pend, cur = pend[1:], cur[1:]
+		v, j := pend[0], sig[0]
+		pend, cur, sig = pend[1:], cur[1:], sig[1:]
 		piv := firstNonzero(v)
 		if piv < 0 {
 			continue
 		}
 		last := e.add(v, piv)
+		kb.chains[j]++
 		if progress != nil {
 			progress(len(e.rows))
 		}
 		if len(e.rows) == n {
-			return n
+			return kb
 		}
 		// Grow the chain in batches of raw products last·A, A²·last, ...,
 		// doubling the batch while the chain lasts. A batch is reduced
@@ -99,18 +116,19 @@ func Dimension(p *Pattern, x *Exact, transpose bool, progress func(dim int)) int
 					break
 				}
 				e.add(w, piv)
+				kb.chains[j]++
 				if progress != nil {
 					progress(len(e.rows))
 				}
 				if len(e.rows) == n {
-					return n
+					return kb
 				}
 			}
 			last = batch[len(batch)-1]
 			k = min(2*k, maxBatch)
 		}
 	}
-	return len(e.rows)
+	return kb
 }
 
 // window is the number of waiting signals reduced together; maxBatch the

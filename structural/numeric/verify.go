@@ -1,10 +1,11 @@
 package numeric
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
+	"strconv"
 	"sync"
 	"time"
 
@@ -14,229 +15,460 @@ import (
 // maxWorkers bounds the trials run at once, and so their memory.
 const maxWorkers = 8
 
-// Defaults of Options.
+// Defaults and bounds of Request.
 const (
 	DefaultTrials         = 3
 	MaxTrials             = 1000
 	DefaultMaxStates      = 2000
 	DefaultMaxFloatStates = 1000
+	// DefaultWarnMargin is the relative margin below which Verify warns:
+	// the numbers of a plant model are rarely known to better than six
+	// digits, so a smaller change is within their uncertainty.
+	DefaultWarnMargin = 1e-6
 )
 
-// Options configure Verify.
-type Options struct {
-	// Trials is the number of independent random samples (default 3, at
-	// most MaxTrials). It is ignored with Weights: the model's values are
-	// one system.
+// Request says what Verify checks and how.
+type Request struct {
+	// Inputs and Outputs are the designs to verify: controllability of
+	// (A, B) from the inputs, observability of (A, C) from the outputs. At
+	// least one must be given and hold a signal.
+	Inputs, Outputs *structural.Design
+	// Weights takes the model's own values instead of random ones: A from
+	// the network's edge weights (g.Weights(); 1 for every edge when the
+	// network has none), B and C from InputWeights and OutputWeights
+	// (aligned with the designs' signals and their states; a nil list, or
+	// a nil entry, means 1).
+	Weights                     bool
+	InputWeights, OutputWeights [][]float64
+	// Trials is the number of independent random samples (0:
+	// DefaultTrials, at most MaxTrials). With Weights there is one system,
+	// the model's.
 	Trials int
 	// Seed makes the samples reproducible: trial t draws A's exact values
 	// from the PCG stream (Seed, 4t), A's real values from (Seed, 4t+1),
 	// and the inputs' (outputs') exact then real values from (Seed, 4t+2)
 	// ((Seed, 4t+3)).
 	Seed uint64
-	// Weights takes the model's own values instead of random ones: A from
-	// the network's edge weights (g.Weights(); 1 for every edge when the
-	// network has none), B and C from InputWeights and OutputWeights
-	// (aligned with the signals; a nil list means 1 everywhere).
-	Weights                     bool
-	InputWeights, OutputWeights [][]float64
-	// MaxStates is the largest network the exact check accepts (default
-	// DefaultMaxStates); above it Verify returns a *SizeError with the
-	// estimated cost.
+	// MaxStates is the largest network (or part) the exact check accepts
+	// (0: DefaultMaxStates); above it Verify returns a *SizeError.
 	MaxStates int
-	// MaxFloatStates is the largest network the floating-point check runs
-	// on (default DefaultMaxFloatStates; negative: never).
+	// MaxFloatStates is the largest network the dense floating-point work
+	// runs on (0: DefaultMaxFloatStates; negative: never). Above it the
+	// margin is skipped (PropertyResult.FloatSkipped says why), and a
+	// request for Modes or Effort is refused with a *SizeError.
 	MaxFloatStates int
-	// Float tunes the floating-point check; nil for the defaults.
+	// WarnMargin is the relative margin below which a warning is given
+	// (0: DefaultWarnMargin; negative: never).
+	WarnMargin float64
+	// Part, when not nil, verifies only a connected part of the network
+	// (see Part); the structural prediction is then made for the part too.
+	Part *Part
+	// Float tunes the floating-point margin; nil for the defaults.
 	Float *FloatOptions
+	// Modes adds, per trial and property, the modes the signals cannot
+	// move (see): eigenvalues, multiplicities, the states they live on,
+	// whether they are stable (stabilizability, detectability), and with
+	// both designs the sizes of the four parts of the Kalman
+	// decomposition (see Modes, KalmanParts).
+	Modes bool
+	// Effort adds the control effort of each trial's system (see Effort):
+	// the Gramian over Horizon (0: infinite, for a stable A only).
+	Effort  bool
+	Horizon float64
+	// Discrete reads the systems as x(k+1) = A x(k) + B u(k): stability
+	// means |λ| < 1 and the Gramian is a sum. It affects Modes and Effort
+	// only.
+	Discrete bool
 	// Progress, when not nil, receives progress reports, one at a time.
 	Progress func(Progress)
 }
 
+func (r *Request) trials() int {
+	switch {
+	case r.Weights:
+		return 1
+	case r.Trials <= 0:
+		return DefaultTrials
+	}
+	return r.Trials
+}
+
+func (r *Request) maxFloat() int {
+	if r.MaxFloatStates == 0 {
+		return DefaultMaxFloatStates
+	}
+	return r.MaxFloatStates
+}
+
+func (r *Request) warnMargin() float64 {
+	if r.WarnMargin == 0 {
+		return DefaultWarnMargin
+	}
+	return r.WarnMargin
+}
+
 // Progress reports how far Verify has come.
 type Progress struct {
-	Stage         string // "exact" or "float"
+	Stage         string // "exact", "float" or "modes"
 	Kind          string // "controllability" or "observability"
 	Trial, Trials int    // 1-based
 	Done, Total   int    // dimension reached of the structural one (exact)
 }
 
-// Report is the outcome of Verify.
-type Report struct {
-	// N and Edges describe the network checked (self-loops included).
-	N, Edges int
-	// Prime is the modulus of the exact check; Seed the seed used.
-	Prime uint64
-	Seed  uint64
+// Modulus is a prime modulus of the exact check. It marshals to JSON as
+// its name ("2^61-1"), since a JSON number of that size loses digits in
+// many readers.
+type Modulus uint64
+
+// String names the modulus: "2^61-1", "2^61-31" or its decimal digits.
+func (m Modulus) String() string {
+	switch uint64(m) {
+	case Mersenne61:
+		return "2^61-1"
+	case Alt61:
+		return "2^61-31"
+	}
+	return strconv.FormatUint(uint64(m), 10)
+}
+
+// MarshalJSON writes the name as a JSON string.
+func (m Modulus) MarshalJSON() ([]byte, error) { return strconv.AppendQuote(nil, m.String()), nil }
+
+// Result is the answer of Verify: the structural verdict of each design
+// beside its numeric confirmation on sampled (or the model's own) values.
+type Result struct {
+	// File names where the network came from; set by the caller.
+	File string `json:"file,omitempty"`
+	// Nodes, Edges, SelfLoops and DuplicatesMerged describe the whole
+	// network given, as in every result of this project.
+	Nodes            int `json:"nodes"`
+	Edges            int `json:"edges"`
+	SelfLoops        int `json:"self_loops"`
+	DuplicatesMerged int `json:"duplicates_merged"`
+	// Part describes the part verified, nil when the whole network was.
+	// Every dimension below then counts states of the part.
+	Part *PartResult `json:"part,omitempty"`
 	// Weights reports whether the model's own values were used;
-	// NetworkWeights whether the network file carried any.
-	Weights, NetworkWeights bool
-	// Inexact counts the weights whose decimal text could not be recovered
-	// from float64 (more than 15 significant digits, or a sum of merged
-	// duplicate edges); their exact binary values were used instead.
-	Inexact int
+	// NetworkWeights whether the network carried any.
+	Weights        bool `json:"weights"`
+	NetworkWeights bool `json:"network_weights"`
+	// Prime is the modulus of the exact check.
+	Prime Modulus `json:"prime"`
+	// Trials is the number of systems checked (1 with Weights).
+	Trials int `json:"trials"`
+	// Seed is the seed of the samples; nil with Weights.
+	Seed *uint64 `json:"seed,omitempty"`
+	// InexactWeights counts the values whose decimal text could not be
+	// recovered from float64 (more than 15 significant digits, or a sum of
+	// merged duplicate edges); their exact binary values were used.
+	InexactWeights int `json:"inexact_weights"`
 	// ZeroEntries counts edges whose value is zero: repeated edges whose
 	// weights cancel. They stay in the structure but not in the numbers.
-	ZeroEntries int
-	// Controllability and Observability are nil when no inputs
-	// (outputs) were given.
-	Controllability, Observability *Result
-	// Exact is the wall time of the exact check, Float that of the
-	// floating-point check.
-	Exact, Float time.Duration
+	ZeroEntries int `json:"zero_entries"`
+	// TimeDomain is "continuous" or "discrete" when modes or efforts were
+	// computed.
+	TimeDomain string `json:"time_domain,omitempty"`
+	// Controllability and Observability are nil when no inputs (outputs)
+	// were given.
+	Controllability *PropertyResult `json:"controllability,omitempty"`
+	Observability   *PropertyResult `json:"observability,omitempty"`
+	// Kalman gives, per trial, the sizes of the four parts of the Kalman
+	// decomposition, with Modes and both designs.
+	Kalman []KalmanParts `json:"kalman,omitempty"`
+	// Warnings are what an engineer must hear about the numbers, one per
+	// kind of finding and property.
+	Warnings []Warning `json:"warnings"`
+	// Cautions are the standing reminders a report must carry with these
+	// figures.
+	Cautions []string `json:"cautions"`
+	Timings  Timings  `json:"timings"`
+
+	// Network is the network verified: the given one, or the part's own
+	// network (whose state i is Part.States.At(i) of the given one).
+	Network *structural.Network `json:"-"`
 }
 
-// Result is the verification of one property (controllability of (A, B)
-// or observability of (A, C)).
-type Result struct {
-	// Signals is the number of inputs (outputs).
-	Signals int
-	// Structural is the generic dimension predicted from the wiring
-	// (structural.Check); Sampled the largest exact dimension over the
-	// trials.
-	Structural, Sampled int
-	// Full reports Sampled == N: the sample is controllable (observable).
-	Full bool
-	// Agrees reports Sampled == Structural.
-	Agrees bool
-	// FailureBound is the Schwartz–Zippel bound on the chance that one
-	// random trial falls short of the structural dimension: n²/(p-1). It
-	// is 0 with Weights (nothing is random then).
-	FailureBound float64
-	// Trials holds each trial's own figures.
-	Trials []Trial
+// Holds reports whether every sampled (or the model's) system is
+// controllable and observable as asked: the answer "yes".
+func (r *Result) Holds() bool {
+	for _, p := range r.Properties() {
+		if !p.SampledHolds {
+			return false
+		}
+	}
+	return true
+}
+
+// Properties returns the properties verified, controllability first.
+func (r *Result) Properties() []*PropertyResult {
+	var out []*PropertyResult
+	for _, p := range []*PropertyResult{r.Controllability, r.Observability} {
+		if p != nil {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// Timings are the wall times of the stages of Verify, in seconds.
+type Timings struct {
+	// Part is the time to cut out the part (0 without one).
+	Part float64 `json:"part_s,omitempty"`
+	// Structural is the structural verdicts (Lin's test and the generic
+	// dimension).
+	Structural float64 `json:"structural_s"`
+	Exact      float64 `json:"exact_s"`
+	// Float includes the efforts, computed on the same Schur forms.
+	Float float64 `json:"float_s"`
+	Modes float64 `json:"modes_s,omitempty"`
+	Total float64 `json:"total_s"`
+}
+
+// KalmanParts are the dimensions of the four parts of the Kalman
+// decomposition of one system (A, B, C) (Kalman, "Mathematical
+// description of linear dynamical systems", SIAM J. Control 1(2), 1963):
+// controllable and observable (the order of a minimal realisation of the
+// transfer function), controllable but unobservable, uncontrollable but
+// observable, neither. They add up to the number of states. Exact over
+// GF(p): with C the controllable subspace and N the unobservable one,
+// dim C∩N = dim C - rank(B_C·B_Oᵀ) for bases B_C of C and B_O of the row
+// space of the observability matrix.
+type KalmanParts struct {
+	Trial                      int `json:"trial"`
+	ControllableObservable     int `json:"controllable_observable"`
+	ControllableUnobservable   int `json:"controllable_unobservable"`
+	UncontrollableObservable   int `json:"uncontrollable_observable"`
+	UncontrollableUnobservable int `json:"uncontrollable_unobservable"`
+}
+
+// PropertyResult is one property verified: the structural verdict, with
+// the same keys as in a check of the design, and the sampled figures
+// beside it.
+type PropertyResult struct {
+	*structural.Verdict
+	Sample
+}
+
+// Sample is the numeric side of a property.
+type Sample struct {
+	// SampledDimension is the largest exact dimension over the trials.
+	SampledDimension int `json:"sampled_dimension"`
+	// SampledHolds reports SampledDimension == N: the sampled system (or
+	// the model) is controllable (observable).
+	SampledHolds bool `json:"sampled_holds"`
+	// Agrees reports SampledDimension == Dimension, the structural one.
+	Agrees bool `json:"agrees"`
 	// Margin is the smallest relative margin over the trials (see
-	// FloatResult.Margin); NaN when the floating-point check did not run.
-	Margin float64
+	// FloatResult.Margin); nil when the floating-point check did not run.
+	Margin *float64 `json:"margin,omitempty"`
+	// FailureBound is the Schwartz–Zippel bound n²/(p-1) on the chance
+	// that one random trial falls short of the structural dimension; 0
+	// with Weights (nothing is random then).
+	FailureBound float64 `json:"failure_bound"`
 	// FloatSkipped says why the floating-point check did not run; empty
 	// when it ran.
-	FloatSkipped string
+	FloatSkipped string `json:"float_skipped,omitempty"`
+	// ModesStable, with Request.Modes, reports that in every trial every
+	// mode the signals cannot move (see) is proved stable: the pair is
+	// stabilizable (detectable, for outputs).
+	ModesStable *bool `json:"modes_stable,omitempty"`
+	// Trials holds each trial's own figures.
+	Trials []Trial `json:"trials"`
 }
 
-// Trial is one sample's figures.
+// Trial is one sampled system's figures for one property.
 type Trial struct {
-	// Dimension is the exact dimension over GF(Prime).
+	// Number is the 1-based trial number.
+	Number int
+	// Dimension is the exact dimension over GF(2^61-1).
 	Dimension int
-	// AltDimension is the dimension over GF(Alt61), computed only with
+	// SecondPrime is the dimension over GF(2^61-31), computed only with
 	// Weights when Dimension falls short of the structural one, to rule
-	// out a prime that happens to divide the system's minors; -1 when not
+	// out a prime that happens to divide the system's minors; nil when not
 	// computed.
-	AltDimension int
+	SecondPrime *int
 	// Float is the floating-point check, nil when skipped.
 	Float *FloatResult
+	// Modes (with Request.Modes) and Effort (with Request.Effort); nil
+	// otherwise.
+	Modes  *Modes
+	Effort *Effort
 }
 
-// SizeError reports a network too large for the exact check under the
-// current limit, with the estimated cost of running it anyway.
-type SizeError struct {
-	N, Max  int
-	Time    time.Duration
-	Bytes   int64
-	Ops     float64
-	Signals int
-}
-
-func (e *SizeError) Error() string {
-	return fmt.Sprintf("numeric: %d states exceed the limit of %d for the exact check, which would take about %s and %s of memory",
-		e.N, e.Max, FormatDuration(e.Time), FormatBytes(e.Bytes))
-}
-
-// FormatDuration prints a duration with two significant figures in the
-// largest fitting unit.
-func FormatDuration(d time.Duration) string {
-	s := d.Seconds()
-	switch {
-	case s < 1:
-		return "under a second"
-	case s < 120:
-		return fmt.Sprintf("%.2g s", s)
-	case s < 7200:
-		return fmt.Sprintf("%.2g min", s/60)
-	case s < 2*86400:
-		return fmt.Sprintf("%.2g h", s/3600)
+// Verify samples the parameters of g's pattern (or takes the model's own
+// values) and checks controllability from req.Inputs and observability
+// from req.Outputs, exactly over GF(2^61-1) and in floating point, beside
+// the structural verdict (structural.Check) of each design. With
+// req.Part it verifies a connected part of g instead.
+//
+// With req.Modes it adds, per trial and property, the modes the signals
+// cannot move (see) with their stability (Modes), and with both designs
+// the four parts of the Kalman decomposition (KalmanParts); with
+// req.Effort the Gramian figures of control effort (Effort).
+//
+// Time: the structural verdicts (one matching each, plus the generic
+// dimension of a failing design); per trial and property, the exact
+// Krylov dimension r in O(r·(E + r·n)) field operations and r·n words,
+// trials in parallel; and, up to req.MaxFloatStates, the dense check in
+// O(n³) per trial, the effort included. The modes add a second exact
+// Krylov basis (of the floating-point values taken exactly), an
+// orthonormal basis in O(n·r²), O(n²·k) for the uncontrollable block of
+// size k = n - r, and O(k³) for its eigenvalues and its exact
+// characteristic polynomial. Networks above req.MaxStates (and, for modes
+// or effort, above req.MaxFloatStates) are refused before any of it with a
+// *SizeError that carries the estimated cost.
+func Verify(g *structural.Network, req Request) (*Result, error) {
+	start := time.Now()
+	var in, out structural.Design
+	if req.Inputs != nil {
+		in = *req.Inputs
 	}
-	return fmt.Sprintf("%.2g days", s/86400)
-}
-
-// FormatBytes prints a byte count in binary units.
-func FormatBytes(b int64) string {
-	switch {
-	case b < 1<<20:
-		return fmt.Sprintf("%d KiB", (b+1023)>>10)
-	case b < 1<<30:
-		return fmt.Sprintf("%.3g MiB", float64(b)/(1<<20))
+	if req.Outputs != nil {
+		out = *req.Outputs
 	}
-	return fmt.Sprintf("%.3g GiB", float64(b)/(1<<30))
+	if in.Len() == 0 && out.Len() == 0 {
+		return nil, errors.New("numeric: no inputs and no outputs to verify")
+	}
+	if !in.Of(g) || !out.Of(g) {
+		return nil, structural.ErrForeignDesign
+	}
+	if req.Trials > MaxTrials {
+		return nil, fmt.Errorf("numeric: %d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", req.Trials, MaxTrials)
+	}
+	if req.Effort {
+		if err := (EffortRequest{Discrete: req.Discrete, Horizon: req.Horizon}).check(); err != nil {
+			return nil, err
+		}
+	}
+	if (req.Modes || req.Effort) && req.maxFloat() < 0 {
+		return nil, errors.New("numeric: the modes and the effort need the floating-point check, which is turned off")
+	}
+	if err := checkWeights(in, req.InputWeights, "input"); err != nil {
+		return nil, err
+	}
+	if err := checkWeights(out, req.OutputWeights, "output"); err != nil {
+		return nil, err
+	}
+	res := &Result{File: "", Nodes: g.N(), Edges: g.Edges(), SelfLoops: g.SelfLoops(), DuplicatesMerged: g.DuplicatesMerged(),
+		Weights: req.Weights, NetworkWeights: g.Weights() != nil, Prime: Modulus(Mersenne61), Trials: req.trials()}
+	if !req.Weights {
+		seed := req.Seed
+		res.Seed = &seed
+	}
+	if req.Modes || req.Effort {
+		res.TimeDomain = timeDomain(req.Discrete)
+	}
+	inW, outW := req.InputWeights, req.OutputWeights
+	if req.Part == nil {
+		if err := CheckSize(Counts{States: g.N(), Edges: g.Edges(), Inputs: in.Len(), Outputs: out.Len()}, req); err != nil {
+			return nil, err
+		}
+	} else {
+		t := time.Now()
+		sub, pr, rin, rout, rinW, routW, err := cutPart(g, &req, in, out)
+		if err != nil {
+			return nil, err
+		}
+		if err := CheckSize(Counts{States: sub.N(), Edges: sub.Edges(), Inputs: rin.Len(), Outputs: rout.Len()}, req); err != nil {
+			return nil, err
+		}
+		g, in, out, inW, outW = sub, rin, rout, rinW, routW
+		res.Part = pr
+		res.Timings.Part = time.Since(t).Seconds()
+	}
+	res.Network = g
+	if err := verify(g, &req, in, out, inW, outW, res); err != nil {
+		return nil, err
+	}
+	res.Warnings = warnings(res, &req)
+	res.Cautions = cautions(res)
+	res.Timings.Total = time.Since(start).Seconds()
+	return res, nil
 }
 
-// Verify samples the parameters of g's pattern (or takes its weights) and
-// checks controllability from inputs and observability from outputs
-// exactly and in floating point, beside the structural prediction. Input i
-// drives the states inputs[i]; output i senses outputs[i]; either may be
-// empty but not both.
-func Verify(g *structural.Network, in, out structural.Design, opt Options) (*Report, error) {
+// checkWeights checks that values, when given, align with the design.
+func checkWeights(d structural.Design, w [][]float64, what string) error {
+	if w == nil {
+		return nil
+	}
+	if len(w) != d.Len() {
+		return fmt.Errorf("numeric: %d %s values for %d signals", len(w), what, d.Len())
+	}
+	for j, s := range w {
+		if s == nil {
+			continue
+		}
+		if len(s) != len(d.Signal(j)) {
+			return fmt.Errorf("numeric: %s %d has %d values for %d states", what, d.Number(j), len(s), len(d.Signal(j)))
+		}
+		for _, x := range s {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				return fmt.Errorf("numeric: %s %d has a value that is not a finite number", what, d.Number(j))
+			}
+		}
+	}
+	return nil
+}
+
+// kind is one property under verification.
+type kind struct {
+	prop      structural.Property
+	res       *PropertyResult
+	design    structural.Design
+	signals   [][]int32
+	weights   [][]float64
+	transpose bool
+	stream    uint64 // PCG stream of the signal values, plus 4t
+	pat       *Pattern
+	// The system of the model's own values (with Weights).
+	wExact *Exact
+	wReal  *Real
+}
+
+func (k *kind) name() string { return k.prop.String() }
+
+// verify fills res for the network g (the part, when one was cut) and its
+// designs.
+func verify(g *structural.Network, req *Request, in, out structural.Design, inW, outW [][]float64, res *Result) error {
 	n := g.N()
-	inputs, outputs := in.Signals(), out.Signals()
-	if len(inputs) == 0 && len(outputs) == 0 {
-		return nil, fmt.Errorf("numeric: no inputs and no outputs to verify")
-	}
-	trials := opt.Trials
-	if trials <= 0 {
-		trials = DefaultTrials
-	}
-	if trials > MaxTrials {
-		return nil, fmt.Errorf("numeric: %d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", trials, MaxTrials)
-	}
-	if opt.Weights {
-		trials = 1
-	}
-	maxStates := opt.MaxStates
-	if maxStates <= 0 {
-		maxStates = DefaultMaxStates
-	}
-	maxFloat := opt.MaxFloatStates
-	if maxFloat == 0 {
-		maxFloat = DefaultMaxFloatStates
-	}
-	rep := &Report{N: n, Edges: g.Edges(), Prime: Mersenne61, Seed: opt.Seed, Weights: opt.Weights,
-		NetworkWeights: g.Weights() != nil}
+	trials := req.trials()
+	maxFloat := req.maxFloat()
 	var kinds []*kind
-	if len(inputs) > 0 {
-		rep.Controllability = &Result{Signals: len(inputs)}
-		d, err := structural.Dimension(g, structural.Controllability, in)
+	t0 := time.Now()
+	for _, x := range []struct {
+		p      structural.Property
+		d      structural.Design
+		w      [][]float64
+		stream uint64
+		to     **PropertyResult
+	}{
+		{structural.Controllability, in, inW, 2, &res.Controllability},
+		{structural.Observability, out, outW, 3, &res.Observability},
+	} {
+		asked := req.Inputs
+		if x.p == structural.Observability {
+			asked = req.Outputs
+		}
+		if asked == nil || asked.Len() == 0 {
+			continue
+		}
+		v, err := structural.Check(g, x.p, x.d)
 		if err != nil {
-			return nil, err
+			return err
 		}
-		rep.Controllability.Structural = d
-		kinds = append(kinds, &kind{name: "controllability", res: rep.Controllability, signals: inputs, weights: opt.InputWeights, stream: 2})
+		pr := &PropertyResult{Verdict: v}
+		*x.to = pr
+		kinds = append(kinds, &kind{prop: x.p, res: pr, design: x.d, signals: x.d.Signals(), weights: x.w,
+			transpose: x.p == structural.Observability, stream: x.stream})
 	}
-	if len(outputs) > 0 {
-		rep.Observability = &Result{Signals: len(outputs)}
-		d, err := structural.Dimension(g, structural.Observability, out)
-		if err != nil {
-			return nil, err
-		}
-		rep.Observability.Structural = d
-		kinds = append(kinds, &kind{name: "observability", res: rep.Observability, signals: outputs, weights: opt.OutputWeights, transpose: true, stream: 3})
-	}
-	workers := min(trials, runtime.GOMAXPROCS(0), maxWorkers)
-	if n > maxStates {
-		var dims []int
-		for _, k := range kinds {
-			dims = append(dims, max(k.res.Structural, 1))
-		}
-		d, b := EstimateExact(n, g.Edges(), dims, trials, workers)
-		e := &SizeError{N: n, Max: maxStates, Time: d, Bytes: b, Signals: len(inputs) + len(outputs)}
-		for _, r := range dims {
-			e.Ops += exactOps(n, g.Edges(), r) * float64(trials)
-		}
-		return nil, e
-	}
+	res.Timings.Structural = time.Since(t0).Seconds()
+
 	f := NewField(Mersenne61)
 	var progMu sync.Mutex
 	report := func(p Progress) {
-		if opt.Progress != nil {
+		if req.Progress != nil {
 			progMu.Lock()
-			opt.Progress(p)
+			req.Progress(p)
 			progMu.Unlock()
 		}
 	}
@@ -246,60 +478,60 @@ func Verify(g *structural.Network, in, out structural.Design, opt Options) (*Rep
 	// check), so memory holds the systems of the running trials only.
 	var wExact []uint64
 	var wReal []float64
-	if opt.Weights {
+	if req.Weights {
 		p := &Pattern{Out: g.Out()}
 		x, inexact := ExactFromWeights(p, f, g.Weights(), nil)
-		rep.Inexact += inexact
+		res.InexactWeights += inexact
 		wExact = x.A
 		wReal = RealFromWeights(p, g.Weights(), nil).A
 		for _, v := range wReal {
 			if v == 0 {
-				rep.ZeroEntries++
+				res.ZeroEntries++
 			}
 		}
 	}
 	drawA := func(t int) ([]uint64, []float64) {
-		if opt.Weights {
+		if req.Weights {
 			return wExact, wReal
 		}
-		rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)))
+		rng := rand.New(rand.NewPCG(req.Seed, uint64(4*t)))
 		ax := make([]uint64, g.Edges())
 		for k := range ax {
 			ax[k] = 1 + rng.Uint64N(f.P-1)
 		}
-		rr := rand.New(rand.NewPCG(opt.Seed, uint64(4*t+1)))
+		rr := rand.New(rand.NewPCG(req.Seed, uint64(4*t+1)))
 		ar := make([]float64, g.Edges())
 		for k := range ar {
 			ar[k] = drawReal(rr)
 		}
 		return ax, ar
 	}
-	// Values of B (C): per property and trial; the model's own values are
-	// one system.
 	for _, k := range kinds {
 		k.pat = &Pattern{Out: g.Out(), Signals: k.signals}
 		k.res.Trials = make([]Trial, trials)
 		for t := range k.res.Trials {
-			k.res.Trials[t].AltDimension = -1
+			k.res.Trials[t].Number = t + 1
 		}
-		if opt.Weights {
+		if req.Weights {
 			b, inexact := exactSignals(&f, k.signals, k.weights)
-			rep.Inexact += inexact
+			res.InexactWeights += inexact
 			k.wExact = &Exact{F: f, A: wExact, B: b}
 			k.wReal = &Real{A: wReal, B: realSignals(k.signals, k.weights)}
 		}
 	}
 	system := func(k *kind, t int) (*Exact, *Real) {
-		if opt.Weights {
+		if req.Weights {
 			return k.wExact, k.wReal
 		}
 		ax, ar := drawA(t)
-		rng := rand.New(rand.NewPCG(opt.Seed, uint64(4*t)+k.stream))
+		rng := rand.New(rand.NewPCG(req.Seed, uint64(4*t)+k.stream))
 		x := &Exact{F: f, A: ax, B: drawExactSignals(k.signals, f, rng)}
 		return x, &Real{A: ar, B: drawRealSignals(k.signals, rng)}
 	}
+
 	// Exact check: trials in parallel, each property in turn.
-	start := time.Now()
+	t0 = time.Now()
+	workers := workersFor(trials)
 	for _, k := range kinds {
 		var wg sync.WaitGroup
 		sem := make(chan struct{}, workers)
@@ -311,37 +543,41 @@ func Verify(g *structural.Network, in, out structural.Design, opt Options) (*Rep
 				defer func() { <-sem }()
 				last := time.Time{}
 				prog := func(dim int) {
-					if opt.Progress == nil || time.Since(last) < 200*time.Millisecond {
+					if req.Progress == nil || time.Since(last) < 200*time.Millisecond {
 						return
 					}
 					last = time.Now()
-					report(Progress{Stage: "exact", Kind: k.name, Trial: t + 1, Trials: trials, Done: dim, Total: k.res.Structural})
+					report(Progress{Stage: "exact", Kind: k.name(), Trial: t + 1, Trials: trials, Done: dim, Total: k.res.Dimension})
 				}
 				tr := &k.res.Trials[t]
 				x, _ := system(k, t)
 				tr.Dimension = Dimension(k.pat, x, k.transpose, prog)
-				if opt.Weights && tr.Dimension < k.res.Structural {
+				if req.Weights && tr.Dimension < k.res.Dimension {
 					alt := NewField(Alt61)
 					x, _ := ExactFromWeights(k.pat, alt, g.Weights(), k.weights)
-					tr.AltDimension = Dimension(k.pat, x, k.transpose, prog)
+					d := Dimension(k.pat, x, k.transpose, prog)
+					tr.SecondPrime = &d
 				}
 			}(t)
 		}
 		wg.Wait()
 		r := k.res
 		for _, tr := range r.Trials {
-			r.Sampled = max(r.Sampled, tr.Dimension, tr.AltDimension)
+			r.SampledDimension = max(r.SampledDimension, tr.Dimension)
+			if tr.SecondPrime != nil {
+				r.SampledDimension = max(r.SampledDimension, *tr.SecondPrime)
+			}
 		}
-		r.Full = r.Sampled == n
-		r.Agrees = r.Sampled == r.Structural
-		if !opt.Weights {
+		r.SampledHolds = r.SampledDimension == n
+		r.Agrees = r.SampledDimension == r.Dimension
+		if !req.Weights {
 			r.FailureBound = float64(n) * float64(n) / float64(Mersenne61-1)
 		}
-		r.Margin = math.NaN()
 	}
-	rep.Exact = time.Since(start)
+	res.Timings.Exact = time.Since(t0).Seconds()
+
 	// Floating-point check: one system at a time, eigenvalues in parallel.
-	start = time.Now()
+	t0 = time.Now()
 	for _, k := range kinds {
 		r := k.res
 		switch {
@@ -354,33 +590,131 @@ func Verify(g *structural.Network, in, out structural.Design, opt Options) (*Rep
 			continue
 		}
 		for t := 0; t < trials; t++ {
-			report(Progress{Stage: "float", Kind: k.name, Trial: t + 1, Trials: trials})
+			report(Progress{Stage: "float", Kind: k.name(), Trial: t + 1, Trials: trials})
 			_, re := system(k, t)
 			a, b := re.Dense(k.pat, k.transpose)
-			fr, err := Float(a, b, n, len(k.signals), opt.Float)
+			fr, sf, c, err := floatCheck(a, b, n, len(k.signals), req.Float)
 			if err != nil {
-				return nil, err
+				return err
 			}
 			r.Trials[t].Float = fr
-			if math.IsNaN(r.Margin) || fr.Margin < r.Margin {
-				r.Margin = fr.Margin
+			if req.Effort {
+				solver, err := newEffortSolver(sf, EffortRequest{Discrete: req.Discrete, Horizon: req.Horizon})
+				if err != nil {
+					return err
+				}
+				if r.Trials[t].Effort, err = solver.effort(c, len(k.signals)); err != nil {
+					return err
+				}
+			}
+			if r.Margin == nil || fr.Margin < *r.Margin {
+				m := fr.Margin
+				r.Margin = &m
 			}
 		}
 	}
-	rep.Float = time.Since(start)
-	return rep, nil
+	res.Timings.Float = time.Since(t0).Seconds()
+	if req.Modes {
+		t0 = time.Now()
+		if err := verifyModes(g, req, kinds, system, res); err != nil {
+			return err
+		}
+		res.Timings.Modes = time.Since(t0).Seconds()
+	}
+	return nil
 }
 
-// kind is one property under verification.
-type kind struct {
-	name      string
-	res       *Result
-	signals   [][]int32
-	weights   [][]float64
-	transpose bool
-	stream    uint64 // PCG stream of the signal values, plus 4t
-	pat       *Pattern
-	// The system of the model's own values (with Weights).
-	wExact *Exact
-	wReal  *Real
+// verifyModes analyses the stuck modes of every trial's real system, and
+// the Kalman parts when both properties are verified.
+func verifyModes(g *structural.Network, req *Request, kinds []*kind, system func(*kind, int) (*Exact, *Real), res *Result) error {
+	n := g.N()
+	main, alt := NewField(Mersenne61), NewField(Alt61)
+	for _, k := range kinds {
+		stable := true
+		k.res.ModesStable = &stable
+	}
+	for t := 0; t < req.trials(); t++ {
+		report := func(p Progress) {
+			if req.Progress != nil {
+				req.Progress(p)
+			}
+		}
+		type basis struct {
+			kb *krylovBasis
+			f  Field
+		}
+		var bases []basis
+		for _, k := range kinds {
+			report(Progress{Stage: "modes", Kind: k.name(), Trial: t + 1, Trials: req.trials()})
+			_, re := system(k, t)
+			image := func(f Field) *Exact {
+				if req.Weights {
+					x, _ := ExactFromWeights(k.pat, f, g.Weights(), k.weights)
+					return x
+				}
+				return exactOf(re, f, false)
+			}
+			first, second := main, alt
+			x := image(first)
+			kb := krylov(k.pat, x, k.transpose, nil)
+			if len(kb.rows) < k.res.Dimension {
+				// A prime dividing the minors would invent modes: try the
+				// other one and keep the larger dimension.
+				x2 := image(second)
+				if kb2 := krylov(k.pat, x2, k.transpose, nil); len(kb2.rows) > len(kb.rows) {
+					x, kb, first, second = x2, kb2, second, first
+				}
+			}
+			a, b := re.Dense(k.pat, k.transpose)
+			other := second
+			sys := &realSystem{p: k.pat, re: re, transpose: k.transpose, n: n, m: len(k.signals), a: a, b: b,
+				exact: x, alt: func() *Exact { return image(other) }, decimal: req.Weights}
+			md, err := stuckModes(sys, kb, req.Discrete, g.States)
+			if err != nil {
+				return err
+			}
+			k.res.Trials[t].Modes = md
+			if !md.Stable {
+				*k.res.ModesStable = false
+			}
+			bases = append(bases, basis{kb, first})
+		}
+		if len(kinds) == 2 {
+			c, o := bases[0], bases[1]
+			if c.f.P != o.f.P {
+				// Bring both to the prime that found the larger dimension.
+				k := kinds[0]
+				if c.f.P != alt.P {
+					k = kinds[1]
+				}
+				_, re := system(k, t)
+				var x *Exact
+				if req.Weights {
+					x, _ = ExactFromWeights(k.pat, alt, g.Weights(), k.weights)
+				} else {
+					x = exactOf(re, alt, false)
+				}
+				kb := krylov(k.pat, x, k.transpose, nil)
+				if k == kinds[0] {
+					c = basis{kb, alt}
+				} else {
+					o = basis{kb, alt}
+				}
+			}
+			rc, ro := len(c.kb.rows), len(o.kb.rows)
+			var co int
+			switch {
+			case rc == n:
+				co = ro
+			case ro == n:
+				co = rc
+			default:
+				co = jointRank(&c.f, c.kb.rows, o.kb.rows)
+			}
+			res.Kalman = append(res.Kalman, KalmanParts{Trial: t + 1, ControllableObservable: co,
+				ControllableUnobservable: rc - co, UncontrollableObservable: ro - co,
+				UncontrollableUnobservable: n - rc - ro + co})
+		}
+	}
+	return nil
 }

@@ -36,21 +36,73 @@ func FromFloat(f *Field, x float64) (v uint64, decimal bool) {
 	mant, exp, _ := strings.Cut(s, "e")
 	e10, _ := strconv.Atoi(exp)
 	digits := strings.Replace(mant, ".", "", 1)
-	if len(digits) <= maxExactDigits {
+	if len(digits) > maxExactDigits {
+		v = fromBinary(f, math.Abs(x))
+	} else {
 		m, _ := strconv.ParseUint(digits, 10, 64)
 		v = f.FromUint(m)
 		e10 -= len(digits) - 1
 		v = f.Mul(v, powInt(f, 10, e10))
 		decimal = true
-	} else {
-		frac, e2 := math.Frexp(math.Abs(x)) // |x| = frac·2^e2, frac in [0.5, 1)
-		m := uint64(math.Ldexp(frac, 53))   // exact: 53 significant bits
-		v = f.Mul(f.FromUint(m), powInt(f, 2, e2-53))
 	}
 	if neg {
 		v = f.Neg(v)
 	}
 	return v, decimal
+}
+
+// fromBinary maps the exact binary value of x >= 0 into f.
+func fromBinary(f *Field, x float64) uint64 {
+	frac, e2 := math.Frexp(x)         // x = frac·2^e2, frac in [0.5, 1)
+	m := uint64(math.Ldexp(frac, 53)) // exact: 53 significant bits
+	return f.Mul(f.FromUint(m), powInt(f, 2, e2-53))
+}
+
+// FromBinary maps the real number x into f as the exact binary fraction a
+// float64 holds: the image of a sample drawn in floating point.
+func FromBinary(f *Field, x float64) uint64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		panic("numeric: FromBinary of a non-finite value")
+	}
+	if x < 0 {
+		return f.Neg(fromBinary(f, -x))
+	}
+	if x == 0 {
+		return 0
+	}
+	return fromBinary(f, x)
+}
+
+// decimalText returns the shortest decimal that rounds to x, when it has
+// at most 15 significant digits (the text FromFloat maps exactly).
+func decimalText(x float64) (string, bool) {
+	s := strconv.FormatFloat(x, 'e', -1, 64)
+	mant, _, _ := strings.Cut(strings.TrimPrefix(s, "-"), "e")
+	return s, len(strings.Replace(mant, ".", "", 1)) <= maxExactDigits
+}
+
+// exactOf returns the exact image in f of the real sample re: as the
+// decimals the values denote (decimal, as FromFloat) or as their binary
+// values (FromBinary, for values drawn in floating point).
+func exactOf(re *Real, f Field, decimal bool) *Exact {
+	conv := func(x float64) uint64 {
+		if decimal {
+			v, _ := FromFloat(&f, x)
+			return v
+		}
+		return FromBinary(&f, x)
+	}
+	x := &Exact{F: f, A: make([]uint64, len(re.A)), B: make([][]uint64, len(re.B))}
+	for k, v := range re.A {
+		x.A[k] = conv(v)
+	}
+	for j, s := range re.B {
+		x.B[j] = make([]uint64, len(s))
+		for i, v := range s {
+			x.B[j][i] = conv(v)
+		}
+	}
+	return x
 }
 
 // powInt returns base^e in f for any integer e.

@@ -62,10 +62,14 @@ func TestSubnetworks(t *testing.T) {
 		t.Errorf("edge tank -> clarifier with weight 5 missing from the subnetwork")
 	}
 	// Signals lose the states left out; an empty signal is dropped.
+	// The signal kept keeps its number (2) for witnesses on the part.
 	sig := [][]int32{lookup(t, g, "intake"), lookup(t, g, "dosing", "intake")}
 	w := [][]float64{{1}, {2, 3}}
-	rs, rw, dropped := Restrict(sig, w, newOf)
-	if dropped != 1 || len(rs) != 1 || len(rs[0]) != 1 || sub.Name(rs[0][0]) != "dosing" || rw[0][0] != 2 {
-		t.Errorf("Restrict: %v %v dropped %d", rs, rw, dropped)
+	rd, rw, dropped, err := RestrictDesign(mustDesign(g, sig), w, sub, newOf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if dropped != 1 || rd.Len() != 1 || len(rd.Signal(0)) != 1 || sub.Name(rd.Signal(0)[0]) != "dosing" || rw[0][0] != 2 || rd.Number(0) != 2 {
+		t.Errorf("RestrictDesign: %v %v dropped %d number %d", rd.Signals(), rw, dropped, rd.Number(0))
 	}
 }
