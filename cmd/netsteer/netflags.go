@@ -13,6 +13,7 @@ import (
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/io/nodetable"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/sweep"
 )
 
@@ -139,12 +140,16 @@ func (in *input) devices(p structural.Property) structural.Devices {
 // design reads a design file for the network; an empty one is an error,
 // as it is most likely the wrong file.
 func (in *input) design(e *env, path string, p structural.Property) (*structural.Design, []design.Signal, error) {
+	return in.readDesign(e, path, p, false)
+}
+
+func (in *input) readDesign(e *env, path string, p structural.Property, weights bool) (*structural.Design, []design.Signal, error) {
 	var sigs []design.Signal
 	var err error
 	if path == "-" {
-		sigs, err = design.Read(e.Stdin, "stdin", in.g, false)
+		sigs, err = design.Read(e.Stdin, "stdin", in.g, weights)
 	} else {
-		sigs, err = design.ReadFile(path, in.g, false)
+		sigs, err = design.ReadFile(path, in.g, weights)
 	}
 	if err != nil {
 		return nil, nil, err
@@ -197,6 +202,8 @@ func describe(err error) string {
 		return fmt.Sprintf("%s supports at most %d states; the network has %d", te.What, te.Limit, te.States)
 	case errors.As(err, &se):
 		return fmt.Sprintf("state %q: %s", se.State, se.Msg)
+	case errors.Is(err, numeric.ErrPartWithoutSignals):
+		return "no input or output acts on the chosen part of the network"
 	case errors.Is(err, structural.ErrForeignDesign):
 		return "the design was read for another network"
 	}

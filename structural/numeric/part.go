@@ -80,6 +80,12 @@ func (p *PartResult) Describe() string {
 		}
 		from = strings.Join(names, ", ")
 	}
+	states := func(n int) string {
+		if n == 1 {
+			return "state"
+		}
+		return fmt.Sprintf("%d states", n)
+	}
 	steps := func(h int) string {
 		if h == 1 {
 			return "1 step"
@@ -88,9 +94,9 @@ func (p *PartResult) Describe() string {
 	}
 	switch {
 	case p.Limit > 0 && p.Hops == nil:
-		return fmt.Sprintf("the first %d states met from %s", p.Nodes, from)
+		return fmt.Sprintf("the first %s met from %s", states(p.Nodes), from)
 	case p.Limit > 0:
-		return fmt.Sprintf("the first %d states met within %s of %s", p.Nodes, steps(*p.Hops), from)
+		return fmt.Sprintf("the first %s met within %s of %s", states(p.Nodes), steps(*p.Hops), from)
 	case p.Hops == nil:
 		return fmt.Sprintf("the states connected to %s", from)
 	}

@@ -582,7 +582,7 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 		r := k.res
 		switch {
 		case maxFloat < 0:
-			r.FloatSkipped = "turned off"
+			r.FloatSkipped = "the floating-point check is turned off"
 		case n > maxFloat:
 			r.FloatSkipped = fmt.Sprintf("%d states exceed the limit of %d for the floating-point check", n, maxFloat)
 		}
