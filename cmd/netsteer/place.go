@@ -1,6 +1,8 @@
 package main
 
 import (
+	"errors"
+	"fmt"
 	"time"
 
 	"github.com/spf13/pflag"
@@ -8,6 +10,7 @@ import (
 	"github.com/netsteer/netsteer/io/textout"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
+	"github.com/netsteer/netsteer/structural/numeric"
 )
 
 const placeUsage = `Usage: netsteer %[1]s [options] NET
@@ -21,7 +24,11 @@ IEEE TAC 2016); with one, the least total cost, then the fewest devices
 
 --roles says for each new %[6]s whether every cheapest placement has one
 there (forced), or lists the states that could take its place at the same
-cost (--alternatives bounds the list).
+cost (--alternatives bounds the list). --rank-effort ranks these equally
+cheap placements by control effort (the worst-case input energy from the
+Gramian, Pasqualetti, Zampieri & Bullo 2014) on random samples of the
+parameters, or on the model's own numbers with --weights; dense work, up to
+1000 states.
 
 When no placement the node table allows can succeed, the exit status is 1
 and the output names the states or components that block.
@@ -29,6 +36,7 @@ and the output names the states or components that block.
 Example:
   netsteer %[1]s testdata/plant/heating.edges
   netsteer %[1]s --node-table testdata/plant/heating-nodes.csv --roles testdata/plant/heating.edges
+  netsteer %[1]s --rank-effort --seed 3 testdata/plant/heating.edges
 `
 
 func placeCommand(name string, p structural.Property, devices, adjective, column string) *command {
@@ -44,6 +52,12 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 			roles := fs.Bool("roles", false, "say which new "+devices+" are forced and where the others could go instead")
 			alts := fs.Int("alternatives", 10, "with --roles, list at most this many alternatives per "+p.Device())
 			timings := fs.Bool("timings", false, "print stage times on standard error")
+			rank := fs.Bool("rank-effort", false, "rank the equally cheap placements --roles lists by control effort on numbers (implies --roles)")
+			weights := fs.Bool("weights", false, "with --rank-effort, use the model's own numbers (edge weights) instead of samples")
+			trials := fs.Int("trials", numeric.DefaultTrials, "with --rank-effort, random samples averaged")
+			seed := fs.Uint64("seed", 1, "with --rank-effort, seed of the samples")
+			horizon := fs.Float64("horizon", 0, "with --rank-effort, finite horizon of the Gramian (default: infinite)")
+			discrete := fs.Bool("discrete", false, "with --rank-effort, read the model as x(k+1) = A x(k) + B u(k)")
 			return func(args []string) error {
 				path, err := oneArg(args)
 				if err != nil {
@@ -56,12 +70,21 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 					return usagef("--alternatives %d: want 0 or more", *alts)
 				}
 				start := time.Now()
-				in, err := nf.load(path, of.output, false)
+				in, err := nf.load(path, of.output, *weights)
 				if err != nil {
 					return err
 				}
+				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts}
+				if *rank {
+					req.RankEffort = &numeric.RankRequest{Weights: *weights, Trials: *trials, Seed: *seed,
+						Effort: numeric.EffortRequest{Discrete: *discrete, Horizon: *horizon}}
+				}
 				e.status("placing %s (%d states, %d edges)", devices, in.g.N(), in.g.Edges())
-				r, err := analysis.Place(in.g, analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts})
+				r, err := analysis.Place(in.g, req)
+				var ue *numeric.UnstableError
+				if errors.As(err, &ue) {
+					return fmt.Errorf("%s (give --horizon T)", ue.Reason)
+				}
 				if err != nil {
 					return err
 				}

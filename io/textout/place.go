@@ -4,6 +4,7 @@ import (
 	"encoding/csv"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -88,6 +89,7 @@ func (p Place) Text(w io.Writer, o Options) error {
 	}
 	if r.Roles != nil {
 		p.rolesText(t)
+		p.rankingText(t)
 	} else if pl.Added.Len() > o.max() || pl.Existing.Len() > o.max() {
 		t.blank()
 		t.p("  ", "All %d %s (%d new, %d existing):", nd, devs, pl.Added.Len(), pl.Existing.Len())
@@ -205,4 +207,33 @@ func (p Place) CSV(w io.Writer) error {
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+func (p Place) rankingText(t *tw) {
+	k := p.R.Ranking
+	if k == nil {
+		return
+	}
+	src := "random samples of the parameters"
+	if k.Weights {
+		src = "the model's numbers"
+	}
+	hz := "infinite horizon"
+	if k.Horizon > 0 {
+		hz = fmt.Sprintf("horizon %g", k.Horizon)
+	}
+	t.blank()
+	t.p("  ", "Equally cheap placements by control effort (%s, %s, %s time; least worst-case energy first):", src, hz, k.TimeDomain)
+	g := p.R.Network()
+	for _, c := range k.Candidates {
+		what := "as placed"
+		if c.Swap != nil {
+			what = quote(g.Name(c.Swap.From)) + " -> " + quote(g.Name(c.Swap.To))
+		}
+		energy := "infinite (a direction cannot be reached)"
+		if !math.IsInf(c.WorstCaseEnergy, 0) && !math.IsNaN(c.WorstCaseEnergy) {
+			energy = fmt.Sprintf("%.3g", c.WorstCaseEnergy)
+		}
+		t.row(fmt.Sprintf("  %3d. %-36s ", c.Rank, what), "worst-case energy %s, trace %.3g", energy, c.GramianTrace)
+	}
 }

@@ -4,6 +4,7 @@ import (
 	"time"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/placement"
 )
 
@@ -193,6 +194,11 @@ type PlaceRequest struct {
 	// it, and lists up to Alternatives states that could take its place.
 	Roles        bool
 	Alternatives int
+	// RankEffort, when not nil, ranks the placement and each single swap
+	// the roles list (all equally cheap) by control effort on numbers
+	// (numeric.RankCandidates); it implies Roles. Its Property is set
+	// from the request's.
+	RankEffort *numeric.RankRequest
 }
 
 // PlaceResult is the answer to "where do the cheapest devices go?".
@@ -208,8 +214,11 @@ type PlaceResult struct {
 	// state costs the same and no device exists yet; nil otherwise.
 	Count *placement.DeviceCount `json:"count,omitempty"`
 	// Roles, with PlaceRequest.Roles: one entry per added device.
-	Roles   []placement.DeviceRole `json:"roles,omitempty"`
-	Timings Timings                `json:"timings"`
+	Roles []placement.DeviceRole `json:"roles,omitempty"`
+	// Ranking, with PlaceRequest.RankEffort: the equally cheap placements
+	// by control effort.
+	Ranking *numeric.Ranking `json:"ranking,omitempty"`
+	Timings Timings          `json:"timings"`
 }
 
 // Place finds the cheapest dedicated devices that make g structurally
@@ -235,9 +244,21 @@ func Place(g *structural.Network, req PlaceRequest) (*PlaceResult, error) {
 		}
 		t = r.Timings.Add("count", t)
 	}
-	if req.Roles {
+	if req.Roles || req.RankEffort != nil {
 		r.Roles = pl.Roles(max(req.Alternatives, 0))
-		r.Timings.Add("roles", t)
+		t = r.Timings.Add("roles", t)
+	}
+	if rr := req.RankEffort; rr != nil && pl.Feasible {
+		cands, err := numeric.PlacementCandidates(g, pl, r.Roles)
+		if err != nil {
+			return nil, err
+		}
+		rq := *rr
+		rq.Property = req.Property
+		if r.Ranking, err = numeric.RankCandidates(g, cands, rq); err != nil {
+			return nil, err
+		}
+		r.Timings.Add("rank", t)
 	}
 	return r, nil
 }

@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -71,7 +70,7 @@ func (e *Effort) MarshalJSON() ([]byte, error) { return marshalFields(e.fields()
 
 // ErrHorizon is returned for a horizon that is negative, not finite, or
 // (discrete time) not a whole number of steps.
-var ErrHorizon = errors.New("numeric: the horizon must be a finite number >= 0, and a whole number of steps in discrete time")
+var ErrHorizon = errorf("the horizon must be a finite number >= 0, and a whole number of steps in discrete time")
 
 // check validates the horizon.
 func (req EffortRequest) check() error {
@@ -144,7 +143,7 @@ func newEffortSolver(sf *schurForm, req EffortRequest) (*effortSolver, error) {
 		s.tpi.Factorize(tp)
 		var tc mat.Dense
 		if err := s.tpi.SolveTo(&tc, false, tm); err != nil {
-			return nil, fmt.Errorf("numeric: Cayley transform of A: %w", err)
+			return nil, errorf("Cayley transform of A: %w", err)
 		}
 		s.tc = make([]float64, n*n)
 		start, size := sf.blocks()
@@ -230,7 +229,7 @@ func extremes(x []float64, n int, e *Effort) error {
 	}
 	var es mat.EigenSym
 	if !es.Factorize(sym, false) {
-		return errors.New("numeric: symmetric eigenvalue solver failed on the Gramian")
+		return errorf("symmetric eigenvalue solver failed on the Gramian")
 	}
 	vals := es.Values(nil)
 	e.GramianMin, e.GramianMax, e.GramianTrace = vals[0], vals[n-1], tr
@@ -383,7 +382,7 @@ func (s *effortSolver) blockGramian(c []float64, m int) ([]float64, error) {
 		for j := 0; j < n; j++ {
 			v := x.At(i, j)
 			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return nil, fmt.Errorf("numeric: the finite-horizon Gramian overflowed: horizon %g is too long for the fastest modes of A", s.req.Horizon)
+				return nil, errorf("the finite-horizon Gramian overflowed: horizon %g is too long for the fastest modes of A", s.req.Horizon)
 			}
 			data[i*n+j] = v
 		}
@@ -398,7 +397,7 @@ func (s *effortSolver) blockGramian(c []float64, m int) ([]float64, error) {
 // doubling) and a symmetric eigensolver.
 func GramianEffort(a, b []float64, n, m int, req EffortRequest) (*Effort, error) {
 	if n == 0 {
-		return nil, errors.New("numeric: empty system")
+		return nil, errorf("empty system")
 	}
 	sf, err := newSchur(append([]float64(nil), a...), n)
 	if err != nil {

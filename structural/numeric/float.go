@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"errors"
 	"math"
 	"sort"
 
@@ -88,7 +87,7 @@ func Float(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, error) {
 // (n×m) for further work on the same system.
 func floatCheck(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, *schurForm, []float64, error) {
 	if n == 0 {
-		return nil, nil, nil, errors.New("numeric: empty system")
+		return nil, nil, nil, errorf("empty system")
 	}
 	r := &FloatResult{}
 	var fa, fb float64
@@ -100,7 +99,7 @@ func floatCheck(a, b []float64, n, m int, opt *FloatOptions) (*FloatResult, *sch
 	}
 	r.Scale = math.Sqrt(fa + fb)
 	if r.Scale == 0 {
-		return nil, nil, nil, errors.New("numeric: A and B are both zero")
+		return nil, nil, nil, errorf("A and B are both zero")
 	}
 	sf, err := newSchur(append([]float64(nil), a...), n)
 	if err != nil {

@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"errors"
 	"math"
 
 	"gonum.org/v1/gonum/mat"
@@ -52,7 +51,7 @@ func lyapunov(t, q []float64, n int, start, size []int) ([]float64, error) {
 			}
 			scale, _, ok := impl.Dlasy2(false, true, 1, bi, bj, t[i0*n+i0:], n, t[j0*n+j0:], n, piece[:], bj, sol[:], bj)
 			if !ok || scale != 1 {
-				return nil, errors.New("numeric: Lyapunov equation nearly singular (the shifted matrix is not stable enough)")
+				return nil, errorf("Lyapunov equation nearly singular (the shifted matrix is not stable enough)")
 			}
 			for ii := 0; ii < bi; ii++ {
 				for jj := 0; jj < bj; jj++ {
@@ -106,7 +105,7 @@ func gramianExtremes(sf *schurForm, c []float64, m int, s float64) (lo, hi float
 	}
 	var es mat.EigenSym
 	if !es.Factorize(mat.NewSymDense(n, x), false) {
-		return 0, 0, errors.New("numeric: symmetric eigenvalue solver failed on the Gramian")
+		return 0, 0, errorf("symmetric eigenvalue solver failed on the Gramian")
 	}
 	vals := es.Values(nil)
 	lo, hi = math.Inf(1), math.Inf(-1)

@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"fmt"
 	"math"
 	"math/big"
 	"math/cmplx"
@@ -214,7 +213,7 @@ func stuckModes(sys *realSystem, kb *krylovBasis, discrete bool, names func([]in
 				v[kb.piv[piv]] = 1
 				nrm = orth(v)
 				if nrm == 0 {
-					return nil, fmt.Errorf("numeric: the floating-point basis of the controllable subspace collapsed")
+					return nil, errorf("the floating-point basis of the controllable subspace collapsed")
 				}
 			}
 			floats.Scale(1/nrm, v)

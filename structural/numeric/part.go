@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"errors"
 	"fmt"
 	"slices"
 	"strings"
@@ -105,7 +104,7 @@ func (p *PartResult) Describe() string {
 
 // ErrPartWithoutSignals is returned when no signal acts on the part of the
 // network chosen for verification.
-var ErrPartWithoutSignals = errors.New("numeric: no input or output acts on the chosen part of the network")
+var ErrPartWithoutSignals = errorf("no input or output acts on the chosen part of the network")
 
 // Around returns, in increasing order, the states met by a breadth-first
 // search from the centres that follows edges in either direction, going at
@@ -237,7 +236,7 @@ func cutPart(g *structural.Network, req *Request, in, out structural.Design) (su
 			d, prop = out, structural.Observability
 		}
 		if d.Len() == 0 {
-			return nil, nil, rin, rout, nil, nil, errors.New("numeric: no centres and no signal to take them from")
+			return nil, nil, rin, rout, nil, nil, errorf("no centres and no signal to take them from")
 		}
 		centres = d.Signal(0)
 		pr.CentreSignal = &SignalRef{Property: prop.String(), Number: d.Number(0)}
@@ -245,7 +244,7 @@ func cutPart(g *structural.Network, req *Request, in, out structural.Design) (su
 	n := g.N()
 	for _, c := range centres {
 		if c < 0 || int(c) >= n {
-			return nil, nil, rin, rout, nil, nil, fmt.Errorf("numeric: centre %d is not a state (the network has %d)", c, n)
+			return nil, nil, rin, rout, nil, nil, errorf("centre %d is not a state (the network has %d)", c, n)
 		}
 	}
 	pr.Centres = g.States(centres)

@@ -3,10 +3,11 @@ package numeric
 import (
 	"math"
 
-	"gonum.org/v1/gonum/lapack"
 	"math/cmplx"
 	"runtime"
 	"sync"
+
+	"gonum.org/v1/gonum/lapack"
 )
 
 // pbhMargin returns the smallest singular value of [A - λI, B] over the

@@ -2,8 +2,6 @@ package numeric
 
 import (
 	"encoding/json"
-	"errors"
-	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -112,7 +110,7 @@ type Candidate struct {
 // to one of its alternatives. All have the placement's cost.
 func PlacementCandidates(g *structural.Network, pl *placement.Placement, roles []placement.DeviceRole) ([]Candidate, error) {
 	if !pl.Feasible {
-		return nil, errors.New("numeric: the placement is infeasible: no design to rank")
+		return nil, errorf("the placement is infeasible: no design to rank")
 	}
 	base := append([]int32(nil), pl.Devices.IDs()...)
 	d, err := structural.Dedicated(g, base)
@@ -123,7 +121,7 @@ func PlacementCandidates(g *structural.Network, pl *placement.Placement, roles [
 	for _, r := range roles {
 		i := slices.Index(base, r.State)
 		if i < 0 {
-			return nil, fmt.Errorf("numeric: role of state %d, which holds no device of the placement", r.State)
+			return nil, errorf("role of state %d, which holds no device of the placement", r.State)
 		}
 		for _, alt := range r.Alternatives.IDs() {
 			states := append([]int32(nil), base...)
@@ -157,10 +155,10 @@ func RankDesigns(g *structural.Network, candidates []structural.Design, req Rank
 // RankCandidates is RankDesigns for candidates that carry their swaps.
 func RankCandidates(g *structural.Network, candidates []Candidate, req RankRequest) (*Ranking, error) {
 	if len(candidates) == 0 {
-		return nil, errors.New("numeric: no candidate designs to rank")
+		return nil, errorf("no candidate designs to rank")
 	}
 	if req.SignalWeights != nil && len(req.SignalWeights) != len(candidates) {
-		return nil, fmt.Errorf("numeric: %d signal value lists for %d candidates", len(req.SignalWeights), len(candidates))
+		return nil, errorf("%d signal value lists for %d candidates", len(req.SignalWeights), len(candidates))
 	}
 	n := g.N()
 	limit := req.MaxStates
@@ -172,7 +170,7 @@ func RankCandidates(g *structural.Network, candidates []Candidate, req RankReque
 		trials = 1
 	}
 	if trials > MaxTrials {
-		return nil, fmt.Errorf("numeric: %d trials: at most %d", trials, MaxTrials)
+		return nil, errorf("%d trials: at most %d", trials, MaxTrials)
 	}
 	if n > limit {
 		return nil, &SizeError{Stage: StageDense, States: n, Edges: g.Edges(), Limit: limit,
@@ -246,7 +244,7 @@ func RankCandidates(g *structural.Network, candidates []Candidate, req RankReque
 				return nil, err
 			}
 			if e.Skipped != "" {
-				return nil, errors.New("numeric: " + e.Skipped)
+				return nil, &UnstableError{Reason: e.Skipped}
 			}
 			out[i].Efforts = append(out[i].Efforts, e)
 		}
@@ -295,3 +293,11 @@ func timeDomain(discrete bool) string {
 	}
 	return "continuous"
 }
+
+// UnstableError reports a ranking on the infinite horizon of a system
+// whose A is not stable: the Gramian does not exist, and a finite horizon
+// is needed.
+type UnstableError struct{ Reason string }
+
+func (e *UnstableError) Error() string   { return "numeric: " + e.Reason }
+func (e *UnstableError) Message() string { return e.Reason }

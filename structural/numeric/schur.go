@@ -1,8 +1,6 @@
 package numeric
 
 import (
-	"errors"
-
 	"gonum.org/v1/gonum/lapack"
 	"gonum.org/v1/gonum/lapack/gonum"
 )
@@ -47,7 +45,7 @@ func newSchur(a []float64, n int) (*schurForm, error) {
 		work = make([]float64, need)
 	}
 	if unconv := impl.Dhseqr(lapack.EigenvaluesAndSchur, lapack.SchurOrig, n, 0, n-1, h, n, s.wr, s.wi, a, n, work, len(work)); unconv != 0 {
-		return nil, errors.New("numeric: the QR algorithm did not converge for the eigenvalues of A")
+		return nil, errorf("the QR algorithm did not converge for the eigenvalues of A")
 	}
 	s.t, s.z = h, a
 	return s, nil

@@ -1,7 +1,6 @@
 package numeric
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -327,13 +326,13 @@ func Verify(g *structural.Network, req Request) (*Result, error) {
 		out = *req.Outputs
 	}
 	if in.Len() == 0 && out.Len() == 0 {
-		return nil, errors.New("numeric: no inputs and no outputs to verify")
+		return nil, errorf("no inputs and no outputs to verify")
 	}
 	if !in.Of(g) || !out.Of(g) {
 		return nil, structural.ErrForeignDesign
 	}
 	if req.Trials > MaxTrials {
-		return nil, fmt.Errorf("numeric: %d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", req.Trials, MaxTrials)
+		return nil, errorf("%d trials: at most %d (each trial already misses the generic dimension with probability at most n^2/p)", req.Trials, MaxTrials)
 	}
 	if req.Effort {
 		if err := (EffortRequest{Discrete: req.Discrete, Horizon: req.Horizon}).check(); err != nil {
@@ -341,7 +340,7 @@ func Verify(g *structural.Network, req Request) (*Result, error) {
 		}
 	}
 	if (req.Modes || req.Effort) && req.maxFloat() < 0 {
-		return nil, errors.New("numeric: the modes and the effort need the floating-point check, which is turned off")
+		return nil, errorf("the modes and the effort need the floating-point check, which is turned off")
 	}
 	if err := checkWeights(in, req.InputWeights, "input"); err != nil {
 		return nil, err
@@ -392,18 +391,18 @@ func checkWeights(d structural.Design, w [][]float64, what string) error {
 		return nil
 	}
 	if len(w) != d.Len() {
-		return fmt.Errorf("numeric: %d %s values for %d signals", len(w), what, d.Len())
+		return errorf("%d %s values for %d signals", len(w), what, d.Len())
 	}
 	for j, s := range w {
 		if s == nil {
 			continue
 		}
 		if len(s) != len(d.Signal(j)) {
-			return fmt.Errorf("numeric: %s %d has %d values for %d states", what, d.Number(j), len(s), len(d.Signal(j)))
+			return errorf("%s %d has %d values for %d states", what, d.Number(j), len(s), len(d.Signal(j)))
 		}
 		for _, x := range s {
 			if math.IsNaN(x) || math.IsInf(x, 0) {
-				return fmt.Errorf("numeric: %s %d has a value that is not a finite number", what, d.Number(j))
+				return errorf("%s %d has a value that is not a finite number", what, d.Number(j))
 			}
 		}
 	}
