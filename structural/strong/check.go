@@ -22,6 +22,10 @@ type Request struct {
 	// and says why no witness was built. 0 means DefaultWitnessEntries; a
 	// negative value builds no witness.
 	WitnessEntries int
+	// ShrinkWork caps the work, in edge visits, spent making a witness's
+	// support minimal; 0 means 4(N + E) + 10^6 (about four colourings), a
+	// negative value keeps the unforced states as the support.
+	ShrinkWork int64
 }
 
 // Result answers a Request.
@@ -156,7 +160,10 @@ func Check(g *structural.Network, r Request) (*Result, error) {
 	// the fort found for the first serves the second.
 	var shared []int32
 	var sharedMinimal bool
-	budget := 8*int64(s.n+g.Edges()+len(s.sigAdj)) + 1_000_000
+	budget := r.ShrinkWork
+	if budget == 0 {
+		budget = 4*int64(s.n+g.Edges()+len(s.sigAdj)) + 1_000_000
+	}
 	for _, x := range tests {
 		if x.t.Holds || limit < 0 {
 			continue
@@ -199,39 +206,78 @@ func Check(g *structural.Network, r Request) (*Result, error) {
 	return res, nil
 }
 
-// shrink makes the white set of f, a fort, inclusion-minimal: each white
-// state v in turn is coloured; if the colouring then completes, no fort
-// inside the current one avoids v and the step is undone, otherwise the
-// white set that remains is a smaller fort. A state kept after its trial
-// is in no smaller fort inside the final set (every later set is inside
-// the one it was tried against), so the result is minimal. It stops after
-// about work edge visits, returning the current fort (still a fort, not
-// known to be minimal). f is left at the final fixpoint.
+// shrink makes the white set of f, a fort, inclusion-minimal.
+//
+// First, a white state that no column can force even with every other
+// state coloured (each column holding it holds it as an arbitrary entry:
+// an unreached source with free self-dynamics, say) is a fort alone, and
+// is returned at once. Otherwise blocks of white states are coloured in
+// turn, half the fort at a time, then a quarter, and so on down to single
+// states: if the colouring then completes, no fort inside the current one
+// avoids the block and the step is undone; otherwise the white set that
+// remains is a smaller fort. The last round tries every remaining state
+// alone; a state kept after its trial is in no smaller fort inside the
+// final set (every later set is inside the one it was tried against), so
+// the result is minimal. A trial only colours states of the current fort,
+// the rest being coloured already. It stops after about work edge visits
+// and returns the current fort (still a fort, not known to be minimal).
+// f is left at the final fixpoint.
 func shrink(f *forcer, work int64) ([]int32, bool) {
 	s := f.s
+	white := f.white()
+	for _, v := range white {
+		if f.alone(v) {
+			return []int32{v}, true
+		}
+	}
+	if work < 0 {
+		return white, false
+	}
 	f.keep = true
 	f.journal = f.journal[:0]
 	defer func() { f.keep = false; f.journal = f.journal[:0] }()
 	var spent int64
-	for _, v := range f.white() {
-		if f.colored[v] {
-			continue
+	for blk := max(len(white)/2, 1); ; blk /= 2 {
+		for i := 0; i < len(white); {
+			mark := len(f.journal)
+			for k := 0; k < blk && i < len(white); i++ {
+				if v := white[i]; !f.colored[v] {
+					f.colour(v)
+					k++
+				}
+			}
+			f.run()
+			var trial int64
+			for _, r := range f.journal[mark:] {
+				trial += s.inDegree(r) + 1
+			}
+			spent += trial
+			if f.complete() {
+				spent += trial // the undo costs as much
+				f.undo(mark)
+			}
+			if spent > work {
+				return f.white(), false
+			}
 		}
-		mark := len(f.journal)
-		f.colour(v)
-		f.run()
-		var trial int64
-		for _, r := range f.journal[mark:] {
-			trial += s.inDegree(r) + 1
+		if blk == 1 {
+			return f.white(), true
 		}
-		spent += trial
-		if f.complete() {
-			spent += trial // the undo costs as much
-			f.undo(mark)
-		}
-		if spent > work {
-			return f.white(), false
+		white = f.white()
+	}
+}
+
+// alone reports whether {v} is a fort: every column holding v holds it as
+// an arbitrary entry, so none forces v whatever else is coloured.
+func (f *forcer) alone(v int32) bool {
+	s := f.s
+	if f.diag[v] == Nonzero || s.sigPtr[v+1] > s.sigPtr[v] {
+		return false
+	}
+	for k := s.in.Ptr[v]; k < s.in.Ptr[v+1]; k++ {
+		if s.in.Adj[k] != v && (s.inMark == nil || !s.inMark[k]) {
+			return false
 		}
 	}
-	return f.white(), true
+	return true
 }

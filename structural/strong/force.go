@@ -19,11 +19,12 @@ package strong
 type forcer struct {
 	s    *system
 	diag []Kind
-	// Per column: states 0..n-1, then the signals.
-	cnt, arb, xr []int32
-	colored      []bool
-	done         int
-	queue        []int32
+	// Per column (states 0..n-1, then the signals), in one record so
+	// that an update touches one cache line.
+	col     []column
+	colored []bool
+	done    int
+	queue   []int32
 	// journal, when keep is set, lists the rows coloured in order, so
 	// that undo can return to an earlier fixpoint.
 	journal []int32
@@ -33,9 +34,13 @@ type forcer struct {
 	stall [][]int32
 }
 
+// column is one column's white rows: how many, how many of them
+// arbitrary, and the XOR of their indices.
+type column struct{ cnt, arb, xr int32 }
+
 func newForcer(s *system, diag []Kind) *forcer {
 	n, m := s.n, s.m
-	f := &forcer{s: s, diag: diag, cnt: make([]int32, n+m), arb: make([]int32, n+m), xr: make([]int32, n+m), colored: make([]bool, n)}
+	f := &forcer{s: s, diag: diag, col: make([]column, n+m), colored: make([]bool, n)}
 	out := s.out
 	for u := int32(0); int(u) < n; u++ {
 		var c, a, x int32
@@ -56,18 +61,19 @@ func newForcer(s *system, diag []Kind) *forcer {
 		case Arbitrary:
 			c, x, a = c+1, x^u, a+1
 		}
-		f.cnt[u], f.arb[u], f.xr[u] = c, a, x
+		f.col[u] = column{c, a, x}
 		if c == 1 && a == 0 {
 			f.queue = append(f.queue, u)
 		}
 	}
-	for i, sg := range s.sig {
+	for i := 0; i < m; i++ {
+		sg := s.signal(i)
 		j := n + i
 		var x int32
 		for _, v := range sg {
 			x ^= v
 		}
-		f.cnt[j], f.xr[j] = int32(len(sg)), x
+		f.col[j] = column{cnt: int32(len(sg)), xr: x}
 		if len(sg) == 1 {
 			f.queue = append(f.queue, int32(j))
 		}
@@ -77,17 +83,18 @@ func newForcer(s *system, diag []Kind) *forcer {
 
 // drop removes white row r from column j.
 func (f *forcer) drop(j, r int32, arbitrary bool) {
-	c := f.cnt[j] - 1
-	f.cnt[j] = c
-	f.xr[j] ^= r
+	cl := &f.col[j]
+	c := cl.cnt - 1
+	cl.cnt = c
+	cl.xr ^= r
 	if arbitrary {
-		f.arb[j]--
+		cl.arb--
 	}
 	if c == 1 {
-		if f.arb[j] == 0 {
+		if cl.arb == 0 {
 			f.queue = append(f.queue, j)
 		}
-	} else if f.stall != nil && c >= 2 && int(c) < len(f.stall) && f.arb[j] < c {
+	} else if f.stall != nil && c >= 2 && int(c) < len(f.stall) && cl.arb < c {
 		f.stall[c] = append(f.stall[c], j)
 	}
 }
@@ -124,8 +131,8 @@ func (f *forcer) run() {
 	for len(f.queue) > 0 {
 		j := f.queue[len(f.queue)-1]
 		f.queue = f.queue[:len(f.queue)-1]
-		if f.cnt[j] == 1 && f.arb[j] == 0 {
-			f.colour(f.xr[j])
+		if cl := f.col[j]; cl.cnt == 1 && cl.arb == 0 {
+			f.colour(cl.xr)
 		}
 	}
 }
@@ -151,10 +158,11 @@ func (f *forcer) uncolour(r int32) {
 	s := f.s
 	in := s.in
 	lift := func(j int32, arbitrary bool) {
-		f.cnt[j]++
-		f.xr[j] ^= r
+		cl := &f.col[j]
+		cl.cnt++
+		cl.xr ^= r
 		if arbitrary {
-			f.arb[j]++
+			cl.arb++
 		}
 	}
 	for k := in.Ptr[r]; k < in.Ptr[r+1]; k++ {

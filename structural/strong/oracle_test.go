@@ -69,10 +69,10 @@ func (p pat) network(t testing.TB, d Diagonal) (*structural.Network, Class, bool
 }
 
 // values are the integers a realisation tries: zero first for arbitrary
-// entries (cheap counterexamples come early), then 1, -1, 2.
+// entries (cheap counterexamples come early).
 var (
 	nonzeroValues   = []int64{1, -1, 2}
-	arbitraryValues = []int64{0, 1, -1, 2}
+	arbitraryValues = []int64{0, 1, -1}
 )
 
 // slot is one entry of a realisation: A[row][col] (or B[row][col] when
@@ -155,57 +155,76 @@ func (r *realisation) controllableIn(obs bool, m *kalman) bool {
 		}
 		a = &t
 	}
-	m.rows, m.cols = n, 0
-	for bi := range r.b {
-		x := r.b[bi]
-		for k := 0; k < n; k++ {
-			if m.cols == len(m.e[0]) {
-				panic("oracle: Kalman matrix wider than 16 columns")
+	if n == 3 && len(r.b) == 1 {
+		// One signal on three states: the Kalman matrix is square;
+		// controllable exactly when its determinant is not zero (entries
+		// below 100 here, so the products cannot overflow).
+		b := r.b[0]
+		var ab, aab [3]int64
+		for i := 0; i < 3; i++ {
+			for j := 0; j < 3; j++ {
+				ab[i] += a[i][j] * b[j]
 			}
-			for i := 0; i < n; i++ {
-				m.e[i][m.cols] = x[i]
+		}
+		for i := 0; i < 3; i++ {
+			for j := 0; j < 3; j++ {
+				aab[i] += a[i][j] * ab[j]
 			}
-			m.cols++
-			if k == n-1 {
-				break
-			}
-			var y [4]int64
-			for i := 0; i < n; i++ {
-				for j := 0; j < n; j++ {
-					y[i] += a[i][j] * x[j]
-				}
-			}
-			x = y
+		}
+		det := b[0]*(ab[1]*aab[2]-ab[2]*aab[1]) - ab[0]*(b[1]*aab[2]-b[2]*aab[1]) + aab[0]*(b[1]*ab[2]-b[2]*ab[1])
+		return det != 0
+	}
+	// The first n columns of [B AB A^2B ...] decide most realisations: if
+	// they are independent the rank is n. Otherwise all n·m columns.
+	full := n * len(r.b)
+	if full > len(m.e[0]) || len(r.b) > 4 {
+		panic("oracle: more than 4 signals")
+	}
+	widths := []int{n, full}
+	if full <= n {
+		widths = widths[1:]
+	}
+	for _, width := range widths {
+		r.kalmanInto(a, m, width)
+		rk, ok := m.rankInt64()
+		if !ok {
+			// Overflow (never on the grid of these tests): again in
+			// math/big.
+			r.kalmanInto(a, m, width)
+			rk = m.rankBig()
+		}
+		if rk == n {
+			return true
 		}
 	}
-	rk, ok := m.rankInt64()
-	if !ok {
-		// Overflow (never on the grid of these tests): start again in
-		// math/big.
-		r.kalmanInto(a, m)
-		rk = m.rankBig()
-	}
-	return rk == n
+	return false
 }
 
-// kalmanInto writes the Kalman matrix of (a, r.b) into m.
-func (r *realisation) kalmanInto(a *[4][4]int64, m *kalman) {
+// kalmanInto writes the first width columns of [B AB A^2B ...] (power by
+// power) of (a, r.b) into m.
+func (r *realisation) kalmanInto(a *[4][4]int64, m *kalman, width int) {
 	n := r.n
 	m.rows, m.cols = n, 0
-	for bi := range r.b {
-		x := r.b[bi]
-		for k := 0; k < n; k++ {
+	var x [4][4]int64 // the current power's columns, one per signal
+	copy(x[:], r.b)
+	for m.cols < width {
+		for bi := range r.b {
+			if m.cols == width {
+				return
+			}
 			for i := 0; i < n; i++ {
-				m.e[i][m.cols] = x[i]
+				m.e[i][m.cols] = x[bi][i]
 			}
 			m.cols++
+		}
+		for bi := range r.b {
 			var y [4]int64
 			for i := 0; i < n; i++ {
 				for j := 0; j < n; j++ {
-					y[i] += a[i][j] * x[j]
+					y[i] += a[i][j] * x[bi][j]
 				}
 			}
-			x = y
+			x[bi] = y
 		}
 	}
 }

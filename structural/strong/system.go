@@ -28,11 +28,13 @@ type system struct {
 	// λ != 0 (Zero -> Nonzero, Nonzero -> Arbitrary); shifted is nil when
 	// every diagonal entry is Arbitrary, so that the two tests coincide.
 	diag, shifted []Kind
-	// sig[i] lists the states of signal i, sorted, without repeats;
+	// sigStart/sigStates list the states of each signal (signal i is
+	// sigStates[sigStart[i]:sigStart[i+1]]), sorted, without repeats;
 	// sigPtr/sigAdj list, for each state, the signals touching it.
-	sig    [][]int32
-	sigPtr []int64
-	sigAdj []int32
+	sigStart  []int64
+	sigStates []int32
+	sigPtr    []int64
+	sigAdj    []int32
 }
 
 func newSystem(g *structural.Network, p structural.Property, c Class, d structural.Design) *system {
@@ -76,14 +78,23 @@ func newSystem(g *structural.Network, p structural.Property, c Class, d structur
 			}
 		}
 	}
-	s.sig = make([][]int32, s.m)
+	total := 0
+	for _, sg := range d.Signals() {
+		total += len(sg)
+	}
+	s.sigStart = make([]int64, s.m+1)
+	s.sigStates = make([]int32, 0, total)
 	s.sigPtr = make([]int64, n+1)
 	for i, sg := range d.Signals() {
-		x := slices.Clone(sg)
-		slices.Sort(x)
-		x = slices.Compact(x)
-		s.sig[i] = x
-		for _, v := range x {
+		lo := len(s.sigStates)
+		s.sigStates = append(s.sigStates, sg...)
+		if len(sg) > 1 {
+			x := s.sigStates[lo:]
+			slices.Sort(x)
+			s.sigStates = s.sigStates[:lo+len(slices.Compact(x))]
+		}
+		s.sigStart[i+1] = int64(len(s.sigStates))
+		for _, v := range s.sigStates[lo:] {
 			s.sigPtr[v+1]++
 		}
 	}
@@ -92,8 +103,8 @@ func newSystem(g *structural.Network, p structural.Property, c Class, d structur
 	}
 	s.sigAdj = make([]int32, s.sigPtr[n])
 	pos := slices.Clone(s.sigPtr[:n])
-	for i, x := range s.sig {
-		for _, v := range x {
+	for i := 0; i < s.m; i++ {
+		for _, v := range s.signal(i) {
 			s.sigAdj[pos[v]] = int32(i)
 			pos[v]++
 		}
@@ -118,6 +129,9 @@ func transposeMarks(g *structural.Network, marks []bool) []bool {
 	}
 	return t
 }
+
+// signal returns the states of signal i.
+func (s *system) signal(i int) []int32 { return s.sigStates[s.sigStart[i]:s.sigStart[i+1]] }
 
 // kindOut returns the kind of the off-diagonal entry at out.Adj[k].
 func (s *system) kindOut(k int64) Kind {

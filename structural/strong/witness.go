@@ -184,9 +184,9 @@ func buildWitness(s *system, support []int32, lambda int64, minimal bool, design
 			w.Entries = append(w.Entries, e)
 		}
 	}
-	for i, sg := range s.sig {
+	for i := 0; i < s.m; i++ {
 		list = list[:0]
-		for _, v := range sg {
+		for _, v := range s.signal(i) {
 			if in[v] {
 				list = append(list, item{v, Nonzero})
 			}
