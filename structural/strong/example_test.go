@@ -68,6 +68,6 @@ func ExamplePlace() {
 	fmt.Println("actuators:", pl.Devices.Names(), "optimal:", pl.Optimal, "by", pl.BoundFrom)
 	fmt.Println("generic minimum:", pl.GenericDevices)
 	// Output:
-	// actuators: [g1 g6] optimal: true by search
+	// actuators: [g5 g6] optimal: true by search
 	// generic minimum: 1
 }
