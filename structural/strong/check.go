@@ -23,8 +23,9 @@ type Request struct {
 	// negative value builds no witness.
 	WitnessEntries int
 	// ShrinkWork caps the work, in edge visits, spent making a witness's
-	// support minimal; 0 means 4(N + E) + 10^6 (about four colourings), a
-	// negative value keeps the unforced states as the support.
+	// support minimal; 0 means 4(N + E) + 10^6 (about four colourings). A
+	// negative value keeps the unforced states as the support, unless one
+	// of them is a fort alone (found in one pass).
 	ShrinkWork int64
 }
 

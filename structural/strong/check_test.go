@@ -359,3 +359,29 @@ func TestLongChain(t *testing.T) {
 		t.Fatalf("witness %+v", w)
 	}
 }
+
+// TestParse: the tokens and names the readers and flags use.
+func TestParse(t *testing.T) {
+	for tok, want := range map[string]Kind{"*": Nonzero, "nonzero": Nonzero, "?": Arbitrary, "Arbitrary": Arbitrary} {
+		if k, err := ParseKind(tok); err != nil || k != want {
+			t.Errorf("ParseKind(%q) = %v, %v", tok, k, err)
+		}
+	}
+	for _, bad := range []string{"", "0", "x", "??"} {
+		if _, err := ParseKind(bad); err == nil {
+			t.Errorf("ParseKind(%q) accepted", bad)
+		}
+	}
+	for _, d := range []Diagonal{FreeDiagonal, ZeroDiagonal, NonzeroDiagonal} {
+		if e, err := ParseDiagonal(d.String()); err != nil || e != d {
+			t.Errorf("ParseDiagonal(%q) = %v, %v", d, e, err)
+		}
+	}
+	if _, err := ParseDiagonal("loops"); err == nil {
+		t.Error("ParseDiagonal accepted an unknown class")
+	}
+	g := build(t, 2, path(2), false)
+	if err := (Class{Diagonal: 7}).Check(g); err == nil {
+		t.Error("unknown diagonal class accepted")
+	}
+}

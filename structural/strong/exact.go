@@ -2,8 +2,12 @@ package strong
 
 import (
 	"cmp"
+	"math"
 	"math/bits"
 	"slices"
+
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/optimize/convex/lp"
 
 	"github.com/netsteer/netsteer/structural"
 )
@@ -332,9 +336,95 @@ func (x *exact) search(start []int32, budget int64) ([]int32, bool, structural.C
 		root, _, _ := x.bound(make([]uint64, w), make([]uint64, w))
 		// key = cost·(n+1) + count with count <= n, so the cost bound is
 		// the quotient.
-		lb = structural.Cost(root / int64(x.n+1))
+		lb = max(structural.Cost(root/int64(x.n+1)), x.lpBound())
 	}
 	return best, proved, lb
+}
+
+// lpBound returns a lower bound on the cost of every placement from the
+// linear relaxation of the fort cover over the forts found (the
+// fractional fort cover): a feasible solution y of its dual, maximise
+// sum y_F subject to sum over forts holding v of y_F <= cost(v), y >= 0,
+// solved by gonum's simplex, scaled down until it is feasible in floating
+// point, and rounded up to a multiple of the costs' greatest common
+// divisor (every placement's cost is one). Weak duality makes any such y a bound. 0 when the solver
+// fails.
+func (x *exact) lpBound() structural.Cost {
+	var vars []int32
+	for v := int32(0); int(v) < x.n; v++ {
+		if has(x.allow, v) {
+			vars = append(vars, v)
+		}
+	}
+	k := len(x.forts)
+	if k == 0 || len(vars) == 0 {
+		return 0
+	}
+	rows, cols := len(vars), k+len(vars)
+	a := mat.NewDense(rows, cols, nil)
+	b := make([]float64, rows)
+	c := make([]float64, cols)
+	for i, v := range vars {
+		b[i] = float64(x.cost[v])
+		a.Set(i, k+i, 1) // slack
+		for j, f := range x.forts {
+			if has(f, v) {
+				a.Set(i, j, 1)
+			}
+		}
+	}
+	for j := 0; j < k; j++ {
+		c[j] = -1
+	}
+	basic := make([]int, rows)
+	for i := range basic {
+		basic[i] = k + i
+	}
+	_, y, err := lp.Simplex(c, a, b, 1e-10, basic)
+	if err != nil || len(y) != cols {
+		return 0
+	}
+	// Scale y into the constraints exactly as far as float arithmetic
+	// can tell, with a margin.
+	scale := 1.0
+	for i, v := range vars {
+		var load float64
+		for j, f := range x.forts {
+			if y[j] > 0 && has(f, v) {
+				load += y[j]
+			}
+		}
+		if load > 0 && b[i] < load {
+			scale = math.Min(scale, b[i]/load)
+		}
+		if b[i] == 0 && load > 0 {
+			return 0
+		}
+	}
+	var sum float64
+	for j := 0; j < k; j++ {
+		if y[j] > 0 {
+			sum += y[j]
+		}
+	}
+	sum *= scale * (1 - 1e-9)
+	// Every placement costs a multiple of the costs' greatest common
+	// divisor.
+	var g int64
+	for _, v := range vars {
+		g = gcd(g, int64(x.cost[v]))
+	}
+	if g == 0 {
+		return 0
+	}
+	return structural.Cost(int64(math.Ceil(sum/float64(g)-1e-6)) * g)
+}
+
+func gcd(a, b int64) int64 {
+	for b != 0 {
+		a, b = b, a%b
+	}
+	return a
 }
 
 func costSum(c []structural.Cost, states []int32) structural.Cost {

@@ -65,8 +65,9 @@ type Placement struct {
 	// Feasible reports that the allowed states can make the design
 	// strongly structurally controllable (observable) at all.
 	Feasible bool `json:"feasible"`
-	// Devices is the complete set, existing devices included; Added the
-	// new devices; Existing those kept. All in increasing order.
+	// Devices is the complete set of dedicated devices, existing ones
+	// included (a base design's signals are not listed); Added the new
+	// devices; Existing those kept. All in increasing order.
 	Devices  structural.States `json:"devices"`
 	Added    structural.States `json:"added"`
 	Existing structural.States `json:"existing"`
@@ -83,7 +84,8 @@ type Placement struct {
 	LowerBound structural.Cost `json:"lower_bound"`
 	Gap        structural.Cost `json:"gap"`
 	// BoundFrom names the lower bound: "search" (the exact search
-	// finished), "forts" (disjoint forts found by a search cut short),
+	// finished), "forts" (from the forts a search cut short found:
+	// disjoint ones, or their fractional cover by linear programming),
 	// "generic" (the cheapest placement for structural controllability,
 	// which every strong placement is).
 	BoundFrom string `json:"lower_bound_from"`
@@ -144,8 +146,10 @@ type Placement struct {
 //
 // The lower bound is the largest of: the generic minimum (a strongly
 // structurally controllable design is structurally controllable, so its
-// devices are a generic placement), the disjoint-fort bound at the root
-// when the search stopped early, and the optimum when it finished.
+// devices are a generic placement); when the search stopped early, the
+// disjoint-fort bound and the fractional fort cover (a dual solution of
+// the linear relaxation over the forts found, gonum's simplex) at the
+// root; and the optimum when it finished.
 func Place(g *structural.Network, r PlaceRequest) (*Placement, error) {
 	if !r.Design.Of(g) {
 		return nil, structural.ErrForeignDesign
