@@ -3,6 +3,7 @@ package strong
 import (
 	"fmt"
 	"math/rand/v2"
+	"runtime"
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
@@ -39,6 +40,9 @@ func benchNet(b *testing.B, model string, n int, l int64) *structural.Network {
 // coloured, both tests run to the end), with free and with zero
 // self-dynamics (one colouring, or two); and Lin's generic test
 // (structural.Check) on the same design in the same run, for the ratio.
+// cpu-ms/op is the calling thread's CPU time (Linux), steadier than wall
+// time on a shared machine; the generic test's matching is sequential
+// too.
 func BenchmarkCheck(b *testing.B) {
 	for _, c := range []struct {
 		model string
@@ -59,21 +63,29 @@ func BenchmarkCheck(b *testing.B) {
 			for _, diag := range []Diagonal{FreeDiagonal, ZeroDiagonal} {
 				b.Run(fmt.Sprintf("%s/E=%.0e/%s/%s", c.model, float64(g.Edges()), ds.name, diag), func(b *testing.B) {
 					var r *Result
+					runtime.LockOSThread()
+					defer runtime.UnlockOSThread()
+					cpu := threadCPU()
 					for i := 0; i < b.N; i++ {
 						var err error
 						if r, err = Check(g, Request{Design: ds.d, Class: Class{Diagonal: diag}}); err != nil {
 							b.Fatal(err)
 						}
 					}
+					b.ReportMetric(float64(threadCPU()-cpu)/float64(b.N)/1e6, "cpu-ms/op")
 					b.ReportMetric(float64(r.AtZero.Forced), "forced")
 				})
 			}
 			b.Run(fmt.Sprintf("%s/E=%.0e/%s/generic", c.model, float64(g.Edges()), ds.name), func(b *testing.B) {
+				runtime.LockOSThread()
+				defer runtime.UnlockOSThread()
+				cpu := threadCPU()
 				for i := 0; i < b.N; i++ {
 					if _, err := structural.Check(g, structural.Controllability, ds.d); err != nil {
 						b.Fatal(err)
 					}
 				}
+				b.ReportMetric(float64(threadCPU()-cpu)/float64(b.N)/1e6, "cpu-ms/op")
 			})
 		}
 	}
@@ -87,12 +99,16 @@ func BenchmarkPlaceHeuristic(b *testing.B) {
 		g := benchNet(b, "er", n, int64(2*n))
 		b.Run(fmt.Sprintf("E=%.0e", float64(g.Edges())), func(b *testing.B) {
 			var pl *Placement
+			runtime.LockOSThread()
+			defer runtime.UnlockOSThread()
+			cpu := threadCPU()
 			for i := 0; i < b.N; i++ {
 				var err error
 				if pl, err = Place(g, PlaceRequest{ExactStates: -1}); err != nil {
 					b.Fatal(err)
 				}
 			}
+			b.ReportMetric(float64(threadCPU()-cpu)/float64(b.N)/1e6, "cpu-ms/op")
 			b.ReportMetric(float64(pl.Added.Len()), "devices")
 			b.ReportMetric(float64(pl.GenericDevices), "generic")
 			b.ReportMetric(float64(pl.Gap/structural.Unit), "gap")

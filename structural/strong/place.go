@@ -2,6 +2,7 @@ package strong
 
 import (
 	"cmp"
+	"errors"
 	"fmt"
 	"math/rand/v2"
 	"slices"
@@ -185,6 +186,7 @@ func Place(g *structural.Network, r PlaceRequest) (*Placement, error) {
 	pl.Existing, pl.Added, pl.Devices, pl.Blocked = g.States(existing), empty, g.States(existing), empty
 
 	// 1. Feasibility.
+	white := make([]bool, n)
 	var blocked []int32
 	for _, f := range s.forcers() {
 		for v := int32(0); int(v) < n; v++ {
@@ -193,14 +195,16 @@ func Place(g *structural.Network, r PlaceRequest) (*Placement, error) {
 			}
 		}
 		f.run()
-		for _, v := range f.white() {
-			if !slices.Contains(blocked, v) {
-				blocked = append(blocked, v)
-			}
+		for v, c := range f.colored {
+			white[v] = white[v] || !c
+		}
+	}
+	for v, w := range white {
+		if w {
+			blocked = append(blocked, int32(v))
 		}
 	}
 	if len(blocked) > 0 {
-		slices.Sort(blocked)
 		pl.Blocked = g.States(blocked)
 		return pl, nil
 	}
@@ -253,6 +257,16 @@ func Place(g *structural.Network, r PlaceRequest) (*Placement, error) {
 	slices.Sort(added)
 	all := append(slices.Clone(existing), added...)
 	slices.Sort(all)
+	// The answer is checked once more by fresh colourings.
+	for _, f := range s.forcers() {
+		for _, v := range all {
+			f.colour(v)
+		}
+		f.run()
+		if !f.complete() {
+			return nil, errors.New("strong: internal error: the placement does not colour every state")
+		}
+	}
 	pl.Added, pl.Devices, pl.Cost = g.States(added), g.States(all), cost
 	if pl.LowerBound > cost {
 		return nil, fmt.Errorf("strong: internal error: lower bound %v above the placement's cost %v", pl.LowerBound, cost)
