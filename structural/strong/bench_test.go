@@ -97,7 +97,7 @@ func BenchmarkCheck(b *testing.B) {
 func BenchmarkPlaceHeuristic(b *testing.B) {
 	for _, n := range []int{10_000, 100_000, 1_000_000} {
 		g := benchNet(b, "er", n, int64(2*n))
-		b.Run(fmt.Sprintf("E=%.0e", float64(g.Edges())), func(b *testing.B) {
+		b.Run(fmt.Sprintf("N=%.0e/E=%.0e", float64(n), float64(g.Edges())), func(b *testing.B) {
 			var pl *Placement
 			runtime.LockOSThread()
 			defer runtime.UnlockOSThread()
@@ -129,7 +129,7 @@ func BenchmarkPlaceExact(b *testing.B) {
 		if err != nil {
 			b.Fatal(err)
 		}
-		b.Run(fmt.Sprintf("E=%.0e", float64(g.Edges())), func(b *testing.B) {
+		b.Run(fmt.Sprintf("N=%d/E=%d", n, g.Edges()), func(b *testing.B) {
 			var pl *Placement
 			for i := 0; i < b.N; i++ {
 				if pl, err = Place(g, PlaceRequest{}); err != nil {
