@@ -12,7 +12,9 @@ import (
 
 // readmeKeys reads the JSON key reference of README.md: in the block after
 // the line "<!-- json-keys -->", lines "COMMAND: key key.sub list[].key
-// obj.*". A key ending in ".*" allows any key under it.
+// obj.*". A key ending in ".*" allows any key under it; "obj.@NAME" stands
+// for obj.K for every key K listed under NAME (a shape used in several
+// places, such as a property object).
 func readmeKeys(path string) (map[string]map[string]bool, error) {
 	b, err := os.ReadFile(path)
 	if err != nil {
@@ -37,6 +39,22 @@ func readmeKeys(path string) (map[string]map[string]bool, error) {
 				return nil, fmt.Errorf("%s: key %q before any command", path, k)
 			}
 			out[cmd][k] = true
+		}
+	}
+	for cmd, keys := range out {
+		for k := range keys {
+			prefix, name, ok := strings.Cut(k, "@")
+			if !ok {
+				continue
+			}
+			shape, ok := out[name]
+			if !ok {
+				return nil, fmt.Errorf("%s: %s uses the unknown shape %q", path, cmd, name)
+			}
+			delete(keys, k)
+			for sk := range shape {
+				keys[prefix+sk] = true
+			}
 		}
 	}
 	return out, nil

@@ -30,6 +30,13 @@ Gramian, Pasqualetti, Zampieri & Bullo 2014) on random samples of the
 parameters, or on the model's own numbers with --weights; dense work, up to
 1000 states.
 
+--strong places for strong structural controllability instead: the
+system works for every value of the couplings of the stated class (see
+"netsteer help check"). This is NP-hard: the answer is proved optimal by
+a search with bounds on small networks (always up to 18 allowed states,
+by default up to 64 states) and otherwise is a fast placement with a lower
+bound and the gap between them.
+
 When no placement the node table allows can succeed, the exit status is 1
 and the output names the states or components that block.
 
@@ -52,6 +59,10 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 			roles := fs.Bool("roles", false, "say which new "+devices+" are forced and where the others could go instead")
 			alts := fs.Int("alternatives", 10, "with --roles, list at most this many alternatives per "+p.Device())
 			timings := fs.Bool("timings", false, "print stage times on standard error")
+			var sf strongFlags
+			sf.register(fs, "place for strong structural "+map[bool]string{true: "observability", false: "controllability"}[p == structural.Observability]+": for every value of the couplings")
+			exact := fs.Int("exact-states", 0, "with --strong, search exactly on networks of at most this many states (default 64, at most 512)")
+			nodes := fs.Int64("search-nodes", 0, "with --strong, node budget of the exact search (default 200000)")
 			rank := fs.Bool("rank-effort", false, "rank the equally cheap placements --roles lists by control effort on numbers (implies --roles)")
 			weights := fs.Bool("weights", false, "with --rank-effort, use the model's own numbers (edge weights) instead of samples")
 			trials := fs.Int("trials", numeric.DefaultTrials, "with --rank-effort, random samples averaged")
@@ -69,12 +80,18 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 				if *alts < 0 {
 					return usagef("--alternatives %d: want 0 or more", *alts)
 				}
+				if err := sf.check(); err != nil {
+					return err
+				}
 				start := time.Now()
-				in, err := nf.load(path, of.output, *weights)
+				in, err := nf.load(path, of.output, *weights, sf.mayBeZero)
 				if err != nil {
 					return err
 				}
-				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts}
+				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts, ExactStates: *exact, SearchNodes: *nodes}
+				if req.Strong, err = sf.class(in); err != nil {
+					return err
+				}
 				if *rank {
 					req.RankEffort = &numeric.RankRequest{Weights: *weights, Trials: *trials, Seed: *seed,
 						Effort: numeric.EffortRequest{Discrete: *discrete, Horizon: *horizon}}
@@ -96,7 +113,7 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 				if *timings {
 					printTimings(e, r.Timings)
 				}
-				if !r.Feasible {
+				if !r.Succeeds() {
 					return errNo
 				}
 				return nil

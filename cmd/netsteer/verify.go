@@ -109,6 +109,8 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	horizon := fs.Float64("horizon", 0, "finite horizon of the Gramian: a time, or whole steps with --discrete (default: infinite)")
 	discrete := fs.Bool("discrete", false, "read the model as x(k+1) = A x(k) + B u(k): stable means |lambda| < 1")
 	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes")
+	var sf strongFlags
+	sf.register(fs, "show the strong structural verdict (every value of the couplings) beside the generic one")
 	return func(args []string) error {
 		path, err := oneArg(args)
 		if err != nil {
@@ -135,16 +137,22 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		case *table != "trials" && *table != "modes":
 			return usagef("--table %q: want trials or modes", *table)
 		}
+		if err := sf.check(); err != nil {
+			return err
+		}
 		if !fs.Changed("seed") {
 			*seed = rand.Uint64N(1_000_000_000)
 		}
 		start := time.Now()
-		in, err := nf.load(path, of.output, *weights, *inputs, *outputs)
+		in, err := nf.load(path, of.output, *weights, *inputs, *outputs, sf.mayBeZero)
 		if err != nil {
 			return err
 		}
 		req := numeric.Request{Trials: *trials, Seed: *seed, Weights: *weights, MaxStates: *maxStates,
 			MaxFloatStates: *maxFloat, WarnMargin: *warnMargin, Modes: *modes, Effort: *effort, Horizon: *horizon, Discrete: *discrete}
+		if req.Strong, err = sf.class(in); err != nil {
+			return err
+		}
 		if *maxFloat == 0 {
 			req.MaxFloatStates = -1
 		}

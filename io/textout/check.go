@@ -81,6 +81,11 @@ func (c Check) Text(w io.Writer, o Options) error {
 	}
 	t.p("  ", "%s: %s.", displayFile(r.File), strings.Join(heads, "; "))
 	for _, p := range props {
+		if p.Strong != nil {
+			t.p("  ", "%s.", capital(t.strongLine(p.Property, p.Strong)))
+		}
+	}
+	for _, p := range props {
 		if !p.Holds {
 			lead := "To fix"
 			if len(props) > 1 {
@@ -118,6 +123,9 @@ func (c Check) details(t *tw, p *analysis.PropertyResult, n int) {
 	} else {
 		t.ip("  ", "%d %s %s:", p.Unreached.Len(), w.unreached, plural(p.Unreached.Len(), "state", "states"))
 		t.ip("    ", "%s", t.names(p.Unreached, true))
+	}
+	if p.Strong != nil {
+		defer t.strongDetails(p.Property, p.Strong)
 	}
 	d := p.Dilation
 	if d == nil {

@@ -39,6 +39,11 @@ func (p Place) Text(w io.Writer, o Options) error {
 	pw := placeDuals[r.Property]
 	dev, devs := r.Device, r.Device+"s"
 	nd := pl.Devices.Len()
+	if r.Strong != nil {
+		t.strongPlacement(r.File, dev, r.Property, r.Strong)
+		t.blank()
+		t.p("  ", "For almost all values of the couplings (structural %s):", map[bool]string{true: "observability", false: "controllability"}[r.Property == structural.Observability])
+	}
 	if pl.Feasible {
 		head := fmt.Sprintf("%s: %s %s the network %s", displayFile(r.File), count(nd, dev, devs), plural(nd, "makes", "make"), pw.property)
 		switch {

@@ -76,6 +76,9 @@ func (v Verify) Text(w io.Writer, o Options) error {
 		default:
 			t.ip("  ", "Margin %.3g: the smallest singular value of [A - lambda I, %s] over the eigenvalues of A, relative to the norm of [A %s].", *p.Margin, matrix(p.Property), matrix(p.Property))
 		}
+		if p.Strong != nil {
+			t.ip("  ", "For every value of the couplings: %s.", t.strongLine(p.Property, p.Strong))
+		}
 		if p.ModesStable != nil {
 			word := map[bool]string{true: "stabilizable", false: "NOT stabilizable"}
 			if p.Property == structural.Observability {

@@ -6,6 +6,7 @@ import (
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/placement"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // Summary describes the network a result is about. File is left to the
@@ -96,6 +97,12 @@ type CheckRequest struct {
 	// SkipCompletion leaves out the cheapest completion of a failing
 	// design (a picture does not show it).
 	SkipCompletion bool
+	// Strong, when not nil, also decides strong structural
+	// controllability (observability): for every parameter value of this
+	// class (structural/strong). WitnessEntries bounds the witness printed
+	// (0: strong.DefaultWitnessEntries).
+	Strong         *strong.Class
+	WitnessEntries int
 }
 
 // PropertyResult is the answer for one property of a design: the structural
@@ -108,6 +115,9 @@ type PropertyResult struct {
 	// Completion is the cheapest set of dedicated devices to add to a
 	// failing design; nil when the design holds.
 	Completion *placement.Placement `json:"completion,omitempty"`
+	// Strong is the verdict for every parameter value of the class asked
+	// (CheckRequest.Strong); nil when not asked.
+	Strong *strong.Result `json:"strong,omitempty"`
 }
 
 // CheckResult is the answer to "does this design work, and if not, what
@@ -119,9 +129,15 @@ type CheckResult struct {
 	Timings         Timings         `json:"timings"`
 }
 
-// Holds reports whether every property asked for holds.
+// Holds reports whether every property asked for holds, strongly when
+// the strong verdict was asked.
 func (r *CheckResult) Holds() bool {
-	return (r.Controllability == nil || r.Controllability.Holds) && (r.Observability == nil || r.Observability.Holds)
+	for _, p := range r.Properties() {
+		if !p.Holds || p.Strong != nil && !p.Strong.Holds {
+			return false
+		}
+	}
+	return true
 }
 
 // Properties returns the properties judged, controllability first.
@@ -171,6 +187,13 @@ func Check(g *structural.Network, req CheckRequest) (*CheckResult, error) {
 		}
 		t = r.Timings.Add("check_"+x.p.String(), t)
 		prop := &PropertyResult{Verdict: v}
+		if req.Strong != nil {
+			prop.Strong, err = strong.Check(g, strong.Request{Property: x.p, Design: *x.d, Class: *req.Strong, WitnessEntries: req.WitnessEntries})
+			if err != nil {
+				return nil, err
+			}
+			t = r.Timings.Add("strong_"+x.p.String(), t)
+		}
 		if !v.Holds && !req.SkipCompletion {
 			dev := x.dev
 			dev.Existing = nil
@@ -199,6 +222,13 @@ type PlaceRequest struct {
 	// (numeric.RankCandidates); it implies Roles. Its Property is set
 	// from the request's.
 	RankEffort *numeric.RankRequest
+	// Strong, when not nil, places the cheapest devices for strong
+	// structural controllability (observability) of this class as well
+	// (strong.Place: exact on small networks, bounded beyond); ExactStates
+	// and SearchNodes tune its search (0: the defaults).
+	Strong      *strong.Class
+	ExactStates int
+	SearchNodes int64
 }
 
 // PlaceResult is the answer to "where do the cheapest devices go?".
@@ -218,7 +248,19 @@ type PlaceResult struct {
 	// Ranking, with PlaceRequest.RankEffort: the equally cheap placements
 	// by control effort.
 	Ranking *numeric.Ranking `json:"ranking,omitempty"`
-	Timings Timings          `json:"timings"`
+	// Strong, with PlaceRequest.Strong: the placement for every parameter
+	// value, with its lower bound and gap.
+	Strong  *strong.Placement `json:"strong,omitempty"`
+	Timings Timings           `json:"timings"`
+}
+
+// Succeeds reports whether the placement asked is feasible: the strong one
+// when it was asked.
+func (r *PlaceResult) Succeeds() bool {
+	if r.Strong != nil {
+		return r.Strong.Feasible
+	}
+	return r.Placement.Feasible
 }
 
 // Place finds the cheapest dedicated devices that make g structurally
@@ -258,7 +300,14 @@ func Place(g *structural.Network, req PlaceRequest) (*PlaceResult, error) {
 		if r.Ranking, err = numeric.RankCandidates(g, cands, rq); err != nil {
 			return nil, err
 		}
-		r.Timings.Add("rank", t)
+		t = r.Timings.Add("rank", t)
+	}
+	if req.Strong != nil {
+		if r.Strong, err = strong.Place(g, strong.PlaceRequest{Property: req.Property, Class: *req.Strong, Devices: req.Devices,
+			ExactStates: req.ExactStates, SearchNodes: req.SearchNodes}); err != nil {
+			return nil, err
+		}
+		r.Timings.Add("strong", t)
 	}
 	return r, nil
 }

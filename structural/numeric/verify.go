@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // maxWorkers bounds the trials run at once, and so their memory.
@@ -80,6 +81,10 @@ type Request struct {
 	Discrete bool
 	// Progress, when not nil, receives progress reports, one at a time.
 	Progress func(Progress)
+	// Strong, when not nil, adds the verdict for every parameter value of
+	// this class (structural/strong) beside the generic one; its marks are
+	// aligned with g's edges, and carried over to a part.
+	Strong *strong.Class
 }
 
 func (r *Request) trials() int {
@@ -246,6 +251,9 @@ type KalmanParts struct {
 type PropertyResult struct {
 	*structural.Verdict
 	Sample
+	// Strong is the verdict for every parameter value of the class asked
+	// (Request.Strong), nil when not asked.
+	Strong *strong.Result `json:"strong,omitempty"`
 }
 
 // Sample is the numeric side of a property.
@@ -371,6 +379,13 @@ func Verify(g *structural.Network, req Request) (*Result, error) {
 		if err := CheckSize(Counts{States: sub.N(), Edges: sub.Edges(), Inputs: rin.Len(), Outputs: rout.Len()}, req); err != nil {
 			return nil, err
 		}
+		if req.Strong != nil {
+			c, err := partClass(g, sub, *req.Strong)
+			if err != nil {
+				return nil, err
+			}
+			req.Strong = &c
+		}
 		g, in, out, inW, outW = sub, rin, rout, rinW, routW
 		res.Part = pr
 		res.Timings.Part = time.Since(t).Seconds()
@@ -456,6 +471,11 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 			return err
 		}
 		pr := &PropertyResult{Verdict: v}
+		if req.Strong != nil {
+			if pr.Strong, err = strong.Check(g, strong.Request{Property: x.p, Design: x.d, Class: *req.Strong}); err != nil {
+				return err
+			}
+		}
 		*x.to = pr
 		kinds = append(kinds, &kind{prop: x.p, res: pr, design: x.d, signals: x.d.Signals(), weights: x.w,
 			transpose: x.p == structural.Observability, stream: x.stream})
@@ -716,4 +736,32 @@ func verifyModes(g *structural.Network, req *Request, kinds []*kind, system func
 		}
 	}
 	return nil
+}
+
+// partClass carries the may-be-zero marks of c, aligned with g's edges,
+// over to the part sub (whose states keep g's names).
+func partClass(g, sub *structural.Network, c strong.Class) (strong.Class, error) {
+	if c.MayBeZero == nil {
+		return c, nil
+	}
+	var pairs []structural.Edge
+	out := g.Out()
+	for u := int32(0); int(u) < g.N(); u++ {
+		for k := out.Ptr[u]; k < out.Ptr[u+1]; k++ {
+			if !c.MayBeZero[k] {
+				continue
+			}
+			a, ok1 := sub.Lookup(g.Name(u))
+			b, ok2 := sub.Lookup(g.Name(out.Adj[k]))
+			if ok1 && ok2 {
+				pairs = append(pairs, structural.Edge{From: a, To: b})
+			}
+		}
+	}
+	marks, err := strong.Marks(sub, pairs)
+	if err != nil {
+		return c, err
+	}
+	c.MayBeZero = marks
+	return c, nil
 }
