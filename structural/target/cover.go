@@ -1,0 +1,225 @@
+package target
+
+import (
+	"cmp"
+	"slices"
+
+	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
+)
+
+// design is a candidate answer in local indices of a region: the signals,
+// and for dedicated designs the states newly driven.
+type design struct {
+	signals [][]int32
+	added   []int32 // dedicated actuators added (Actuators mode)
+	cost    structural.Cost
+	method  string
+	proof   string
+	// support is the set S of a stem–cycle cover, increasing.
+	support []int32
+}
+
+// stemCycleCover finds a set S of states holding the targets and dedicated
+// drivers such that the subnetwork S, with every edge from outside S
+// removed, is structurally controllable by Lin's theorem: each state of S
+// has a distinct in-neighbour in S or its own driver (no dilation), and
+// every source component of S holds a driver (all reached). Removing edges
+// sets parameters to zero, which can only lower the generic rank; the
+// subnetwork then evolves on its own and steers all of S, so the design
+// steers the targets (a proof, whatever else the network holds).
+//
+// The drivers are the states of S left without a matched in-neighbour. A
+// matching of the bipartite graph (in-neighbour rows, state columns) in
+// which every non-target state may also be matched to itself ("not in S")
+// and every column is covered, matched or driven, describes such an S: S is
+// the closure of the targets under "matched in-neighbour of". The cheapest
+// uncovered columns are found by the matroid greedy over columns offered by
+// decreasing cost (forbidden states first, existing devices last, at no
+// cost); columns outside S are then re-matched to themselves, so the cost
+// is that of the drivers in S, and it is the least cost of any
+// dilation-free cover of the targets. Source components of S without a
+// driver then get the cheapest allowed state of each (Actuators), or join
+// an existing signal (Signals): that step is greedy.
+//
+// Time: one priority matching on the region (O(E) plus its augmenting
+// searches) and one strongly connected components pass on S.
+func stemCycleCover(r *region, mode Mode) (*design, bool) {
+	n := r.n
+	// Row v of b (a column to cover) lists v's in-neighbours, then v itself
+	// when v is not a target and has no self-loop.
+	b := &matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
+	b.Adj = make([]int32, 0, len(r.in.Adj)+n)
+	for v := int32(0); int(v) < n; v++ {
+		row := r.in.Row(v)
+		b.Adj = append(b.Adj, row...)
+		if !r.isTarget[v] {
+			if _, loop := slices.BinarySearch(row, v); !loop {
+				b.Adj = append(b.Adj, v)
+			}
+		}
+		b.Ptr[v+1] = int64(len(b.Adj))
+	}
+	order := make([]int32, n)
+	for i := range order {
+		order[i] = int32(i)
+	}
+	key := func(v int32) int {
+		switch {
+		case !r.dev.Allowed(v):
+			return 0
+		case r.dev.Has(v):
+			return 2
+		}
+		return 1
+	}
+	slices.SortStableFunc(order, func(a, c int32) int {
+		if d := cmp.Compare(key(a), key(c)); d != 0 {
+			return d
+		}
+		if mode == Actuators {
+			return cmp.Compare(r.dev.CostOf(c), r.dev.CostOf(a))
+		}
+		return 0
+	})
+	mate, _ := priorityMatch(b, order, nil)
+	// S: the closure of the targets under "matched in-neighbour".
+	inS := make([]bool, n)
+	var S []int32
+	for _, t := range r.targets {
+		inS[t] = true
+		S = append(S, t)
+	}
+	for i := 0; i < len(S); i++ {
+		if u := mate[S[i]]; u >= 0 && !inS[u] {
+			inS[u] = true
+			S = append(S, u)
+		}
+	}
+	slices.Sort(S)
+	isDriver := make([]bool, n)
+	var drivers []int32
+	for _, v := range S {
+		if mate[v] < 0 {
+			if !r.dev.Allowed(v) {
+				return nil, false
+			}
+			isDriver[v] = true
+			drivers = append(drivers, v)
+		} else if r.dev.Has(v) {
+			isDriver[v] = true
+		}
+	}
+	// Source components of S, edges between states of S only.
+	pos := make([]int32, n)
+	for i, v := range S {
+		pos[v] = int32(i)
+	}
+	sg := &matching.CSR{Rows: len(S), Cols: len(S), Ptr: make([]int64, len(S)+1)}
+	for i, v := range S {
+		for _, w := range r.out.Row(v) {
+			if inS[w] {
+				sg.Adj = append(sg.Adj, pos[w])
+			}
+		}
+		sg.Ptr[i+1] = int64(len(sg.Adj))
+	}
+	comps := structural.SCC(sg)
+	covered := make([]bool, comps.Count)
+	for i, v := range S {
+		if isDriver[v] {
+			covered[comps.Of[i]] = true
+		}
+	}
+	// Each source component of S without a driver gets one: in Signals
+	// mode its first state joins an existing signal; in Actuators mode its
+	// cheapest allowed state, or, when cheaper or the only way, the
+	// cheapest allowed state outside S with a path into it through states
+	// outside S: the path joins S as a stem (each of its states matched to
+	// the one before it, the first driven).
+	members := make([][]int32, comps.Count)
+	for i, v := range S {
+		if k := comps.Of[i]; comps.Source[k] && !covered[k] {
+			members[k] = append(members[k], v)
+		}
+	}
+	next := make([]int32, n) // on a path: the state it acts on
+	seen := make([]int32, n) // search stamp
+	var queue []int32
+	var extra []int32
+	for k, mem := range members {
+		if len(mem) == 0 {
+			continue
+		}
+		if mode == Signals {
+			extra = append(extra, mem[0])
+			continue
+		}
+		pick := int32(-1)
+		for _, v := range mem {
+			if r.dev.Allowed(v) && (pick < 0 || r.dev.CostOf(v) < r.dev.CostOf(pick)) {
+				pick = v
+			}
+		}
+		queue = append(queue[:0], mem...)
+		for _, v := range mem {
+			seen[v] = int32(k + 1)
+		}
+		out := int32(-1)
+		for i := 0; i < len(queue); i++ {
+			v := queue[i]
+			for _, u := range r.in.Row(v) {
+				if inS[u] || seen[u] == int32(k+1) {
+					continue
+				}
+				seen[u] = int32(k + 1)
+				next[u] = v
+				queue = append(queue, u)
+				if r.dev.Allowed(u) && (out < 0 || r.dev.CostOf(u) < r.dev.CostOf(out)) {
+					out = u
+				}
+			}
+		}
+		switch {
+		case out >= 0 && (pick < 0 || r.dev.CostOf(out) < r.dev.CostOf(pick)):
+			for u := out; !inS[u]; u = next[u] {
+				inS[u] = true
+				S = append(S, u)
+			}
+			extra = append(extra, out)
+		case pick >= 0:
+			extra = append(extra, pick)
+		default:
+			return nil, false
+		}
+	}
+	slices.Sort(S)
+	slices.Sort(extra)
+	d := &design{method: "stem_cycle_cover", proof: "lin_subnetwork", support: S}
+	if mode == Actuators {
+		added := append(drivers, extra...)
+		slices.Sort(added)
+		var kept []int32
+		for _, v := range added {
+			if !r.dev.Has(v) {
+				kept = append(kept, v)
+				d.cost += r.dev.CostOf(v)
+			}
+		}
+		d.added = kept
+		d.signals = dedicated(slices.Concat(r.existing(), kept))
+		return d, true
+	}
+	if len(drivers) == 0 {
+		d.signals = [][]int32{extra}
+		return d, true
+	}
+	d.signals = make([][]int32, len(drivers))
+	for i, v := range drivers {
+		d.signals[i] = []int32{v}
+	}
+	for i, v := range extra {
+		d.signals[i%len(drivers)] = append(d.signals[i%len(drivers)], v)
+	}
+	return d, true
+}
