@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"github.com/netsteer/netsteer/matching"
+	"github.com/netsteer/netsteer/structural"
 )
 
 // capacityWitness is a set of reached targets T* whose in-neighbours
@@ -138,17 +139,28 @@ func staticLinking(p *part) int {
 // from an input copy at depth j to a target either starts above depth k,
 // through a signal driving W_j, or crosses depth k in W_k, so each value
 // bounds the largest linking, and with it the rank of C·K. It also returns
-// the k of the smallest cut.
+// the k of the smallest cut. It stops early once W_k holds every state or
+// repeats W_(k-1): later cuts are then no smaller.
 func layerCut(p *part, maxK int) (best, bestK int) {
 	cur := slices.Clone(p.targets)
 	mark := make([]int32, p.n) // layer + 1 that last listed v
 	sigMark := make([]int32, len(p.signals))
 	above := 0 // signals driving W_j, summed over j < k
 	best = len(cur)
+	var prevSum uint64
+	prevLen := -1
 	for k := 0; k <= maxK && len(cur) > 0; k++ {
 		if v := len(cur) + above; v < best {
 			best, bestK = v, k
 		}
+		var sum uint64
+		for _, v := range cur {
+			sum += uint64(v)*0x9E3779B97F4A7C15 + 1
+		}
+		if len(cur) == p.n || len(cur) == prevLen && sum == prevSum {
+			break
+		}
+		prevLen, prevSum = len(cur), sum
 		for _, v := range cur {
 			for _, s := range p.signalsOf(v) {
 				if sigMark[s] != int32(k+1) {
@@ -172,6 +184,161 @@ func layerCut(p *part, maxK int) (best, bestK int) {
 		}
 	}
 	return best, bestK
+}
+
+// linCertificate reports whether Lin's theorem holds, for the design, on a
+// subnetwork S of H that holds the targets, every edge from outside S
+// removed: each state of S matched to a distinct in-neighbour in S or a
+// signal (no dilation), and every source component of S driven by some
+// signal (all reached). Removing edges sets parameters to zero, which can
+// only lower the rank, and S then evolves on its own and is controllable,
+// so the targets are steered: a proof of rank |T|. S is found as in
+// stemCycleCover, by a matching in which non-targets may match themselves
+// ("not in S"), targets first; a false answer proves nothing.
+func linCertificate(p *part) bool {
+	n, m := p.n, len(p.signals)
+	b := &matching.CSR{Rows: n, Cols: n + m, Ptr: make([]int64, n+1)}
+	b.Adj = make([]int32, 0, p.edges+n+p.entries)
+	for v := int32(0); int(v) < n; v++ {
+		row := p.in.Row(v)
+		b.Adj = append(b.Adj, row...)
+		if p.tpos[v] < 0 {
+			if _, loop := slices.BinarySearch(row, v); !loop {
+				b.Adj = append(b.Adj, v)
+			}
+		}
+		for _, s := range p.signalsOf(v) {
+			b.Adj = append(b.Adj, int32(n)+s)
+		}
+		b.Ptr[v+1] = int64(len(b.Adj))
+	}
+	order := make([]int32, 0, n)
+	order = append(order, p.targets...)
+	for v := int32(0); int(v) < n; v++ {
+		if p.tpos[v] < 0 {
+			order = append(order, v)
+		}
+	}
+	mate, _ := priorityMatch(b, order, []int{len(p.targets), n}, nil)
+	inS := make([]bool, n)
+	S := slices.Clone(p.targets)
+	for _, t := range S {
+		inS[t] = true
+	}
+	for i := 0; i < len(S); i++ {
+		u := mate[S[i]]
+		switch {
+		case u < 0:
+			return false
+		case int(u) < n && !inS[u]:
+			inS[u] = true
+			S = append(S, u)
+		}
+	}
+	pos := make([]int32, n)
+	for i, v := range S {
+		pos[v] = int32(i)
+	}
+	sg := &matching.CSR{Rows: len(S), Cols: len(S), Ptr: make([]int64, len(S)+1)}
+	for i, v := range S {
+		for _, w := range p.out.Row(v) {
+			if inS[w] {
+				sg.Adj = append(sg.Adj, pos[w])
+			}
+		}
+		sg.Ptr[i+1] = int64(len(sg.Adj))
+	}
+	comps := structural.SCC(sg)
+	driven := make([]bool, comps.Count)
+	for i, v := range S {
+		if p.sigPtr[v+1] > p.sigPtr[v] {
+			driven[comps.Of[i]] = true
+		}
+	}
+	for k, src := range comps.Source {
+		if src && !driven[k] {
+			return false
+		}
+	}
+	return true
+}
+
+// greedyLinking builds a linking in the dynamic graph of L layers for the
+// design, from the targets backwards: at each depth the heads that can
+// end on a signal copy (signal, depth) are matched to distinct signals
+// driving them and end there; the others are matched to distinct
+// in-neighbours, which become the next heads; heads left over are lost.
+// The result is a linking, so by the theorem of Murota & Poljak (1990) a
+// lower bound on the rank of C·K (the upper-bound half of that theorem is
+// dynamicLinking's). Time: per layer, two matchings on the heads.
+func greedyLinking(p *part, L int) int {
+	heads := slices.Clone(p.targets)
+	cid := make([]int32, p.n)
+	for i := range cid {
+		cid[i] = -1
+	}
+	var cols []int32
+	linked := 0
+	for d := 0; d < L && len(heads) > 0; d++ {
+		// End what can end here.
+		b := &matching.CSR{Rows: len(heads), Cols: len(p.signals), Ptr: make([]int64, len(heads)+1)}
+		for i, v := range heads {
+			b.Adj = append(b.Adj, p.signalsOf(v)...)
+			b.Ptr[i+1] = int64(len(b.Adj))
+		}
+		order := make([]int32, len(heads))
+		for i := range order {
+			order[i] = int32(i)
+		}
+		ended, _ := priorityMatch(b, order, []int{len(heads)}, nil)
+		k := 0
+		for i, v := range heads {
+			if ended[i] >= 0 {
+				linked++
+			} else {
+				heads[k] = v
+				k++
+			}
+		}
+		heads = heads[:k]
+		if d+1 == L || len(heads) == 0 {
+			break
+		}
+		// The rest go one step back, to distinct in-neighbours; those a
+		// signal drives are preferred.
+		for _, c := range cols {
+			cid[c] = -1
+		}
+		cols = cols[:0]
+		b = &matching.CSR{Rows: len(heads), Ptr: make([]int64, len(heads)+1)}
+		for i, v := range heads {
+			for _, u := range p.in.Row(v) {
+				if cid[u] < 0 {
+					cid[u] = int32(len(cols))
+					cols = append(cols, u)
+				}
+				b.Adj = append(b.Adj, cid[u])
+			}
+			b.Ptr[i+1] = int64(len(b.Adj))
+		}
+		b.Cols = len(cols)
+		prefer := make([]uint8, len(cols))
+		for j, u := range cols {
+			if p.sigPtr[u+1] > p.sigPtr[u] {
+				prefer[j] = 1
+			}
+		}
+		mate, _ := priorityMatch(b, order[:len(heads)], []int{len(heads)}, prefer)
+		k = 0
+		for i := range heads {
+			if mate[i] >= 0 {
+				heads[k] = cols[mate[i]]
+				k++
+			}
+		}
+		heads = heads[:k]
+	}
+	return linked
 }
 
 // linkWork estimates the arcs of the dynamic graph of L layers.

@@ -22,6 +22,11 @@ const (
 	DefaultTrials = 2
 	// DefaultLayerCutDepth is the deepest layer cut tried.
 	DefaultLayerCutDepth = 64
+	// DefaultMaxDimensionStates bounds the network for the controllable
+	// dimension bound (a min-cost flow on the whole network).
+	DefaultMaxDimensionStates = 100_000
+	// DefaultLinkingDepth is the number of layers of the greedy linking.
+	DefaultLinkingDepth = 48
 	// checkProveWork bounds the field operations of Check's quick proof
 	// (rankProve) before the full sample.
 	checkProveWork = 2_000_000_000
@@ -40,6 +45,11 @@ type Limits struct {
 	Trials int
 	// LayerCutDepth is the deepest layer cut tried.
 	LayerCutDepth int
+	// MaxDimensionStates bounds the network for the controllable
+	// dimension bound.
+	MaxDimensionStates int
+	// LinkingDepth is the number of layers of the greedy linking.
+	LinkingDepth int
 }
 
 func (l Limits) withDefaults() Limits {
@@ -54,6 +64,12 @@ func (l Limits) withDefaults() Limits {
 	}
 	if l.LayerCutDepth == 0 {
 		l.LayerCutDepth = DefaultLayerCutDepth
+	}
+	if l.MaxDimensionStates == 0 {
+		l.MaxDimensionStates = DefaultMaxDimensionStates
+	}
+	if l.LinkingDepth == 0 {
+		l.LinkingDepth = DefaultLinkingDepth
 	}
 	return l
 }
@@ -85,14 +101,20 @@ const (
 	Undecided       Status = "undecided"
 )
 
-// Bound is one proved bound on the generic rank of C·K.
+// Bound is one bound on the generic rank of C·K.
 type Bound struct {
 	// Name is one of "reached_targets", "in_capacity", "layer_cut",
-	// "controllable_dimension", "dynamic_linking" (upper bounds),
-	// "static_linking", "sampled_rank" (lower bounds).
+	// "controllable_dimension", "dynamic_linking" (upper bounds, all
+	// proved), "static_linking", "lin_subnetwork", "sampled_rank" (lower
+	// bounds, proved), "greedy_linking" and "dynamic_linking" (lower
+	// bounds by the theorem of Murota & Poljak).
 	Name string `json:"name"`
 	// Upper reports an upper bound; otherwise a lower bound.
 	Upper bool `json:"upper"`
+	// ByTheorem reports a lower bound that rests on the equality of the
+	// rank and the largest dynamic linking (Murota & Poljak 1990), cited,
+	// not proved here.
+	ByTheorem bool `json:"by_theorem"`
 	// Value is the bound; meaningless when Skipped is set.
 	Value int `json:"value"`
 	// Skipped says why the bound was not computed.
@@ -147,6 +169,10 @@ type Verdict struct {
 	Lower int  `json:"dimension"`
 	Upper int  `json:"dimension_upper"`
 	Exact bool `json:"exact"`
+	// LowerFrom names the bound that gave Lower; ByTheorem reports that it
+	// rests on the theorem of Murota & Poljak (see Bound).
+	LowerFrom string `json:"dimension_from"`
+	ByTheorem bool   `json:"by_theorem"`
 	// Unreached lists the targets that no signal reaches, directly or
 	// downstream.
 	Unreached structural.States `json:"unreached"`
@@ -167,28 +193,32 @@ type Verdict struct {
 	FailureBound float64 `json:"failure_bound"`
 }
 
-// Check judges design d (req.Inputs) for the targets.
+// Check judges the design req.Inputs for the targets.
 //
 // Upper bounds, all proved: the reached targets; the in-capacity, the
 // largest matching of the targets into distinct in-neighbours or signals;
 // the layer cuts (see Funnel); the generic controllable dimension (Hosoe
-// 1980, structural.Dimension), since rank C·K <= rank K; and, up to
-// Limits.MaxLinkingArcs, the largest linking in the dynamic graph of |H|
-// layers (Murota & Poljak, IEEE TAC 35(8), 1990, via the
-// Lindström–Gessel–Viennot lemma; see dynamicLinking). Lower bounds, all
+// 1980, structural.Dimension, up to Limits.MaxDimensionStates), since
+// rank C·K <= rank K; and, up to Limits.MaxLinkingArcs, the largest
+// linking in the dynamic graph of |H| layers (via the
+// Lindström–Gessel–Viennot lemma; see dynamicLinking). Lower bounds,
 // proved: the largest set of vertex-disjoint paths from distinct signals
 // to distinct targets (van der Woude 1991, through the rank of the
-// transfer matrix), and, up to Limits.MaxSampleStates states in H, the
-// exact rank of C·K over GF(2^61-1) for a random sample, which can never
-// exceed the generic rank: a sample of full rank proves controllability.
-// A sample falls short of the generic rank with probability at most
-// N²/(p-1); the linking bound can exceed the generic rank, as Murota and
-// Poljak show, so Lower < Upper does not say which side is wrong.
+// transfer matrix); a subnetwork holding the targets on which Lin's
+// theorem holds (see linCertificate); and, up to Limits.MaxSampleStates
+// states in H, the exact rank of C·K over GF(2^61-1) for random samples,
+// which never exceeds the generic rank and misses it with probability at
+// most N²/(p-1) per sample. Lower bounds by the theorem of Murota & Poljak
+// (IEEE TAC 35(8), 1990), that the rank equals the largest dynamic
+// linking: a greedy linking of Limits.LinkingDepth layers (see
+// greedyLinking) and the largest linking itself; ByTheorem marks a
+// dimension that rests on them.
 //
-// Work: one breadth-first search each way and three maximum matchings on
-// H for the cheap bounds, the dimension's min-cost flow, O(|H|·(E_H +
-// |H|)) arcs for the linking, and O(r·(E_H + r·|H|)) for a sample; the
-// exact parts run only while the cheap bounds leave a gap.
+// The bounds run cheapest first and stop once they meet. Work: breadth
+// first searches and a few maximum matchings on H for the cheap bounds,
+// one matching per layer for the greedy linking, the dimension's min-cost
+// flow, O(|H|·(E_H + |H|)) arcs for the dynamic linking, and
+// O(r·(E_H + r·|H|)) for a sample.
 func Check(g *structural.Network, req CheckRequest) (*Verdict, error) {
 	if !req.Inputs.Of(g) {
 		return nil, structural.ErrForeignDesign
@@ -210,6 +240,7 @@ func Check(g *structural.Network, req CheckRequest) (*Verdict, error) {
 	}
 	v.Bounds = b.list
 	v.Lower, v.Upper = b.lower, b.upper
+	v.LowerFrom, v.ByTheorem = b.lowerFrom, b.byTheorem
 	v.Exact = v.Lower == v.Upper
 	nt := len(targets)
 	switch {
@@ -226,7 +257,7 @@ func Check(g *structural.Network, req CheckRequest) (*Verdict, error) {
 	}
 	if w := b.witness; w != nil {
 		bn := &Bottleneck{Targets: g.States(globals(p, w.targets)), Neighbours: g.States(globals(p, w.neighbours)),
-			Signals: w.signals}
+			Signals: append([]int{}, w.signals...), SignalNumbers: []int{}}
 		for _, s := range w.signals {
 			bn.SignalNumbers = append(bn.SignalNumbers, req.Inputs.Number(s))
 		}
@@ -282,6 +313,8 @@ func funnel(g *structural.Network, p *part, k, capacity int) *Funnel {
 type bounds struct {
 	list          []Bound
 	lower, upper  int
+	lowerFrom     string
+	byTheorem     bool
 	capacity, cut int
 	cutK          int
 	witness       *capacityWitness
@@ -289,12 +322,17 @@ type bounds struct {
 	err           error
 }
 
-func (b *bounds) add(name string, upper bool, value int) {
-	b.list = append(b.list, Bound{Name: name, Upper: upper, Value: value})
-	if upper {
+func (b *bounds) add(name string, upper bool, value int) { b.addBasis(name, upper, false, value) }
+
+// addBasis records a bound; a lower bound by the theorem replaces a proved
+// one only when it is larger.
+func (b *bounds) addBasis(name string, upper, theorem bool, value int) {
+	b.list = append(b.list, Bound{Name: name, Upper: upper, ByTheorem: theorem, Value: value})
+	switch {
+	case upper:
 		b.upper = min(b.upper, value)
-	} else {
-		b.lower = max(b.lower, value)
+	case value > b.lower || b.lowerFrom == "":
+		b.lower, b.lowerFrom, b.byTheorem = value, name, theorem
 	}
 }
 
@@ -305,33 +343,42 @@ func (b *bounds) skip(name string, upper bool, why string) {
 // bound computes the bounds on the part, cheapest first, and stops once
 // they meet. dim, when not nil, gives the generic controllable dimension.
 func (p *part) bound(lim Limits, seed uint64, dim func() (int, error)) *bounds {
-	b := &bounds{upper: len(p.targets)}
-	b.add("reached_targets", true, len(p.targets))
-	if len(p.targets) == 0 {
-		b.capacity, b.cut = 0, 0
+	nt := len(p.targets)
+	b := &bounds{upper: nt}
+	b.add("reached_targets", true, nt)
+	if nt == 0 {
+		b.lowerFrom = "reached_targets"
 		return b
 	}
 	b.capacity, b.witness = inCapacity(p)
 	b.add("in_capacity", true, b.capacity)
-	depth := lim.LayerCutDepth
-	if depth < 0 {
-		depth = 0
-	}
-	b.cut, b.cutK = layerCut(p, min(depth, p.n))
+	b.cut, b.cutK = layerCut(p, min(max(lim.LayerCutDepth, 0), p.n))
 	b.add("layer_cut", true, b.cut)
-	if dim != nil && b.upper > 0 {
-		d, err := dim()
-		if err != nil {
-			b.err = err
-			return b
-		}
-		b.add("controllable_dimension", true, d)
-	}
 	b.add("static_linking", false, staticLinking(p))
 	const met = "the bounds already meet"
-	if b.lower >= b.upper {
-		b.skip("sampled_rank", false, met)
-		b.skip("dynamic_linking", true, met)
+	rest := []string{"lin_subnetwork", "sampled_rank", "greedy_linking", "controllable_dimension", "dynamic_linking"}
+	done := func(i int) bool {
+		if b.lower < b.upper {
+			return false
+		}
+		for _, name := range rest[i:] {
+			b.skip(name, name == "controllable_dimension" || name == "dynamic_linking", met)
+		}
+		return true
+	}
+	if done(0) {
+		return b
+	}
+	if b.upper == nt {
+		if linCertificate(p) {
+			b.add("lin_subnetwork", false, nt)
+		} else {
+			b.skip("lin_subnetwork", false, "no subnetwork found that passes Lin's test")
+		}
+	} else {
+		b.skip("lin_subnetwork", false, "an upper bound is below the number of targets")
+	}
+	if done(1) {
 		return b
 	}
 	if lim.MaxSampleStates >= 0 && p.n <= lim.MaxSampleStates {
@@ -348,24 +395,42 @@ func (p *part) bound(lim Limits, seed uint64, dim func() (int, error)) *bounds {
 	} else {
 		b.skip("sampled_rank", false, "the relevant part exceeds the sample limit")
 	}
-	if b.lower >= b.upper {
-		b.skip("dynamic_linking", true, met)
+	if done(2) {
+		return b
+	}
+	b.addBasis("greedy_linking", false, true, greedyLinking(p, min(max(lim.LinkingDepth, 1), p.n)))
+	if done(3) {
+		return b
+	}
+	switch {
+	case dim == nil:
+	case lim.MaxDimensionStates >= 0 && p.whole <= lim.MaxDimensionStates:
+		d, err := dim()
+		if err != nil {
+			b.err = err
+			return b
+		}
+		b.add("controllable_dimension", true, d)
+	default:
+		b.skip("controllable_dimension", true, "the network exceeds the dimension limit")
+	}
+	if done(4) {
 		return b
 	}
 	if lim.MaxLinkingArcs < 0 || linkWork(p, p.n) > lim.MaxLinkingArcs {
 		b.skip("dynamic_linking", true, "the dynamic graph exceeds the linking limit")
 		return b
 	}
-	// Layers double until the linking meets the cheap upper bound (then
-	// the full linking is that bound too) or all |H| layers are built.
+	// Layers double until the linking meets the best upper bound (then
+	// the full linking is that bound too) or all |H| layers are built. The
+	// full linking bounds the rank from above (proved) and, by the
+	// theorem, from below.
 	for L := 1; ; L = min(2*L, p.n) {
 		lam := dynamicLinking(p, L)
-		if lam >= b.upper {
-			b.add("dynamic_linking", true, b.upper)
-			break
-		}
-		if L == p.n {
+		if lam >= b.upper || L == p.n {
+			lam = min(lam, b.upper)
 			b.add("dynamic_linking", true, lam)
+			b.addBasis("dynamic_linking", false, true, lam)
 			break
 		}
 	}

@@ -1,6 +1,7 @@
 package target
 
 import (
+	"errors"
 	"math/rand/v2"
 	"slices"
 	"testing"
@@ -219,5 +220,69 @@ func TestCheckErrors(t *testing.T) {
 	other := testnet.Network(t, 3, []testnet.Edge{{0, 1}})
 	if _, err := Check(other, CheckRequest{Targets: []int32{1}, Inputs: d}); err != structural.ErrForeignDesign {
 		t.Errorf("foreign design: %v", err)
+	}
+}
+
+// The two lower bounds that need no sample, on random small systems
+// against the Kalman rank (gonum/mat): a Lin certificate is only ever
+// found for a design of full rank, and the greedy linking never exceeds
+// the rank (it is a linking: by Murota & Poljak 1990 at most the rank).
+func TestCertificatesAgainstKalman(t *testing.T) {
+	rng := rand.New(rand.NewPCG(16, 9))
+	certified := 0
+	for it := 0; it < 3000; it++ {
+		n := 1 + rng.IntN(9)
+		g := testnet.Random(t, rng, n, 0.08+0.3*rng.Float64())
+		sig := randomSignals(rng, n, 1+rng.IntN(4))
+		tg := randomTargets(rng, n)
+		p, _ := newPart(g, tg, sig)
+		want := kalmanTargetRank(t, rng, g, sig, tg)
+		if len(p.targets) == len(tg) && linCertificate(p) {
+			certified++
+			if want != len(tg) {
+				t.Fatalf("case %d: Lin certificate for rank %d of %d (edges %v, signals %v, targets %v)", it, want, len(tg), edgesOf(g), sig, tg)
+			}
+		}
+		if gl := greedyLinking(p, max(p.n, 1)); gl > want {
+			t.Fatalf("case %d: greedy linking %d above rank %d", it, gl, want)
+		}
+	}
+	if certified == 0 {
+		t.Error("no design certified")
+	}
+}
+
+// Sample against the Kalman rank: every trial equals it on these sizes
+// (each could miss it with probability at most N²/(p-1)), the structural
+// bounds bracket it, and the trials are reproducible from the seed.
+func TestSampleAgainstKalman(t *testing.T) {
+	rng := rand.New(rand.NewPCG(16, 10))
+	for it := 0; it < 500; it++ {
+		n := 1 + rng.IntN(9)
+		g := testnet.Random(t, rng, n, 0.08+0.3*rng.Float64())
+		sig := randomSignals(rng, n, 1+rng.IntN(3))
+		tg := randomTargets(rng, n)
+		d := testnet.Design(t, g, sig)
+		res, err := Sample(g, SampleRequest{Targets: tg, Inputs: d, Trials: 2, Seed: uint64(it)})
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := kalmanTargetRank(t, rng, g, sig, tg)
+		if res.Rank != want || len(res.Trials) != 2 || res.Trials[0] != want || res.Trials[1] != want {
+			t.Fatalf("case %d: trials %v, Kalman rank %d", it, res.Trials, want)
+		}
+		if res.Lower > want || res.Upper < want || res.Holds != (want == len(tg)) || !res.Agrees {
+			t.Fatalf("case %d: bounds [%d, %d], holds %v, agrees %v, rank %d", it, res.Lower, res.Upper, res.Holds, res.Agrees, want)
+		}
+		again, _ := Sample(g, SampleRequest{Targets: tg, Inputs: d, Trials: 2, Seed: uint64(it)})
+		if !slices.Equal(again.Trials, res.Trials) {
+			t.Fatalf("case %d: not reproducible", it)
+		}
+	}
+	g := testnet.Random(t, rng, 40, 0.1)
+	d := testnet.Design(t, g, [][]int32{{0}, {1}})
+	var tl *structural.TooLargeError
+	if _, err := Sample(g, SampleRequest{Targets: []int32{2, 3}, Inputs: d, MaxStates: 5}); !errors.As(err, &tl) {
+		t.Errorf("limit: %v", err)
 	}
 }

@@ -38,9 +38,11 @@ type design struct {
 // decreasing cost (forbidden states first, existing devices last, at no
 // cost); columns outside S are then re-matched to themselves, so the cost
 // is that of the drivers in S, and it is the least cost of any
-// dilation-free cover of the targets. Source components of S without a
-// driver then get the cheapest allowed state of each (Actuators), or join
-// an existing signal (Signals): that step is greedy.
+// dilation-free cover of the targets. Each source component of S without a
+// driver then gets one (a greedy step): in Signals mode one of its states
+// joins an existing signal; in Actuators mode its cheapest allowed state,
+// or the cheapest allowed state outside S with a path into it through
+// states outside S, the path joining S as a new stem.
 //
 // Time: one priority matching on the region (O(E) plus its augmenting
 // searches) and one strongly connected components pass on S.
@@ -64,25 +66,40 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 	for i := range order {
 		order[i] = int32(i)
 	}
-	key := func(v int32) int {
+	// Classes: forbidden states, then allowed ones by decreasing cost,
+	// then existing devices (free).
+	key := func(v int32) (int, structural.Cost) {
 		switch {
 		case !r.dev.Allowed(v):
-			return 0
+			return 0, 0
 		case r.dev.Has(v):
-			return 2
+			return 2, 0
+		case mode == Actuators:
+			return 1, -r.dev.CostOf(v)
 		}
-		return 1
+		return 1, 0
 	}
 	slices.SortStableFunc(order, func(a, c int32) int {
-		if d := cmp.Compare(key(a), key(c)); d != 0 {
+		ka, ca := key(a)
+		kc, cc := key(c)
+		if d := cmp.Compare(ka, kc); d != 0 {
 			return d
 		}
-		if mode == Actuators {
-			return cmp.Compare(r.dev.CostOf(c), r.dev.CostOf(a))
-		}
-		return 0
+		return cmp.Compare(ca, cc)
 	})
-	mate, _ := priorityMatch(b, order, nil)
+	var classEnd []int
+	for i := 1; i <= n; i++ {
+		if i == n {
+			classEnd = append(classEnd, i)
+			break
+		}
+		ka, ca := key(order[i-1])
+		kb, cb := key(order[i])
+		if ka != kb || ca != cb {
+			classEnd = append(classEnd, i)
+		}
+	}
+	mate, _ := priorityMatch(b, order, classEnd, nil)
 	// S: the closure of the targets under "matched in-neighbour".
 	inS := make([]bool, n)
 	var S []int32

@@ -33,14 +33,15 @@
 //     (numeric's Schwartz–Zippel bound).
 //   - Murota & Poljak ("Note on a graph-theoretic criterion for structural
 //     output controllability", IEEE TAC 35(8), 1990) characterise the
-//     generic rank of C·K by the largest linking in the dynamic graph. The
+//     generic rank of C·K as the largest linking in the dynamic graph. The
 //     upper-bound half is proved above; the equality is taken from the
 //     literature (the paper was not at hand: the statement is as cited in
-//     the issue and in later work) and cross-checked here on thousands of
-//     random systems against the Kalman rank. Check reports a dimension as
-//     exact only when a proved lower bound meets an upper bound; Select
-//     marks a design whose only proof is a linking ("dynamic_linking"),
-//     which happens only above the sample limit.
+//     the issue and in later work) and is cross-checked here, against the
+//     Kalman rank, on thousands of random systems, where it always held.
+//     Where a lower bound rests on it (a linking found, not a sample or a
+//     Lin certificate), results say so: Verdict.ByTheorem, and the proof
+//     "dynamic_linking" of a Selection, which occurs only where the part
+//     that matters exceeds the sample limit.
 //   - Gao, Liu, D'Souza & Barabási ("Target control of complex networks",
 //     Nat. Commun. 5:5415, 2014) prove, for directed trees, that one input
 //     steers targets whose distances from it are distinct (k-walk theory),

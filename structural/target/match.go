@@ -2,24 +2,31 @@ package target
 
 import "github.com/netsteer/netsteer/matching"
 
-// priorityMatch returns a maximum matching of g that covers the rows in the
-// order given: each row in turn is matched if it can be without unmatching
-// an earlier one, so the rows matched form the lexicographically first
-// basis of the transversal matroid in that order, and when rows are
+// priorityMatch returns a maximum matching of g that covers the rows class
+// by class: order lists the rows, classEnd[i] is the end in order of class
+// i (the last equals len(order)). Each class is matched as fully as it can
+// be without unmatching a row of an earlier class, so when classes are
 // offered by decreasing weight the matched weight is the largest possible
-// (Edmonds' greedy algorithm on a matroid). Rows missing from order are
-// never matched.
+// (the greedy algorithm on the transversal matroid of the rows, Edmonds
+// 1971, run a class at a time since rows of one class weigh the same).
+// Rows missing from order are never matched.
 //
-// Each row takes a free column if it has one, the one of highest score in
-// prefer (nil: the first), else searches breadth-first for an
-// augmenting path. An augmentation never unmatches a row. A search that
-// fails proves that every vertex it met leads to no free column, now and
-// later (later rows only take free columns, which the dead set has none
-// of, and an augmenting path through the dead set would have been found),
-// so they are marked dead for good and failing searches together scan
-// each edge once. Time O(E) beyond the successful searches, each O(E) at
-// worst.
-func priorityMatch(g *matching.CSR, order []int32, prefer []uint8) (rowMate, colMate []int32) {
+// One class of all rows without preferences is matching.Maximum. Otherwise,
+// within a class, each row first takes a free column, the one of highest
+// score in prefer (nil: the first); then Hopcroft–Karp phases (SIAM J.
+// Comput. 2(4), 1973) from the class's free rows: a breadth-first search
+// layers the alternating graph, and depth-first searches, iterative, take
+// vertex-disjoint shortest augmenting paths. An augmentation never
+// unmatches a row. A row that no phase can augment stays unmatched for
+// good: later classes only take free columns or augment, which never opens
+// a path to it (such a path would have been found). Time O(E·sqrt(V)) per
+// class at worst.
+func priorityMatch(g *matching.CSR, order []int32, classEnd []int, prefer []uint8) (rowMate, colMate []int32) {
+	if len(classEnd) == 1 && prefer == nil && len(order) == g.Rows {
+		// One class of every row: any maximum matching will do.
+		m := matching.Maximum(g, nil)
+		return m.RowMate, m.ColMate
+	}
 	rowMate = make([]int32, g.Rows)
 	colMate = make([]int32, g.Cols)
 	for i := range rowMate {
@@ -28,68 +35,120 @@ func priorityMatch(g *matching.CSR, order []int32, prefer []uint8) (rowMate, col
 	for i := range colMate {
 		colMate[i] = -1
 	}
-	deadRow := make([]bool, g.Rows)
-	seenRow := make([]int32, g.Rows) // search stamp
-	from := make([]int32, g.Rows)    // the row whose scan reached a row's mate column
-	var queue []int32
-	stamp := int32(0)
-	for _, root := range order {
-		if rowMate[root] >= 0 {
-			continue
-		}
-		pick := int32(-1)
-		for _, c := range g.Row(root) {
-			if colMate[c] < 0 {
-				if prefer == nil {
-					pick = c
-					break
-				}
-				if pick < 0 || prefer[c] > prefer[pick] {
-					pick = c
-				}
-			}
-		}
-		if pick >= 0 {
-			rowMate[root], colMate[pick] = pick, root
-			continue
-		}
-		stamp++
-		queue = append(queue[:0], root)
-		seenRow[root] = stamp
-		found := int32(-1) // free column reached
-		var last int32
-		for i := 0; i < len(queue) && found < 0; i++ {
-			r := queue[i]
+	dist := make([]int32, g.Rows)
+	cur := make([]int64, g.Rows)
+	var free, queue []int32
+	var stack []int32
+	begin := 0
+	for _, end := range classEnd {
+		class := order[begin:end]
+		begin = end
+		free = free[:0]
+		for _, r := range class {
+			pick := int32(-1)
 			for _, c := range g.Row(r) {
-				nr := colMate[c]
-				if nr < 0 {
-					found, last = c, r
+				if colMate[c] < 0 {
+					if prefer == nil {
+						pick = c
+						break
+					}
+					if pick < 0 || prefer[c] > prefer[pick] {
+						pick = c
+					}
+				}
+			}
+			if pick >= 0 {
+				rowMate[r], colMate[pick] = pick, r
+			} else {
+				free = append(free, r)
+			}
+		}
+		for len(free) > 0 {
+			// Layers from the free rows of this class.
+			for i := range dist {
+				dist[i] = -1
+			}
+			queue = queue[:0]
+			for _, r := range free {
+				dist[r] = 0
+				queue = append(queue, r)
+			}
+			found := false
+			limit := int32(-1)
+			for i := 0; i < len(queue); i++ {
+				r := queue[i]
+				if limit >= 0 && dist[r] >= limit {
 					break
 				}
-				if deadRow[nr] || seenRow[nr] == stamp {
-					continue
+				for _, c := range g.Row(r) {
+					nr := colMate[c]
+					if nr < 0 {
+						found = true
+						if limit < 0 {
+							limit = dist[r] + 1
+						}
+						continue
+					}
+					if dist[nr] < 0 {
+						dist[nr] = dist[r] + 1
+						queue = append(queue, nr)
+					}
 				}
-				seenRow[nr] = stamp
-				from[nr] = r
-				queue = append(queue, nr)
 			}
-		}
-		if found < 0 {
-			for _, r := range queue {
-				deadRow[r] = true
-			}
-			continue
-		}
-		// Flip the path: last takes found, and every row up the tree takes
-		// the old mate of the row it reached.
-		c, r := found, last
-		for {
-			old := rowMate[r]
-			rowMate[r], colMate[c] = c, r
-			if r == root {
+			if !found {
 				break
 			}
-			c, r = old, from[r]
+			// Vertex-disjoint shortest augmenting paths, depth first.
+			for _, r := range queue {
+				cur[r] = g.Ptr[r]
+			}
+			next := free[:0]
+			for _, root := range free {
+				stack = append(stack[:0], root)
+				for len(stack) > 0 {
+					r := stack[len(stack)-1]
+					advanced := false
+					for cur[r] < g.Ptr[r+1] {
+						c := g.Adj[cur[r]]
+						cur[r]++
+						nr := colMate[c]
+						if nr < 0 {
+							if dist[r]+1 != limit {
+								continue
+							}
+							// Augment along the stack: each row takes the
+							// column it stepped through.
+							colMate[c], rowMate[r] = r, c
+							dist[r] = -1
+							for k := len(stack) - 2; k >= 0; k-- {
+								pr := stack[k]
+								pc := g.Adj[cur[pr]-1]
+								colMate[pc], rowMate[pr] = pr, pc
+								dist[pr] = -1
+							}
+							stack = stack[:0]
+							advanced = true
+							break
+						}
+						if dist[nr] == dist[r]+1 {
+							stack = append(stack, nr)
+							advanced = true
+							break
+						}
+					}
+					if !advanced {
+						dist[r] = -1 // a dead end for the rest of the phase
+						stack = stack[:len(stack)-1]
+					}
+				}
+				if rowMate[root] < 0 {
+					next = append(next, root)
+				}
+			}
+			if len(next) == len(free) {
+				break
+			}
+			free = next
 		}
 	}
 	return rowMate, colMate

@@ -82,6 +82,7 @@ type part struct {
 	sigOf   []int32
 	edges   int // len(out.Adj)
 	entries int // sum of len(signals[i])
+	whole   int // states of the whole network
 }
 
 // newPart builds the part of h that matters for the targets (sorted,
@@ -94,7 +95,7 @@ func newPart(h *structural.Network, targets []int32, signals [][]int32) (*part, 
 	}
 	reached, _ := forward(h.Out(), seeds)
 	back, _ := forward(h.In(), targets)
-	p := &part{local: make([]int32, n)}
+	p := &part{local: make([]int32, n), whole: n}
 	for v := 0; v < n; v++ {
 		p.local[v] = -1
 		if reached[v] && back[v] {

@@ -58,8 +58,10 @@ type SampleResult struct {
 
 // Sample draws every free parameter of the part H uniformly from the
 // nonzero elements of GF(2^61-1) (numeric.DrawExact) and computes the rank
-// of C·K of each sample exactly (see rankSample), beside the structural
-// bounds of Check. Work per trial O(r·(E_H + r·|H|)) for a controllable
+// of C·K of each sample exactly, beside the structural bounds of Check:
+// first from the columns C·A^k·B depth by depth, which is the sample's
+// rank as soon as it meets the structural upper bound (see rankProve), else
+// by the full Krylov computation (see rankSample), on the same sample. Work per trial O(r·(E_H + r·|H|)) for a controllable
 // subspace of dimension r; memory r·|H| words.
 func Sample(g *structural.Network, req SampleRequest) (*SampleResult, error) {
 	if !req.Inputs.Of(g) {
@@ -96,7 +98,14 @@ func Sample(g *structural.Network, req SampleRequest) (*SampleResult, error) {
 	res.Lower, res.Upper = b.lower, b.upper
 	f := numeric.NewField(numeric.Mersenne61)
 	for t := 0; t < trials; t++ {
-		r := rankSample(p, f, rand.New(rand.NewPCG(req.Seed, uint64(t))), res.Upper)
+		// The depth-by-depth columns of one sample first; when they reach
+		// the upper bound that is the sample's rank, else the full
+		// computation on the same sample.
+		rng := rand.New(rand.NewPCG(req.Seed, uint64(t)))
+		r, _ := rankProve(p, f, rng, p.n, res.Upper, checkProveWork)
+		if r < res.Upper {
+			r = rankSample(p, f, rand.New(rand.NewPCG(req.Seed, uint64(t))), res.Upper)
+		}
 		res.Trials = append(res.Trials, r)
 		res.Rank = max(res.Rank, r)
 	}

@@ -30,6 +30,9 @@ func (m Mode) String() string {
 	return "signals"
 }
 
+// walkWords bounds the walk history of the walk greedy (targets × layers).
+const walkWords = 50_000_000
+
 // Defaults of SelectRequest.
 const (
 	DefaultExactCandidates = 20
@@ -278,10 +281,16 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	} else {
 		consider("full_control", nil, false, full.note)
 	}
-	d, ok := stemCycleCover(r, mode)
-	consider("stem_cycle_cover", d, ok, map[bool]string{false: "a forbidden state or a source component without an allowed state blocks the cover"}[ok])
-	if req.WalkDepth > 0 {
-		depth := min(req.WalkDepth, max(r.n-1, 0))
+	// When the targets are the whole region, target control is full
+	// control of the region, which Drivers and Place solve exactly.
+	closed := len(r.targets) == r.n && best != nil
+	if !closed {
+		d, ok := stemCycleCover(r, mode)
+		consider("stem_cycle_cover", d, ok, map[bool]string{false: "a forbidden state or a source component without an allowed state blocks the cover"}[ok])
+	}
+	if req.WalkDepth > 0 && !closed {
+		// The walks are kept for every layer: at most walkWords entries.
+		depth := min(req.WalkDepth, max(r.n-1, 0), max(walkWords/len(r.targets), 1))
 		d, ok := walkGreedy(r, mode, depth)
 		note := ""
 		if !ok {
@@ -328,7 +337,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	}
 
 	exact := false
-	if req.ExactStates >= 0 && r.n <= req.ExactStates && fits {
+	if req.ExactStates >= 0 && r.n <= req.ExactStates && fits && !closed {
 		var d *design
 		var done bool
 		if mode == Actuators {
@@ -347,7 +356,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 		}
 		exact = done
 	}
-	if !exact && fits && mode == Actuators && len(best.added) <= 256 {
+	if !exact && !closed && fits && mode == Actuators && len(best.added) <= 256 {
 		best = prune(r, o, best, sel)
 	}
 
@@ -370,7 +379,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	default:
 		sel.Optimal = count <= sel.Lower
 	}
-	if len(r.targets) == r.n && best.method == "full_control" {
+	if closed && best.method == "full_control" {
 		sel.Optimal = true // target control of a closed set is full control of it
 	}
 	if mode == Actuators {
@@ -577,7 +586,8 @@ func (lb *lowerBound) bottleneck(g *structural.Network, r *region) *Bottleneck {
 	if w == nil || lb.allowed >= lb.delta {
 		return nil
 	}
-	bn := &Bottleneck{Targets: g.States(r.toGlobal(w.targets)), Neighbours: g.States(r.toGlobal(w.neighbours))}
+	bn := &Bottleneck{Targets: g.States(r.toGlobal(w.targets)), Neighbours: g.States(r.toGlobal(w.neighbours)),
+		Signals: []int{}, SignalNumbers: []int{}}
 	bn.Capacity = len(w.targets) - lb.delta
 	bn.Shortfall = lb.delta
 	return bn

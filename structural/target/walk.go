@@ -103,14 +103,16 @@ func walkGreedy(r *region, mode Mode, maxDepth int) (*design, bool) {
 			}
 		}
 		order := make([]int32, 0, len(heads))
+		var classEnd []int
 		for pass := 0; pass < 2; pass++ {
 			for i := range heads {
 				if (bestS[walks[i]] < 0) == (pass == 0) {
 					order = append(order, int32(i))
 				}
 			}
+			classEnd = append(classEnd, len(order))
 		}
-		mate, _ := priorityMatch(b, order, prefer)
+		mate, _ := priorityMatch(b, order, classEnd, prefer)
 		for i := range heads {
 			if mate[i] >= 0 {
 				continue
