@@ -41,27 +41,20 @@ type design struct {
 // dilation-free cover of the targets. Each source component of S without a
 // driver then gets one (a greedy step): in Signals mode one of its states
 // joins an existing signal; in Actuators mode its cheapest allowed state,
-// or the cheapest allowed state outside S with a path into it through
-// states outside S, the path joining S as a new stem.
+// or the cheapest allowed state outside S (an existing device costs
+// nothing) with a path into it through states outside S, the path joining
+// S as a new stem.
 //
-// Time: one priority matching on the region (O(E) plus its augmenting
-// searches) and one strongly connected components pass on S.
+// Time: a priority matching on the region (O(E) plus its augmenting
+// searches; again, up to seven times, when forbidden states block it) and
+// one strongly connected components pass on S.
 func stemCycleCover(r *region, mode Mode) (*design, bool) {
-	n := r.n
-	// Row v of b (a column to cover) lists v's in-neighbours, then v itself
-	// when v is not a target and has no self-loop.
-	b := &matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
-	b.Adj = make([]int32, 0, len(r.in.Adj)+n)
-	for v := int32(0); int(v) < n; v++ {
-		row := r.in.Row(v)
-		b.Adj = append(b.Adj, row...)
-		if !r.isTarget[v] {
-			if _, loop := slices.BinarySearch(row, v); !loop {
-				b.Adj = append(b.Adj, v)
-			}
-		}
-		b.Ptr[v+1] = int64(len(b.Adj))
+	if mode == Signals {
+		plain := *r
+		plain.dev = structural.Devices{} // signals know no device table
+		r = &plain
 	}
+	n := r.n
 	order := make([]int32, n)
 	for i := range order {
 		order[i] = int32(i)
@@ -99,6 +92,47 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 			classEnd = append(classEnd, i)
 		}
 	}
+	// Forbidden states that S needs but that can be neither covered nor
+	// reached are banned as in-neighbours, and the cover redone (a few
+	// rounds at most).
+	banned := make([]bool, n)
+	for round := 0; round < 8; round++ {
+		d, stuck, ok := coverOnce(r, mode, order, classEnd, banned)
+		if ok {
+			return d, true
+		}
+		if len(stuck) == 0 {
+			return nil, false
+		}
+		for _, v := range stuck {
+			banned[v] = true
+		}
+	}
+	return nil, false
+}
+
+// coverOnce is one attempt of stemCycleCover with some states banned as
+// in-neighbours. It returns the design, or the non-target forbidden
+// states that blocked it (none: a target blocked it).
+func coverOnce(r *region, mode Mode, order []int32, classEnd []int, banned []bool) (*design, []int32, bool) {
+	n := r.n
+	// Row v of b (a column to cover) lists v's in-neighbours that are not
+	// banned, then v itself when v is not a target and has no self-loop.
+	b := &matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
+	b.Adj = make([]int32, 0, len(r.in.Adj)+n)
+	for v := int32(0); int(v) < n; v++ {
+		loop := false
+		for _, u := range r.in.Row(v) {
+			loop = loop || u == v
+			if !banned[u] || u == v {
+				b.Adj = append(b.Adj, u)
+			}
+		}
+		if !r.isTarget[v] && !loop {
+			b.Adj = append(b.Adj, v)
+		}
+		b.Ptr[v+1] = int64(len(b.Adj))
+	}
 	mate, _ := priorityMatch(b, order, classEnd, nil)
 	// S: the closure of the targets under "matched in-neighbour".
 	inS := make([]bool, n)
@@ -115,17 +149,23 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 	}
 	slices.Sort(S)
 	isDriver := make([]bool, n)
-	var drivers []int32
+	var drivers, stuck []int32
 	for _, v := range S {
-		if mate[v] < 0 {
-			if !r.dev.Allowed(v) {
-				return nil, false
+		switch {
+		case mate[v] < 0 && !r.dev.Allowed(v):
+			if r.isTarget[v] {
+				return nil, nil, false
 			}
+			stuck = append(stuck, v)
+		case mate[v] < 0:
 			isDriver[v] = true
 			drivers = append(drivers, v)
-		} else if r.dev.Has(v) {
+		case r.dev.Has(v):
 			isDriver[v] = true
 		}
+	}
+	if len(stuck) > 0 {
+		return nil, stuck, false
 	}
 	// Source components of S, edges between states of S only.
 	pos := make([]int32, n)
@@ -160,13 +200,29 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 			members[k] = append(members[k], v)
 		}
 	}
+	// An existing device outside S costs nothing to use as a stem.
+	costNow := func(v int32) structural.Cost {
+		if r.dev.Has(v) {
+			return 0
+		}
+		return r.dev.CostOf(v)
+	}
 	next := make([]int32, n) // on a path: the state it acts on
 	seen := make([]int32, n) // search stamp
-	var queue []int32
-	var extra []int32
+	var queue, extra []int32
+	onStem := make([]bool, n) // added to S by a path below
 	for k, mem := range members {
 		if len(mem) == 0 {
 			continue
+		}
+		reached := false
+		for _, v := range mem {
+			for _, u := range r.in.Row(v) {
+				reached = reached || onStem[u]
+			}
+		}
+		if reached {
+			continue // an earlier stem enters this component
 		}
 		if mode == Signals {
 			extra = append(extra, mem[0])
@@ -184,31 +240,39 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 		}
 		out := int32(-1)
 		for i := 0; i < len(queue); i++ {
-			v := queue[i]
-			for _, u := range r.in.Row(v) {
+			for _, u := range r.in.Row(queue[i]) {
 				if inS[u] || seen[u] == int32(k+1) {
 					continue
 				}
 				seen[u] = int32(k + 1)
-				next[u] = v
+				next[u] = queue[i]
 				queue = append(queue, u)
-				if r.dev.Allowed(u) && (out < 0 || r.dev.CostOf(u) < r.dev.CostOf(out)) {
+				if r.dev.Allowed(u) && (out < 0 || costNow(u) < costNow(out)) {
 					out = u
 				}
 			}
 		}
 		switch {
-		case out >= 0 && (pick < 0 || r.dev.CostOf(out) < r.dev.CostOf(pick)):
+		case out >= 0 && (pick < 0 || costNow(out) < r.dev.CostOf(pick)):
 			for u := out; !inS[u]; u = next[u] {
-				inS[u] = true
+				inS[u], onStem[u] = true, true
 				S = append(S, u)
 			}
 			extra = append(extra, out)
 		case pick >= 0:
 			extra = append(extra, pick)
 		default:
-			return nil, false
+			// Nothing can reach this component: keep it out of S.
+			for _, v := range mem {
+				if r.isTarget[v] {
+					return nil, nil, false
+				}
+				stuck = append(stuck, v)
+			}
 		}
+	}
+	if len(stuck) > 0 {
+		return nil, stuck, false
 	}
 	slices.Sort(S)
 	slices.Sort(extra)
@@ -225,11 +289,11 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 		}
 		d.added = kept
 		d.signals = dedicated(slices.Concat(r.existing(), kept))
-		return d, true
+		return d, nil, true
 	}
 	if len(drivers) == 0 {
 		d.signals = [][]int32{extra}
-		return d, true
+		return d, nil, true
 	}
 	d.signals = make([][]int32, len(drivers))
 	for i, v := range drivers {
@@ -238,5 +302,5 @@ func stemCycleCover(r *region, mode Mode) (*design, bool) {
 	for i, v := range extra {
 		d.signals[i%len(drivers)] = append(d.signals[i%len(drivers)], v)
 	}
-	return d, true
+	return d, nil, true
 }

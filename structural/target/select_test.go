@@ -202,21 +202,38 @@ func TestSelectNeverWorse(t *testing.T) {
 
 // The stem–cycle cover's claim, checked with Lin's test (structural.Check)
 // on the subnetwork it builds: the set S of covered states, edges from
-// outside removed, is structurally controllable by its drivers.
+// outside removed, is structurally controllable by its drivers; with
+// forbidden states and existing devices too (testnet.RandomDevices), when
+// the cover is found.
 func TestStemCycleCoverIsLin(t *testing.T) {
 	rng := rand.New(rand.NewPCG(16, 7))
-	for it := 0; it < 300; it++ {
+	found := 0
+	for it := 0; it < 600; it++ {
 		n := 2 + rng.IntN(60)
 		g := testnet.Random(t, rng, n, 2/float64(n))
 		tg := randomTargets(rng, n)
-		r, err := newRegion(g, tg, structural.Devices{})
+		var dev structural.Devices
+		if it%2 == 1 {
+			dev = testnet.RandomDevices(rng, n, 9, 0.3, 0.1)
+		}
+		targets, _ := cleanTargets(g, tg)
+		r, err := newRegion(g, targets, dev)
 		if err != nil {
 			t.Fatal(err)
 		}
 		for _, mode := range []Mode{Signals, Actuators} {
 			d, ok := stemCycleCover(r, mode)
 			if !ok {
-				t.Fatalf("case %d: no cover without forbidden states", it)
+				if it%2 == 0 {
+					t.Fatalf("case %d: no cover without forbidden states", it)
+				}
+				continue
+			}
+			found++
+			for _, v := range d.added {
+				if !r.dev.Allowed(v) || r.dev.Has(v) {
+					t.Fatalf("case %d: added %d is forbidden or has a device", it, v)
+				}
 			}
 			sub, local := induced(t, r.net, d.support)
 			var sig [][]int32
@@ -234,7 +251,15 @@ func TestStemCycleCoverIsLin(t *testing.T) {
 			if v := testnet.Check(t, sub, structural.Controllability, sig); !v.Holds {
 				t.Fatalf("case %d %s: the cover's subnetwork fails Lin's test: %+v", it, mode, v)
 			}
+			for _, x := range r.targets {
+				if local[x] < 0 {
+					t.Fatalf("case %d: target %d outside the cover", it, x)
+				}
+			}
 		}
+	}
+	if found < 700 {
+		t.Errorf("only %d covers found", found)
 	}
 }
 

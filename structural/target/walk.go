@@ -36,6 +36,11 @@ import (
 // in-neighbours, O(sum of the heads' in-degrees) beyond its augmenting
 // searches; memory O(|T|·maxDepth) for the walks.
 func walkGreedy(r *region, mode Mode, maxDepth int) (*design, bool) {
+	if mode == Signals {
+		plain := *r
+		plain.dev = structural.Devices{} // signals know no device table
+		r = &plain
+	}
 	nt := len(r.targets)
 	isDriver := make([]bool, r.n)
 	for v := int32(0); int(v) < r.n; v++ {
