@@ -619,7 +619,7 @@ func prune(r *region, o *oracle, d *design, sel *Selection) *design {
 				rest = append(rest, u)
 			}
 		}
-		if o.accept(dedicated(slices.Concat(ex, rest))) {
+		if o.judge(dedicated(slices.Concat(ex, rest))) == proved {
 			removed++
 			continue
 		}
