@@ -41,7 +41,7 @@
 //     Where a lower bound rests on it (a linking found, not a sample or a
 //     Lin certificate), results say so: Verdict.ByTheorem, and the proof
 //     "dynamic_linking" of a Selection, which occurs only where the part
-//     that matters exceeds the sample limit.
+//     that matters exceeds the sample's size or work limits.
 //   - Gao, Liu, D'Souza & Barabási ("Target control of complex networks",
 //     Nat. Commun. 5:5415, 2014) prove, for directed trees, that one input
 //     steers targets whose distances from it are distinct (k-walk theory),

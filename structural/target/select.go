@@ -130,7 +130,7 @@ type Selection struct {
 	// GF(2^61-1), which no generic rank can fall below), or
 	// "dynamic_linking" (a linking of size |T| in the dynamic graph:
 	// sufficient by the theorem of Murota & Poljak, not checked on a
-	// sample here because the region exceeds the sample limit).
+	// sample because the region exceeds the sample's size or work limits).
 	Method string `json:"method"`
 	Proof  string `json:"proof"`
 	// Pruned counts the signals removed from the method's design because a
