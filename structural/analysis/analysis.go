@@ -7,6 +7,7 @@ import (
 	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/placement"
 	"github.com/netsteer/netsteer/structural/strong"
+	"github.com/netsteer/netsteer/structural/target"
 )
 
 // Summary describes the network a result is about. File is left to the
@@ -33,6 +34,11 @@ type DriversRequest struct {
 	// Roles adds the role of every state across all minimum driver sets
 	// and of every edge across all maximum matchings.
 	Roles bool
+	// Targets, when not nil, also finds the fewest independent signals
+	// that steer only these states (structural/target: target control).
+	Targets []int32
+	// Seed makes the samples of a target search reproducible.
+	Seed uint64
 }
 
 // DriversResult is the answer to "how many independent signals, and
@@ -54,7 +60,10 @@ type DriversResult struct {
 	// NodeRoles and LinkRoles, with DriversRequest.Roles.
 	NodeRoles *structural.NodeRoles `json:"node_roles,omitempty"`
 	LinkRoles *structural.LinkRoles `json:"link_roles,omitempty"`
-	Timings   Timings               `json:"timings"`
+	// Targets, with DriversRequest.Targets: the fewest signals that steer
+	// the targets, with bounds and the saving against full control.
+	Targets *target.Selection `json:"targets,omitempty"`
+	Timings Timings           `json:"timings"`
 }
 
 // Perfect reports whether the maximum matching is perfect: every state is
@@ -80,7 +89,15 @@ func Drivers(g *structural.Network, req DriversRequest) (*DriversResult, error) 
 	if req.Roles {
 		r.NodeRoles = structural.StateRoles(g)
 		r.LinkRoles = structural.EdgeRoles(g)
-		r.Timings.Add("roles", t)
+		t = r.Timings.Add("roles", t)
+	}
+	if req.Targets != nil {
+		sel, err := target.Select(g, target.SelectRequest{Property: structural.Controllability, Targets: req.Targets, Mode: target.Signals, Seed: req.Seed})
+		if err != nil {
+			return nil, err
+		}
+		r.Targets = sel
+		r.Timings.Add("targets", t)
 	}
 	return r, nil
 }
@@ -103,6 +120,11 @@ type CheckRequest struct {
 	// (0: strong.DefaultWitnessEntries).
 	Strong         *strong.Class
 	WitnessEntries int
+	// Targets, when not nil, also judges whether each design steers
+	// (tells, for outputs) only these states: target control.
+	Targets []int32
+	// Seed makes the samples of the target check reproducible.
+	Seed uint64
 }
 
 // PropertyResult is the answer for one property of a design: the structural
@@ -118,6 +140,9 @@ type PropertyResult struct {
 	// Strong is the verdict for every parameter value of the class asked
 	// (CheckRequest.Strong); nil when not asked.
 	Strong *strong.Result `json:"strong,omitempty"`
+	// Targets is the target-control verdict (CheckRequest.Targets); nil
+	// when not asked.
+	Targets *target.Verdict `json:"targets,omitempty"`
 }
 
 // CheckResult is the answer to "does this design work, and if not, what
@@ -133,6 +158,12 @@ type CheckResult struct {
 // the strong verdict was asked.
 func (r *CheckResult) Holds() bool {
 	for _, p := range r.Properties() {
+		if p.Targets != nil {
+			if !p.Targets.Holds || p.Strong != nil && !p.Strong.Holds {
+				return false
+			}
+			continue
+		}
 		if !p.Holds || p.Strong != nil && !p.Strong.Holds {
 			return false
 		}
@@ -194,7 +225,14 @@ func Check(g *structural.Network, req CheckRequest) (*CheckResult, error) {
 			}
 			t = r.Timings.Add("strong_"+x.p.String(), t)
 		}
-		if !v.Holds && !req.SkipCompletion {
+		if req.Targets != nil {
+			prop.Targets, err = target.Check(g, target.CheckRequest{Property: x.p, Targets: req.Targets, Inputs: *x.d, Seed: req.Seed})
+			if err != nil {
+				return nil, err
+			}
+			t = r.Timings.Add("targets_"+x.p.String(), t)
+		}
+		if !v.Holds && !req.SkipCompletion && req.Targets == nil {
 			dev := x.dev
 			dev.Existing = nil
 			if prop.Completion, err = placement.Complete(g, x.p, *x.d, dev); err != nil {
@@ -229,6 +267,11 @@ type PlaceRequest struct {
 	Strong      *strong.Class
 	ExactStates int
 	SearchNodes int64
+	// Targets, when not nil, also finds the cheapest dedicated devices
+	// that steer (tell) only these states.
+	Targets []int32
+	// Seed makes the samples of a target search reproducible.
+	Seed uint64
 }
 
 // PlaceResult is the answer to "where do the cheapest devices go?".
@@ -250,13 +293,19 @@ type PlaceResult struct {
 	Ranking *numeric.Ranking `json:"ranking,omitempty"`
 	// Strong, with PlaceRequest.Strong: the placement for every parameter
 	// value, with its lower bound and gap.
-	Strong  *strong.Placement `json:"strong,omitempty"`
+	Strong *strong.Placement `json:"strong,omitempty"`
+	// Targets, with PlaceRequest.Targets: the cheapest devices for the
+	// targets alone, with bounds and the saving against full control.
+	Targets *target.Selection `json:"targets,omitempty"`
 	Timings Timings           `json:"timings"`
 }
 
 // Succeeds reports whether the placement asked is feasible: the strong one
 // when it was asked.
 func (r *PlaceResult) Succeeds() bool {
+	if r.Targets != nil {
+		return r.Targets.Feasible
+	}
 	if r.Strong != nil {
 		return r.Strong.Feasible
 	}
@@ -307,7 +356,15 @@ func Place(g *structural.Network, req PlaceRequest) (*PlaceResult, error) {
 			ExactStates: req.ExactStates, SearchNodes: req.SearchNodes}); err != nil {
 			return nil, err
 		}
-		r.Timings.Add("strong", t)
+		t = r.Timings.Add("strong", t)
+	}
+	if req.Targets != nil {
+		sel, err := target.Select(g, target.SelectRequest{Property: req.Property, Targets: req.Targets, Mode: target.Actuators, Devices: req.Devices, Seed: req.Seed})
+		if err != nil {
+			return nil, err
+		}
+		r.Targets = sel
+		r.Timings.Add("targets", t)
 	}
 	return r, nil
 }
