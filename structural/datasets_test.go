@@ -21,11 +21,11 @@ func readShared(t *testing.T, name string) *structural.Network {
 	if _, err := os.Stat(path); err != nil {
 		t.Skipf("%s not available: %v", path, err)
 	}
-	g, err := netread.ReadFile(path, netread.Options{})
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatalf("reading %s: %v", path, err)
 	}
-	return g
+	return in.Network
 }
 
 // TestPublishedDriverFractions reproduces Table 1 of Liu, Slotine &

@@ -20,10 +20,11 @@ func TestRolesWikiVote(t *testing.T) {
 	if _, err := os.Stat(path); err != nil {
 		t.Skip("shared dataset absent:", path)
 	}
-	g, err := netread.ReadFile(path, netread.Options{})
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	m := structural.MinimumDrivers(g).Matching
 	roles := structural.NodeRoles(g, m)
 	var count [4]int

@@ -98,9 +98,13 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 	}
 	start := time.Now()
 	f.e.status("reading %s", path)
-	g, err := netread.ReadFile(path, opt)
+	in, err := netread.ReadFile(path, opt)
 	f.e.status("")
-	if err == nil && f.table != nil {
+	if err != nil {
+		return nil, time.Since(start), err
+	}
+	g := in.Network
+	if f.table != nil {
 		for _, m := range append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...) {
 			fmt.Fprintln(f.e.Stderr, "netsteer: warning: "+m)
 		}

@@ -96,7 +96,7 @@ func (t *tokenizer) split(line []byte) ([][]byte, string) {
 			sp.end = i
 		}
 		if len(spans) == limit {
-			return nil, "want \"source target [weight]\", found more than 3 fields"
+			return nil, "want \"source target [weight]\", found more than 3 fields (choose columns to read a wider table)"
 		}
 		spans = append(spans, sp)
 		// Separator: white space, optionally one comma.
@@ -114,7 +114,7 @@ func (t *tokenizer) split(line []byte) ([][]byte, string) {
 			if i == n {
 				// A trailing comma leaves an empty last field.
 				if len(spans) == limit {
-					return nil, "want \"source target [weight]\", found more than 3 fields"
+					return nil, "want \"source target [weight]\", found more than 3 fields (choose columns to read a wider table)"
 				}
 				spans = append(spans, span{start: i, end: i})
 				break
@@ -183,11 +183,7 @@ var (
 )
 
 // headerMsg returns the error message for the first non-comment line of an
-// edge list when it looks like a CSV header, or "". It is a header when
-//   - its first two fields are one of headerPairs, unless it is exactly
-//     three fields whose third is a number (an edge with a weight), or
-//   - it has exactly three fields and the third is one of headerWeights
-//     (no edge has a weight that is a word).
+// edge list when it looks like a CSV header, or "".
 func headerMsg(line []byte) string {
 	if len(line) > maxLineBytes {
 		return ""
@@ -195,8 +191,21 @@ func headerMsg(line []byte) string {
 	var t tokenizer
 	t.unlimited = true
 	f, msg := t.split(line)
-	if msg != "" || len(f) < 2 {
+	if msg != "" || !isHeader(f) {
 		return ""
+	}
+	return headerText(line)
+}
+
+// isHeader reports whether the fields of a first line are column names.
+// They are when
+//   - the first two fields are one of headerPairs, unless there are exactly
+//     three fields and the third is a number (an edge with a weight), or
+//   - there are exactly three fields and the third is one of headerWeights
+//     (no edge has a weight that is a word).
+func isHeader(f [][]byte) bool {
+	if len(f) < 2 {
+		return false
 	}
 	header := false
 	for _, p := range headerPairs {
@@ -214,8 +223,10 @@ func headerMsg(line []byte) string {
 			}
 		}
 	}
-	if !header {
-		return ""
-	}
-	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header line; remove it or comment it out with #"
+	return header
+}
+
+// headerText is the message for a header row where none is expected.
+func headerText(line []byte) string {
+	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header row; choose the columns by name to read it, or comment it out with #"
 }

@@ -2,6 +2,7 @@ package netread
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"os"
 	"path/filepath"
 	"slices"
@@ -29,7 +30,7 @@ func fuzzRead(t *testing.T, format Format, data []byte, flags uint8) {
 	if flags&8 != 0 {
 		data = gzipBytes(data)
 	}
-	g, err := Read(bytes.NewReader(data), "fuzz", fuzzOptions(format, flags))
+	in, err := Read(bytes.NewReader(data), "fuzz", fuzzOptions(format, flags))
 	if err != nil {
 		e, ok := err.(*Error)
 		if !ok {
@@ -43,8 +44,17 @@ func fuzzRead(t *testing.T, format Format, data []byte, flags uint8) {
 		}
 		return
 	}
+	g := in.Network
 	if err := checkNetwork(g); err != nil {
 		t.Fatalf("invalid network: %v", err)
+	}
+	if in.Size != int64(len(data)) || in.SHA256 != sha256.Sum256(data) {
+		t.Fatalf("digest covers %d of %d bytes", in.Size, len(data))
+	}
+	for _, s := range [][]string{in.Labels, in.Groups} {
+		if s != nil && len(s) != g.N() {
+			t.Fatalf("%d labels or groups for %d states", len(s), g.N())
+		}
 	}
 	if flags&4 != 0 && g.SelfLoops != g.N() {
 		t.Fatalf("self-dynamics: %d self-loops for %d states", g.SelfLoops, g.N())

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"testing"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen/netgen"
 )
@@ -70,11 +71,11 @@ func BenchmarkParse(b *testing.B) {
 				b.SetBytes(int64(len(data)))
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
-					br, err := maybeGunzip(bytes.NewReader(data), "bench")
+					br, err := maybeGunzip(source.NewDigest(bytes.NewReader(data)), "bench", Options{})
 					if err != nil {
 						b.Fatal(err)
 					}
-					if err := readEdgeList(br, "bench", structural.NewBuilder(), false); err != nil {
+					if err := readEdgeList(br, "bench", structural.NewBuilder(), Options{}); err != nil {
 						b.Fatal(err)
 					}
 				}

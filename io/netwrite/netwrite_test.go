@@ -82,10 +82,11 @@ func TestEdgeListRoundTrip(t *testing.T) {
 			t.Errorf("node table at %q", wr.NodeTable)
 		}
 		states := readNodeTable(t, wr.NodeTable)
-		h, err := netread.ReadFile(path, netread.Options{States: states})
+		in, err := netread.ReadFile(path, netread.Options{States: states})
 		if err != nil {
 			t.Fatal(err)
 		}
+		h := in.Network
 		if h.N() != g.N() || h.Edges() != g.Edges() {
 			t.Errorf("%s: read back N=%d L=%d, want N=%d L=%d", name, h.N(), h.Edges(), g.N(), g.Edges())
 		}
@@ -201,7 +202,7 @@ func TestMatrixMarketKeepsNames(t *testing.T) {
 		t.Errorf("size line and entries %q, want 3 3 2 and two entries", data)
 	}
 	back, err := netread.Read(strings.NewReader(out), "named.mtx", netread.Options{Format: netread.MatrixMarket})
-	if err != nil || back.N() != 3 || back.Edges() != 2 {
+	if err != nil || back.Network.N() != 3 || back.Network.Edges() != 2 {
 		t.Errorf("read back: %v, want 3 states and 2 edges", err)
 	}
 	// Integer names equal to the indices need no comments.
