@@ -4,16 +4,18 @@ import (
 	"bytes"
 	"fmt"
 	"strconv"
+
+	"github.com/netsteer/netsteer/io/internal/source"
 )
 
 // maxLineBytes bounds an edge-list line: two quoted names at the limit,
 // doubled quotes and a weight.
 const maxLineBytes = 4*MaxNameBytes + 256
 
-// clip shortens a field for an error message.
+// clip shortens a field for an error message (see Clip).
 func clip(b []byte) string {
 	if len(b) > 40 {
-		return string(b[:40]) + "..."
+		return source.Clip(string(b[:min(len(b), 48)]), 40)
 	}
 	return string(b)
 }
@@ -230,3 +232,22 @@ func isHeader(f [][]byte) bool {
 func headerText(line []byte) string {
 	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header row; choose the columns by name to read it, or comment it out with #"
 }
+
+// NameProblem says what is wrong with a state name read from a table or
+// design file ("" when nothing is): empty, longer than MaxNameBytes, or
+// holding a control character (a byte below 0x20 other than tab, or 0x7f),
+// as the network readers refuse them.
+func NameProblem(name string) string {
+	switch {
+	case name == "":
+		return "empty node name"
+	case len(name) > MaxNameBytes:
+		return "node name of " + strconv.Itoa(len(name)) + " bytes; the limit is " + strconv.Itoa(MaxNameBytes)
+	}
+	return controlMsg(name)
+}
+
+// Clip shortens a value echoed in a message to at most 40 bytes (cut at
+// a character boundary, marked "..."), so that a 10 MB cell is not
+// repeated whole.
+func Clip(s string) string { return source.Clip(s, 40) }
