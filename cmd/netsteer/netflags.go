@@ -89,13 +89,14 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 		}
 	}
 	if f.nodeTable != "" {
-		t, err := nodetable.ReadFile(f.nodeTable)
+		t, err := nodetable.ReadFile(f.nodeTable, nodetable.Options{Stdin: f.e.Stdin})
 		if err != nil {
 			return nil, 0, err
 		}
 		f.table = t
-		opt.States = append(opt.States, t.Names()...)
+		opt.States = append(opt.States, t.States(false)...)
 	}
+	opt.Stdin = f.e.Stdin
 	start := time.Now()
 	f.e.status("reading %s", path)
 	in, err := netread.ReadFile(path, opt)
@@ -105,6 +106,9 @@ func (f *netFlags) load(path string, extra func(*netread.Options) error) (*struc
 	}
 	g := in.Network
 	if f.table != nil {
+		if err := f.table.Check(g); err != nil {
+			return nil, time.Since(start), err
+		}
 		for _, m := range append(append([]string(nil), f.table.Warnings...), f.table.Isolated(g)...) {
 			fmt.Fprintln(f.e.Stderr, "netsteer: warning: "+m)
 		}

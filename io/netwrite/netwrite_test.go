@@ -55,11 +55,14 @@ func readNodeTable(t *testing.T, path string) []string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(recs) == 0 || len(recs[0]) != 1 || recs[0][0] != "node" {
-		t.Fatalf("node table header %v, want [node]", recs[:1])
+	if len(recs) == 0 || len(recs[0]) != 2 || recs[0][0] != "node" || recs[0][1] != "isolated" {
+		t.Fatalf("node table header %v, want [node isolated]", recs[:1])
 	}
 	var names []string
 	for _, r := range recs[1:] {
+		if r[1] != "yes" {
+			t.Fatalf("row %q: want isolated=yes", r)
+		}
 		names = append(names, r[0])
 	}
 	return names
@@ -149,7 +152,7 @@ func TestEdgeWriter(t *testing.T) {
 		t.Errorf("got %q (%d edges)", buf.String(), e.Edges())
 	}
 	buf.Reset()
-	if err := WriteIntNodeTable(&buf, 3, 1); err != nil || buf.String() != "node\n1\n2\n3\n" {
+	if err := WriteIntNodeTable(&buf, 3, 1); err != nil || buf.String() != "node,isolated\n1,yes\n2,yes\n3,yes\n" {
 		t.Errorf("int node table %q, %v", buf.String(), err)
 	}
 }

@@ -11,7 +11,7 @@ import (
 )
 
 func TestReadPlant(t *testing.T) {
-	tab, err := ReadFile("testdata/plant.csv")
+	tab, err := ReadFile("testdata/plant.csv", Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
