@@ -182,7 +182,7 @@ func runCheck(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 // readDesign reads a design file: the states of each signal and the line
 // it is on. An empty file is an error, as it is most likely the wrong one.
 func readDesign(path string, g *structural.Network, what string) ([][]int32, []int, error) {
-	sigs, err := design.ReadFile(path, g, false)
+	sigs, err := designSignals(path, g, false)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -518,4 +518,13 @@ func (r *checkResult) writeCSV(w io.Writer) error {
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// designSignals reads the signals of a design file.
+func designSignals(path string, g *structural.Network, weights bool) ([]design.Signal, error) {
+	f, err := design.ReadFile(path, g, design.Options{Weights: weights})
+	if err != nil {
+		return nil, err
+	}
+	return f.Signals, nil
 }

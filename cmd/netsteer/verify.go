@@ -149,7 +149,7 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 	}
 	var ins, outs []design.Signal
 	if vf.inputs != "" {
-		if ins, err = design.ReadFile(vf.inputs, g, vf.weights); err != nil {
+		if ins, err = designSignals(vf.inputs, g, vf.weights); err != nil {
 			return fail(e, err)
 		}
 		if len(ins) == 0 {
@@ -157,7 +157,7 @@ func runVerify(e *env, c *command, fs *pflag.FlagSet, args []string) int {
 		}
 	}
 	if vf.outputs != "" {
-		if outs, err = design.ReadFile(vf.outputs, g, vf.weights); err != nil {
+		if outs, err = designSignals(vf.outputs, g, vf.weights); err != nil {
 			return fail(e, err)
 		}
 		if len(outs) == 0 {
