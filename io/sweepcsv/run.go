@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"github.com/netsteer/netsteer/io/fileout"
 	"io"
 	"math"
 	"os"
@@ -123,6 +124,15 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		return nil, errors.New("sweepcsv: replicates must be at least 1")
 	}
 	toFile := opt.Output != "" && opt.Output != "-"
+	if toFile {
+		// One sweep writes an output at a time: a second one on the same
+		// file would drop the first one's rows.
+		lk, err := fileout.LockFile(opt.Output)
+		if err != nil {
+			return nil, err
+		}
+		defer lk.Unlock()
+	}
 	var have []Row
 	if toFile && fileExists(opt.Output) {
 		rows, err := ReadFile(opt.Output)
