@@ -119,7 +119,8 @@ func readPajek(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				labels = append(labels, vlabel{k, string(f[1]), lr.line})
 			}
 		default:
-			fs := bytes.Fields(t)
+			fs := splitBlank(t, f[:0])
+			f = fs
 			if len(fs) < 2 {
 				return nil, errorf(file, lr.line, "want two vertex numbers, found %q", clip(t))
 			}
@@ -265,4 +266,24 @@ func pajekFields(t []byte, f [][]byte) ([][]byte, string) {
 		j++
 	}
 	return append(f, t[i:j]), ""
+}
+
+// splitBlank splits t at runs of blanks into dst, without allocating once
+// dst has grown.
+func splitBlank(t []byte, dst [][]byte) [][]byte {
+	i := 0
+	for {
+		for i < len(t) && isBlankByte(t[i]) {
+			i++
+		}
+		if i == len(t) {
+			return dst
+		}
+		j := i
+		for j < len(t) && !isBlankByte(t[j]) {
+			j++
+		}
+		dst = append(dst, t[i:j])
+		i = j
+	}
 }
