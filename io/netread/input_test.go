@@ -239,6 +239,15 @@ func TestTables(t *testing.T) {
 		{name: "long line", in: "s,t\n" + strings.Repeat("x", maxTableLineBytes+1) + ",b\n", opt: Options{Columns: names("s", "t")}, line: 2, err: "line longer than"},
 	}
 	runReadCases(t, EdgeList, cases)
+	// Columns imply a table; given with another format they are refused.
+	in, err := Read(strings.NewReader("{s},t\n{a},b\n"), "x.json", Options{Columns: names("{s}", "t")})
+	if err != nil || in.Format != EdgeList || in.Network.Edges() != 1 {
+		t.Errorf("columns, JSON-like content: %v", err)
+	}
+	_, err = Read(strings.NewReader("s,t\na,b\n"), "x.txt", Options{Format: DOT, Columns: names("s", "t")})
+	if err == nil || !strings.Contains(err.Error(), "x.txt: columns and separators apply to edge lists and tables; this is read as dot") {
+		t.Errorf("got %v", err)
+	}
 	for _, s := range []string{"1,2", "from,to,weight", " a , b "} {
 		if _, err := ParseColumns(s); err != nil {
 			t.Errorf("ParseColumns(%q): %v", s, err)

@@ -68,7 +68,8 @@ func errorf(file string, line int, format string, args ...any) *Error {
 
 // Options control reading.
 type Options struct {
-	// Format forces a format. Empty means: by content when the content
+	// Format forces a format. Empty means: an edge list or table when
+	// Columns or Separator is set; else by content when the content
 	// says (a Matrix Market banner, a DOT graph, GraphML, GML, Pajek or
 	// node-link JSON), else by the file name's extension (looking through
 	// a .gz suffix; see FormatOf), else an edge list.
@@ -222,12 +223,18 @@ func Read(r io.Reader, file string, opt Options) (*Input, error) {
 		br.Discard(len(utf8BOM))
 	}
 	in := &Input{Format: opt.Format}
+	if in.Format == "" && (opt.Columns != nil || opt.Separator != DetectSeparator) {
+		in.Format = EdgeList // columns or a separator say it is a table
+	}
 	if in.Format == "" {
 		p, _ := br.Peek(sniffBytes)
 		in.Format = Sniff(p)
 		if in.Format == "" {
 			in.Format = FormatOf(file)
 		}
+	}
+	if in.Format != EdgeList && (opt.Columns != nil || opt.Separator != DetectSeparator) {
+		return nil, &Error{File: file, Msg: fmt.Sprintf("columns and separators apply to edge lists and tables; this is read as %s", in.Format)}
 	}
 	var res *parsed
 	switch in.Format {
