@@ -12,7 +12,8 @@
 // edge u -> v; in GraphML, GML, Pajek and JSON an edge from source to
 // target is source -> target, and an undirected edge is the two couplings.
 //
-// Which format. Options.Format forces one. Otherwise the content decides
+// Which format. Options.Format forces one; Options.Columns or
+// Options.Separator mean an edge list or table. Otherwise the content decides
 // when its start announces a format (see Sniff: a Matrix Market banner, a
 // DOT graph, GraphML, GML, Pajek, node-link JSON), whatever the file is
 // called and on standard input too; otherwise the extension (FormatOf);
