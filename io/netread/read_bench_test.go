@@ -70,6 +70,8 @@ func BenchmarkParse(b *testing.B) {
 				data := benchInput(model, n)
 				b.SetBytes(int64(len(data)))
 				b.ResetTimer()
+				cpu := processCPU()
+				defer func() { b.ReportMetric(float64(processCPU()-cpu)/float64(b.N)/1e6, "cpu-ms/op") }()
 				for i := 0; i < b.N; i++ {
 					br, err := maybeGunzip(source.NewDigest(bytes.NewReader(data)), "bench", Options{})
 					if err != nil {
