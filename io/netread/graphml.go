@@ -65,6 +65,10 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	gb := newGraphBuilder(file, opt)
 	wkey := weightKey(opt)
 	keys := map[string]*graphmlKey{}
+	// The key whose default applies, per role: the last declared, since
+	// each sets the same value (so a node or edge costs O(1), whatever the
+	// number of keys).
+	defaults := map[string]*graphmlKey{}
 	line := func() int { l, _ := dec.InputPos(); return l }
 	fail := func(format string, args ...any) (*parsed, error) {
 		return nil, errorf(file, line(), format, args...)
@@ -208,8 +212,8 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				}
 				inNode = v
 				// Defaults of label and group keys apply to every node.
-				for _, k := range keys {
-					if k.has && (k.role == "label" || k.role == "group") {
+				for _, role := range []string{"label", "group"} {
+					if k := defaults[role]; k != nil {
 						if err := setValue(k, k.def); err != nil {
 							return nil, err
 						}
@@ -240,11 +244,9 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 					}
 				}
 				inEdge, edgeHasW = true, false
-				for _, k := range keys {
-					if k.has && k.role == "weight" {
-						if err := setValue(k, k.def); err != nil {
-							return nil, err
-						}
+				if k := defaults["weight"]; k != nil {
+					if err := setValue(k, k.def); err != nil {
+						return nil, err
 					}
 				}
 			case name == "data" && (parent == "node" && inNode >= 0 || parent == "edge" && inEdge):
@@ -276,6 +278,9 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				inDefault = false
 				if keyDecl != nil {
 					keyDecl.def, keyDecl.has = string(dataText), true
+					if keyDecl.role != "" {
+						defaults[keyDecl.role] = keyDecl
+					}
 				}
 			case name == "key":
 				keyDecl = nil

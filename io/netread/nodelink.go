@@ -20,12 +20,18 @@ const (
 type lineTracker struct {
 	r     io.Reader
 	off   int64   // bytes handed out
-	queue []int64 // offsets of line breaks not yet passed
-	base  int     // line breaks passed
+	queue []int64 // offsets of line breaks; queue[head:] not yet passed
+	head  int
+	base  int // line breaks passed
 }
 
 func (t *lineTracker) Read(p []byte) (int, error) {
 	n, err := t.r.Read(p)
+	if t.head > 0 && t.head >= len(t.queue)/2 {
+		// Drop what was passed, in amortised constant time per entry.
+		t.queue = t.queue[:copy(t.queue, t.queue[t.head:])]
+		t.head = 0
+	}
 	for i := 0; i < n; i++ {
 		if p[i] == '\n' {
 			t.queue = append(t.queue, t.off+int64(i))
@@ -38,12 +44,10 @@ func (t *lineTracker) Read(p []byte) (int, error) {
 // lineAt returns the 1-based line of offset off; offsets asked must not
 // decrease.
 func (t *lineTracker) lineAt(off int64) int {
-	k := 0
-	for k < len(t.queue) && t.queue[k] < off {
-		k++
+	for t.head < len(t.queue) && t.queue[t.head] < off {
+		t.head++
+		t.base++
 	}
-	t.base += k
-	t.queue = t.queue[:copy(t.queue, t.queue[k:])]
 	return t.base + 1
 }
 
