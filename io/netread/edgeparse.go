@@ -82,11 +82,18 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 	hd := headerState{done: !lf.plain}
 	rd := &blockReader{r: r}
 	newBlock := func(b *structural.Builder) *block {
-		blk := newBlock(b)
+		blk := newBlockSized(b, blockBytes)
 		blk.lf = lf
 		return blk
 	}
-	first := newBlock(b)
+	// An input that fits in the read buffer gets a first block its size.
+	var first *block
+	if p, err := r.Peek(r.Size()); err != nil && len(p) < blockBytes {
+		first = newBlockSized(b, len(p)+1)
+		first.lf = lf
+	} else {
+		first = newBlock(b)
+	}
 	rd.fill(first)
 	if first.readErr != nil || rd.eof || parseWorkers == 1 {
 		// Small input, or sequential on request: parse in turn.
@@ -165,11 +172,13 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 
 var errStop = errors.New("stop")
 
-func newBlock(b *structural.Builder) *block {
-	// A line of an edge is at least 4 bytes ("1 2\n"): toks never grows
-	// past this capacity, of which only the part used is ever touched.
-	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1), b: b,
-		toks: make([]int32, 0, blockBytes/2)}
+// newBlockSized returns a block of size bytes.
+func newBlockSized(b *structural.Builder, size int) *block {
+	// A line of an edge is at least 4 bytes ("1 2\n"): toks rarely grows
+	// past this capacity (lines of one short name can make it), of which
+	// only the part used is ever touched.
+	return &block{buf: make([]byte, size), done: make(chan struct{}, 1), b: b,
+		toks: make([]int32, 0, size/2+2)}
 }
 
 // blockReader cuts its input into blocks of whole lines.

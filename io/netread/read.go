@@ -369,10 +369,14 @@ func gzipMsg(err error) string {
 	return "gzip: " + oneLineMsg(err.Error())
 }
 
+// readBuffer is the size of the input buffers: it holds what Sniff and
+// the table's first rows look at (large reads pass through it).
+const readBuffer = 256 << 10
+
 // maybeGunzip returns a buffered reader of the decompressed input when
 // it starts with the gzip magic bytes, of the input itself otherwise.
 func maybeGunzip(raw *source.Digest, file string, opt Options) (*bufio.Reader, error) {
-	br := bufio.NewReaderSize(raw, 1<<20)
+	br := bufio.NewReaderSize(raw, readBuffer)
 	magic, _ := br.Peek(2)
 	if len(magic) == 2 && magic[0] == 0x1f && magic[1] == 0x8b {
 		zr, err := gzip.NewReader(br)
@@ -383,7 +387,7 @@ func maybeGunzip(raw *source.Digest, file string, opt Options) (*bufio.Reader, e
 		if ratio == 0 {
 			ratio = DefaultMaxInflateRatio
 		}
-		return bufio.NewReaderSize(&gzipReader{r: zr, raw: raw, file: file, ratio: ratio}, 1<<20), nil
+		return bufio.NewReaderSize(&gzipReader{r: zr, raw: raw, file: file, ratio: ratio}, readBuffer), nil
 	}
 	return br, nil
 }
