@@ -14,10 +14,11 @@ import (
 func readShared(t *testing.T, name string) *structural.Network {
 	t.Helper()
 	path := testnet.Dataset(t, name)
-	g, err := netread.ReadFile(path, netread.Options{})
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatalf("reading %s: %v", path, err)
 	}
+	g := in.Network
 	return g
 }
 

@@ -63,12 +63,12 @@ func stagesMain(args []string) {
 	// Reading uses several goroutines: its CPU time here is the calling
 	// thread's share only, so only its wall time is meaningful.
 	out["read"] = best(1, func() {
-		var err error
-		g, err = netread.ReadFile(flag.Arg(0), netread.Options{})
+		in, err := netread.ReadFile(flag.Arg(0), netread.Options{})
 		if err != nil {
 			fmt.Fprintln(os.Stderr, err)
 			os.Exit(2)
 		}
+		g = in.Network
 	})
 	var m *matching.Matching
 	out["match"] = best(*runs, func() { m = matching.Maximum(g.Out(), g.In()) })

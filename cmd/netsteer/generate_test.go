@@ -53,10 +53,11 @@ func TestGenerateReadBack(t *testing.T) {
 		for _, r := range recs[1:] {
 			states = append(states, r[0])
 		}
-		g, err := netread.ReadFile(path, netread.Options{States: states})
+		in, err := netread.ReadFile(path, netread.Options{States: states})
 		if err != nil {
 			t.Fatal(err)
 		}
+		g := in.Network
 		if g.N() != sum.Nodes || g.Edges() != sum.Edges || g.DuplicatesMerged() != 0 || g.SelfLoops() != 0 {
 			t.Errorf("%v: read back N=%d L=%d (merged %d, loops %d), generate said N=%d L=%d",
 				args, g.N(), g.Edges(), g.DuplicatesMerged(), g.SelfLoops(), sum.Nodes, sum.Edges)

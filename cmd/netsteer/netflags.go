@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"strconv"
 	"strings"
 	"time"
 
@@ -19,19 +20,37 @@ import (
 
 // netFlags are the options of every command that reads a network.
 type netFlags struct {
-	e            *env
-	format       string
-	undirected   bool
-	selfDynamics bool
-	nodeTable    string
+	e             *env
+	format        string
+	undirected    bool
+	selfDynamics  bool
+	nodeTable     string
+	columns       string
+	separator     string
+	weightKey     string
+	maxInflate    string
+	allowIsolated bool
 }
 
 func (f *netFlags) register(e *env, fs *pflag.FlagSet) {
 	f.e = e
-	fs.Var(formatFlag{&f.format}, "input-format", "network format: edges, mtx or dot (default: by content, then extension)")
+	fs.Var(formatFlag{&f.format}, "input-format", "network format: "+formatNames()+" (default: by content, then extension)")
 	fs.BoolVar(&f.undirected, "undirected", false, "read each edge as a two-way coupling")
 	fs.BoolVar(&f.selfDynamics, "self-dynamics", false, "give every state a self-loop (its own dynamics)")
 	fs.StringVar(&f.nodeTable, "node-table", "", "CSV node table: device costs, allowed and existing devices, groups, labels")
+	fs.StringVar(&f.columns, "columns", "", "read a table: SOURCE,TARGET[,WEIGHT] by header name, or 1-based positions (no header)")
+	fs.StringVar(&f.separator, "separator", "", "table separator: comma, tab, semicolon, whitespace or auto (default auto)")
+	fs.StringVar(&f.weightKey, "weight-key", "", "GraphML, GML or JSON edge attribute holding the weight (default weight)")
+	fs.StringVar(&f.maxInflate, "max-inflate", "", "largest gzip expansion ratio accepted (default 100 beyond 256 MiB; none: no bound)")
+	fs.BoolVar(&f.allowIsolated, "allow-isolated", false, "accept node-table rows in no edge as isolated states (each needs its own device)")
+}
+
+func formatNames() string {
+	names := make([]string, len(netread.Formats))
+	for i, f := range netread.Formats {
+		names[i] = string(f)
+	}
+	return strings.Join(names, ", ")
 }
 
 // formatFlag is --input-format, checked when parsed so that a wrong name is
@@ -47,11 +66,7 @@ func (v formatFlag) String() string {
 
 func (v formatFlag) Set(s string) error {
 	if _, err := netread.ParseFormat(s); err != nil {
-		names := make([]string, len(netread.Formats))
-		for i, f := range netread.Formats {
-			names[i] = string(f)
-		}
-		return fmt.Errorf("unknown format %q (want %s)", s, strings.Join(names, ", "))
+		return fmt.Errorf("unknown format %q (want %s)", s, formatNames())
 	}
 	*v.s = s
 	return nil
@@ -59,12 +74,15 @@ func (v formatFlag) Set(s string) error {
 
 func (v formatFlag) Type() string { return "string" }
 
-// input is a network read for a command, with its node table.
+// input is a network read for a command, with its node table and the
+// digests of the files read.
 type input struct {
-	path  string
-	g     *structural.Network
-	table *nodetable.Table // nil without --node-table
-	readT time.Duration
+	path   string
+	g      *structural.Network
+	read   *netread.Input
+	table  *nodetable.Table // nil without --node-table
+	readT  time.Duration
+	digest map[string][32]byte // SHA-256 of each file read, by path
 }
 
 // load reads the network at path (and the node table), refusing an output
@@ -81,48 +99,67 @@ func (f *netFlags) load(path, out string, weights bool, extra ...string) (*input
 	if stdin > 1 {
 		return nil, usagef("only one of the files read can be standard input (-)")
 	}
-	if err := fileout.NotAnInput(out, reads...); err != nil {
-		return nil, usagef("%v", describe(err))
+	if in := fileout.SameFile(out, reads...); in != "" {
+		return nil, usagef("-o %s would overwrite %s, which this command reads", out, in)
 	}
-	opt := netread.Options{Weights: weights, Build: structural.BuildOptions{Undirected: f.undirected, SelfDynamics: f.selfDynamics}}
+	opt := netread.Options{Weights: weights, Stdin: f.e.Stdin, WeightKey: f.weightKey,
+		Build: structural.BuildOptions{Undirected: f.undirected, SelfDynamics: f.selfDynamics}}
 	if f.format != "" {
 		opt.Format, _ = netread.ParseFormat(f.format)
 	}
-	in := &input{path: path}
+	if f.columns != "" {
+		c, err := netread.ParseColumns(f.columns)
+		if err != nil {
+			return nil, usagef("--columns: %s", describe(err))
+		}
+		opt.Columns = c
+	}
+	if f.separator != "" {
+		sep, err := netread.ParseSeparator(f.separator)
+		if err != nil {
+			return nil, usagef("--separator: %s", describe(err))
+		}
+		opt.Separator = sep
+	}
+	switch f.maxInflate {
+	case "":
+	case "none":
+		opt.MaxInflateRatio = -1
+	default:
+		r, err := strconv.ParseFloat(f.maxInflate, 64)
+		if err != nil || !(r >= 1) {
+			return nil, usagef("--max-inflate %q: want a ratio of at least 1, or none", f.maxInflate)
+		}
+		opt.MaxInflateRatio = r
+	}
+	in := &input{path: path, digest: map[string][32]byte{}}
 	if f.nodeTable != "" {
-		t, err := f.readTable()
+		t, err := nodetable.ReadFile(f.nodeTable, nodetable.Options{Stdin: f.e.Stdin})
 		if err != nil {
 			return nil, err
 		}
 		in.table = t
-		opt.States = t.Names()
+		in.digest[f.nodeTable] = t.SHA256
+		opt.States = t.States(f.allowIsolated)
 	}
 	start := time.Now()
 	f.e.status("reading %s", displayFile(path))
-	var err error
-	if path == "-" {
-		in.g, err = netread.Read(f.e.Stdin, "stdin", opt)
-	} else {
-		in.g, err = netread.ReadFile(path, opt)
-	}
+	r, err := netread.ReadFile(path, opt)
 	f.e.status("")
 	if err != nil {
 		return nil, err
 	}
-	in.readT = time.Since(start)
+	in.read, in.g, in.readT = r, r.Network, time.Since(start)
+	in.digest[path] = r.SHA256
 	if in.table != nil {
+		if err := in.table.Check(in.g); err != nil {
+			return nil, err
+		}
 		for _, m := range append(append([]string(nil), in.table.Warnings...), in.table.Isolated(in.g)...) {
 			f.e.warn("%s", m)
 		}
 	}
 	return in, nil
-}
-
-func (f *netFlags) readTable() (*nodetable.Table, error) {
-	if f.nodeTable == "-" {
-		return nodetable.Read(f.e.Stdin, "stdin")
-	}
-	return nodetable.ReadFile(f.nodeTable)
 }
 
 // devices returns the device facts of the node table for property p (zero
@@ -144,16 +181,12 @@ func (in *input) design(e *env, path string, p structural.Property) (*structural
 }
 
 func (in *input) readDesign(e *env, path string, p structural.Property, weights bool) (*structural.Design, []design.Signal, error) {
-	var sigs []design.Signal
-	var err error
-	if path == "-" {
-		sigs, err = design.Read(e.Stdin, "stdin", in.g, weights)
-	} else {
-		sigs, err = design.ReadFile(path, in.g, weights)
-	}
+	file, err := design.ReadFile(path, in.g, design.Options{Weights: weights, Stdin: e.Stdin})
 	if err != nil {
 		return nil, nil, err
 	}
+	in.digest[path] = file.SHA256
+	sigs := file.Signals
 	if len(sigs) == 0 {
 		what := "inputs"
 		if p == structural.Observability {
@@ -186,7 +219,6 @@ func describe(err error) string {
 	var ne *netread.Error
 	var te *structural.TooLargeError
 	var se *structural.StateError
-	var ie *fileout.InputError
 	var sd *sweep.SeedError
 	var sz *sweep.SizeError
 	switch {
@@ -194,8 +226,6 @@ func describe(err error) string {
 		return fmt.Sprintf("the sweep has %.3g rows, more than %d (about %.3g core-hours); sweep fewer values or replicates", sz.Rows, sz.Max, sz.Seconds/3600)
 	case errors.As(err, &sd):
 		return fmt.Sprintf("%s holds row %s computed with another --seed (%d, not %d); choose another output file", sd.File, sd.Row, sd.Have, sd.Want)
-	case errors.As(err, &ie):
-		return fmt.Sprintf("-o %s would overwrite %s, which this command reads", ie.Output, ie.Input)
 	case errors.As(err, &ne):
 		return ne.Error()
 	case errors.As(err, &te):

@@ -223,7 +223,7 @@ func analyse(nf *netFlags, pf *pictureFlags, path string, sh showSet, complete b
 		a.ds = structural.DriversFrom(g, matching.Maximum(g.Out(), g.In()), a.c)
 	})
 	if pf.inputs != "" {
-		if a.inputs, err = design.ReadFile(pf.inputs, g, false); err != nil {
+		if a.inputs, err = designSignals(pf.inputs, g, false); err != nil {
 			return nil, err
 		}
 		if len(a.inputs) == 0 {
@@ -238,7 +238,7 @@ func analyse(nf *netFlags, pf *pictureFlags, path string, sh showSet, complete b
 		}
 	}
 	if pf.outputs != "" {
-		if a.outputs, err = design.ReadFile(pf.outputs, g, false); err != nil {
+		if a.outputs, err = designSignals(pf.outputs, g, false); err != nil {
 			return nil, err
 		}
 		if len(a.outputs) == 0 {

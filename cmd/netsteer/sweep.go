@@ -210,8 +210,8 @@ func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if err := checkPlot(*plotPath); err != nil {
 			return err
 		}
-		if err := fileout.NotAnInput(*output, args...); err != nil {
-			return usagef("%s", describe(err))
+		if in := fileout.SameFile(*output, args...); in != "" {
+			return usagef("-o %s would overwrite %s, which this command reads", *output, in)
 		}
 		rows, err := sweepcsv.MergeFiles(args...)
 		if err != nil {

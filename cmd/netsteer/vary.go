@@ -105,8 +105,8 @@ func varyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return err
 		}
 		if nt := nw.nodeTablePath(); nt != "" {
-			if err := fileout.NotAnInput(nt, path, nf.nodeTable); err != nil {
-				return usagef("%s", describe(err))
+			if in := fileout.SameFile(nt, path, nf.nodeTable); in != "" {
+				return usagef("%s would overwrite %s, which this command reads", nt, in)
 			}
 		}
 		in, err := nf.load(path, nw.output, false)

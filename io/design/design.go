@@ -7,10 +7,10 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
 )
@@ -27,26 +27,53 @@ type Signal struct {
 	Line int
 }
 
-// ReadFile reads a design file for network g; "-" reads standard input.
-func ReadFile(path string, g *structural.Network, weights bool) ([]Signal, error) {
-	if path == "-" {
-		return Read(os.Stdin, "stdin", g, weights)
-	}
-	f, err := os.Open(path)
+// Options control reading.
+type Options struct {
+	// Weights reads values written name:value (the entries of B or C).
+	Weights bool
+	// Stdin is what the path "-" reads; nil means os.Stdin.
+	Stdin io.Reader
+}
+
+// File is a design file as read.
+type File struct {
+	Signals []Signal
+	// SHA256 and Size describe the bytes read (the whole file on
+	// success), so that a report can certify the design it judged.
+	SHA256 [32]byte
+	Size   int64
+}
+
+// MaxLineBytes bounds a line of a design file (one signal may drive many
+// states).
+const MaxLineBytes = 1 << 24
+
+// ReadFile reads a design file for network g; "-" reads opt.Stdin.
+func ReadFile(path string, g *structural.Network, opt Options) (*File, error) {
+	f, name, err := netread.Open(path, opt.Stdin, "design file")
 	if err != nil {
-		return nil, &netread.Error{File: path, Msg: strings.TrimPrefix(err.Error(), "open "+path+": ")}
+		return nil, err
 	}
 	defer f.Close()
-	if st, err := f.Stat(); err == nil && st.IsDir() {
-		return nil, &netread.Error{File: path, Msg: "is a directory, not a design file"}
-	}
-	return Read(f, path, g, weights)
+	return Read(f, name, g, opt)
 }
 
 // Read reads a design for g from r; file names r in error messages.
-func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Signal, error) {
+func Read(r io.Reader, file string, g *structural.Network, opt Options) (*File, error) {
+	d := source.NewDigest(r)
+	sigs, err := read(d, file, g, opt.Weights)
+	if err != nil {
+		return nil, err
+	}
+	if err := d.Drain(); err != nil {
+		return nil, &netread.Error{File: file, Msg: err.Error(), Err: err}
+	}
+	return &File{Signals: sigs, SHA256: d.Sum(), Size: d.Size()}, nil
+}
+
+func read(r io.Reader, file string, g *structural.Network, weights bool) ([]Signal, error) {
 	sc := bufio.NewScanner(r)
-	sc.Buffer(make([]byte, 64<<10), 1<<24)
+	sc.Buffer(make([]byte, 64<<10), MaxLineBytes)
 	var out []Signal
 	line := 0
 	seen := map[int32]int{} // state -> index of the last signal naming it
@@ -76,7 +103,7 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 					if _, ok := g.Lookup(f); !ok {
 						v, err := strconv.ParseFloat(f[k+1:], 64)
 						if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || v == 0 {
-							return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("weight in %q is not a finite nonzero number", f)}
+							return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("weight in %q is not a finite nonzero number", netread.Clip(f))}
 						}
 						name, w = f[:k], v
 					}
@@ -84,16 +111,16 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 			}
 			id, ok := g.Lookup(name)
 			if !ok {
-				msg := fmt.Sprintf("no state named %q in the network", name)
+				msg := fmt.Sprintf("no state named %q in the network", netread.Clip(name))
 				if k := strings.LastIndexByte(name, ':'); !weights && k > 0 {
 					if _, ok := g.Lookup(name[:k]); ok {
-						msg += fmt.Sprintf(" (%q is a state: values written name:value are read only with weights, verify --weights)", name[:k])
+						msg += fmt.Sprintf(" (%q is a state: values written name:value are read only when weights are read)", netread.Clip(name[:k]))
 					}
 				}
 				return nil, &netread.Error{File: file, Line: line, Msg: msg}
 			}
 			if k, dup := seen[id]; dup && k == len(out) {
-				return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("state %q named twice on one line", name)}
+				return nil, &netread.Error{File: file, Line: line, Msg: fmt.Sprintf("state %q named twice on one line", netread.Clip(name))}
 			}
 			seen[id] = len(out)
 			s.States = append(s.States, id)
@@ -108,7 +135,7 @@ func Read(r io.Reader, file string, g *structural.Network, weights bool) ([]Sign
 		if errors.Is(err, bufio.ErrTooLong) {
 			msg = "line longer than 16 MiB"
 		}
-		return nil, &netread.Error{File: file, Line: line + 1, Msg: msg}
+		return nil, &netread.Error{File: file, Line: line + 1, Msg: msg, Err: err}
 	}
 	return out, nil
 }

@@ -48,10 +48,11 @@ func TestBrowser(t *testing.T) {
 	if testing.Short() {
 		t.Skip("starts a browser")
 	}
-	g, err := netread.ReadFile("../../testdata/plant/heating.edges", netread.Options{})
+	in, err := netread.ReadFile("../../testdata/plant/heating.edges", netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	r := reviewOf(t, g, "heating.edges")
 	// A hostile name among the findings, to see what the browser makes of it.
 	r.Findings[0].Rows = append(r.Findings[0].Rows, []string{`<script>document.title="pwned"</script><img src=x onerror="document.title='pwned'">`})

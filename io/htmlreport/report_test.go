@@ -229,10 +229,11 @@ func TestPageHostileNames(t *testing.T) {
 // TestPageDemoPlant writes the review page of the demo plant and checks its
 // parts are present.
 func TestPageDemoPlant(t *testing.T) {
-	g, err := netread.ReadFile("../../testdata/plant/heating.edges", netread.Options{})
+	in, err := netread.ReadFile("../../testdata/plant/heating.edges", netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	page := writePage(t, reviewOf(t, g, "heating.edges"))
 	p := scanPage(t, page)
 	if len(p.bad) > 0 {

@@ -3,7 +3,6 @@ package netread
 import (
 	"bufio"
 	"bytes"
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -15,6 +14,7 @@ import (
 	"gonum.org/v1/gonum/graph/formats/dot"
 	"gonum.org/v1/gonum/graph/formats/dot/ast"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/structural"
 )
 
@@ -37,14 +37,10 @@ const (
 
 // readDOT reads a DOT graph: "u -> v" is the edge u -> v, "u -- v" in an
 // undirected graph the two couplings u -> v and v -> u.
-func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, error) {
+func readDOT(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	src, err := io.ReadAll(io.LimitReader(r, MaxDOTBytes+1))
 	if err != nil {
-		var e *Error
-		if errors.As(err, &e) {
-			return nil, e
-		}
-		return nil, &Error{File: file, Msg: oneLineMsg(err.Error())}
+		return nil, readError(file, 0, err)
 	}
 	if len(src) > MaxDOTBytes {
 		return nil, &Error{File: file, Msg: fmt.Sprintf("DOT input larger than %d MiB; write big networks as an edge list or a Matrix Market file", MaxDOTBytes>>20)}
@@ -67,7 +63,7 @@ func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, er
 		if len(sc.ids) > 0 {
 			line = sc.ids
 		}
-		return nil, errorf(file, int(line[0]), "not a DOT graph: want \"digraph { u -> v; ... }\" (is this an edge list? then give --input-format edges)")
+		return nil, errorf(file, int(line[0]), "not a DOT graph: want \"digraph { u -> v; ... }\" (is this an edge list? then read it as one)")
 	}
 	if len(sc.graphs) > 1 {
 		return nil, errorf(file, int(sc.graphs[1]), "a second graph; a DOT file must hold one network")
@@ -80,7 +76,7 @@ func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, er
 		return nil, &Error{File: file, Msg: fmt.Sprintf("%d graphs in the file; a DOT file must hold one network", len(f.Graphs))}
 	}
 	g := f.Graphs[0]
-	d := &dotReader{file: file, b: structural.NewBuilder(), weights: opt.Weights, directed: g.Directed}
+	d := &dotReader{file: file, b: structural.NewBuilder(), weights: opt.Weights, directed: g.Directed, weightKey: weightKey(opt)}
 	d.maxEdges = 16*int64(len(src)) + dotFreeEdges
 	// Lines come from the scan when its token counts agree with the tree.
 	var ids, ops int
@@ -100,8 +96,23 @@ func readDOT(r *bufio.Reader, file string, opt Options) (*structural.Network, er
 	if !g.Directed {
 		opt.Build.Undirected = true
 	}
-	return finish(d.b, file, opt)
+	net, err := finish(d.b, file, opt)
+	if err != nil {
+		return nil, err
+	}
+	return &parsed{g: net, labels: padded(d.labels, net.N()), groups: padded(d.groups, net.N())}, nil
 }
+
+// weightKey returns the name of the weight attribute.
+func weightKey(opt Options) string {
+	if opt.WeightKey != "" {
+		return opt.WeightKey
+	}
+	return "weight"
+}
+
+// maxEchoBytes bounds a piece of the input echoed in a message.
+const maxEchoBytes = 200
 
 // parseDOT runs gonum's parser, turning a panic into an error.
 func parseDOT(src []byte) (f *ast.File, err error) {
@@ -119,7 +130,7 @@ var dotErrPos = regexp.MustCompile(`^(\d+):(\d+): error: `)
 // dotParseError turns an error of gonum's parser into an *Error, keeping
 // the line it names.
 func dotParseError(file string, err error) *Error {
-	msg := oneLineMsg(err.Error())
+	msg := source.Clip(oneLineMsg(err.Error()), maxEchoBytes)
 	if m := dotErrPos.FindStringSubmatch(msg); m != nil {
 		line, _ := strconv.Atoi(m[1])
 		rest := msg[len(m[0]):]
@@ -153,6 +164,10 @@ type dotReader struct {
 	mentions []int32
 	edges    int64 // edges added
 	maxEdges int64
+	// weightKey names the weight attribute; labels and groups hold the
+	// label and group attributes of node statements, by state.
+	weightKey      string
+	labels, groups []string
 }
 
 // idLine returns the line of the last ID consumed, or 0.
@@ -176,10 +191,11 @@ func (d *dotReader) stmts(list []ast.Stmt, sc dotScope, depth int) error {
 	for _, s := range list {
 		switch s := s.(type) {
 		case *ast.NodeStmt:
-			if _, err := d.node(s.Node); err != nil {
+			id, err := d.node(s.Node)
+			if err != nil {
 				return err
 			}
-			if _, _, err := d.attrs(s.Attrs, false); err != nil {
+			if err := d.nodeAttrs(id, s.Attrs); err != nil {
 				return err
 			}
 		case *ast.EdgeStmt:
@@ -357,7 +373,7 @@ func (d *dotReader) attrs(list []*ast.Attr, edge bool) (float64, bool, error) {
 	var has bool
 	for _, a := range list {
 		d.idk += 2
-		if !edge || dotUnquote(a.Key) != "weight" {
+		if !edge || dotUnquote(a.Key) != d.weightKey {
 			continue
 		}
 		val := dotUnquote(a.Val)
@@ -371,6 +387,45 @@ func (d *dotReader) attrs(list []*ast.Attr, edge bool) (float64, bool, error) {
 		w, has = v, true
 	}
 	return w, has, nil
+}
+
+// nodeAttrs reads the attribute list of a node statement, keeping its
+// label and group (a later statement overrides an earlier one, as in
+// Graphviz).
+func (d *dotReader) nodeAttrs(id int32, list []*ast.Attr) error {
+	for _, a := range list {
+		d.idk += 2
+		var dst *[]string
+		switch dotUnquote(a.Key) {
+		case "label":
+			dst = &d.labels
+		case "group":
+			dst = &d.groups
+		default:
+			continue
+		}
+		// A quoted value may run over lines; keep it on one.
+		val := strings.NewReplacer("\r\n", " ", "\n", " ", "\r", " ").Replace(dotUnquote(a.Val))
+		if len(val) > maxLabelBytes {
+			return errorf(d.file, d.idLine(), "%s of %d bytes; the limit is %d", dotUnquote(a.Key), len(val), maxLabelBytes)
+		}
+		if msg := controlMsg(val); msg != "" {
+			return errorf(d.file, d.idLine(), "%s: %s", dotUnquote(a.Key), strings.Replace(msg, "a node name", "the value", 1))
+		}
+		setAt(dst, id, val)
+	}
+	return nil
+}
+
+// maxLabelBytes is the longest label or group kept.
+const maxLabelBytes = 4 * MaxNameBytes
+
+// setAt sets (*s)[i] = v, growing *s as needed.
+func setAt(s *[]string, i int32, v string) {
+	if int(i) >= len(*s) {
+		*s = append(*s, make([]string, int(i)+1-len(*s))...)
+	}
+	(*s)[i] = v
 }
 
 // countDOT counts the IDs and edge operators of a statement list, the way
@@ -536,12 +591,16 @@ func scanDOT(src []byte, file string) (*dotScan, *Error) {
 			}
 			continue
 		case c == '/' && i+1 < n && src[i+1] == '*':
+			start := line
 			i += 2
 			for i < n && !(src[i] == '*' && i+1 < n && src[i+1] == '/') {
 				if src[i] == '\n' {
 					line++
 				}
 				i++
+			}
+			if i >= n {
+				return nil, errorf(file, int(start), "unterminated /* comment")
 			}
 			i += 2
 			continue
@@ -560,6 +619,9 @@ func scanDOT(src []byte, file string) (*dotScan, *Error) {
 					line++
 				}
 				i++
+			}
+			if i >= n {
+				return nil, errorf(file, int(start), "unterminated quoted string")
 			}
 			i++
 			tok = dotID

@@ -63,7 +63,7 @@ func TestDOT(t *testing.T) {
 		{name: "an edge list read as DOT", in: "# plant\n\nvalve flow\nflow level\n", line: 3, err: "not a DOT graph"},
 		{name: "only an edge operator", in: "\n->\n", line: 2, err: "not a DOT graph"},
 		{name: "syntax error", in: "digraph {\n a -> b\n c -> \n}\n", line: 4, err: "DOT syntax"},
-		{name: "unterminated quote", in: "digraph {\n a -> \"b\n}\n", line: 2, err: "DOT syntax"},
+		{name: "unterminated quote", in: "digraph {\n a -> \"b\n}\n", line: 2, err: "unterminated quoted string"},
 		{name: "unclosed brace", in: "digraph {\n a -> b\n", line: 3, err: "end-of-file"},
 		{name: "bad weight", in: "digraph {\n a -> b\n b -> c [weight=heavy]\n}", opt: Options{Weights: true}, line: 3, err: "weight \"heavy\" is not a finite number"},
 		{name: "bad weight without --weights", in: "digraph {\n a -> b [weight=heavy]\n}", line: 2, err: "not a finite number"},
@@ -124,7 +124,7 @@ func TestDOTChainsWithoutSemicolons(t *testing.T) {
 		t.Errorf("scan found %d edge operators, want %d", len(sc.ops), want)
 	}
 	in := "digraph { a" + strings.Repeat(" -> a", maxDOTChain) + " }"
-	g, err := Read(strings.NewReader(in), "chain.dot", Options{Format: DOT})
+	g, err := readNet(strings.NewReader(in), "chain.dot", Options{Format: DOT})
 	if err != nil {
 		t.Fatalf("chain of %d steps: %v", maxDOTChain, err)
 	}
@@ -149,11 +149,11 @@ func TestDOTMatchesEdgeList(t *testing.T) {
 		fmt.Fprintf(&el, "\"st %d\" \"st %d\" %d\n", u, v, w)
 	}
 	dot.WriteString("}\n")
-	gd, err := Read(strings.NewReader(dot.String()), "g.dot", Options{Format: DOT, Weights: true})
+	gd, err := readNet(strings.NewReader(dot.String()), "g.dot", Options{Format: DOT, Weights: true})
 	if err != nil {
 		t.Fatal(err)
 	}
-	ge, err := Read(strings.NewReader(el.String()), "g.edges", Options{Weights: true})
+	ge, err := readNet(strings.NewReader(el.String()), "g.edges", Options{Weights: true})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -4,16 +4,18 @@ import (
 	"bytes"
 	"fmt"
 	"strconv"
+
+	"github.com/netsteer/netsteer/io/internal/source"
 )
 
 // maxLineBytes bounds an edge-list line: two quoted names at the limit,
 // doubled quotes and a weight.
 const maxLineBytes = 4*MaxNameBytes + 256
 
-// clip shortens a field for an error message.
+// clip shortens a field for an error message (see Clip).
 func clip(b []byte) string {
 	if len(b) > 40 {
-		return string(b[:40]) + "..."
+		return source.Clip(string(b[:min(len(b), 48)]), 40)
 	}
 	return string(b)
 }
@@ -96,7 +98,7 @@ func (t *tokenizer) split(line []byte) ([][]byte, string) {
 			sp.end = i
 		}
 		if len(spans) == limit {
-			return nil, "want \"source target [weight]\", found more than 3 fields"
+			return nil, "want \"source target [weight]\", found more than 3 fields (choose columns to read a wider table)"
 		}
 		spans = append(spans, sp)
 		// Separator: white space, optionally one comma.
@@ -114,7 +116,7 @@ func (t *tokenizer) split(line []byte) ([][]byte, string) {
 			if i == n {
 				// A trailing comma leaves an empty last field.
 				if len(spans) == limit {
-					return nil, "want \"source target [weight]\", found more than 3 fields"
+					return nil, "want \"source target [weight]\", found more than 3 fields (choose columns to read a wider table)"
 				}
 				spans = append(spans, span{start: i, end: i})
 				break
@@ -183,11 +185,7 @@ var (
 )
 
 // headerMsg returns the error message for the first non-comment line of an
-// edge list when it looks like a CSV header, or "". It is a header when
-//   - its first two fields are one of headerPairs, unless it is exactly
-//     three fields whose third is a number (an edge with a weight), or
-//   - it has exactly three fields and the third is one of headerWeights
-//     (no edge has a weight that is a word).
+// edge list when it looks like a CSV header, or "".
 func headerMsg(line []byte) string {
 	if len(line) > maxLineBytes {
 		return ""
@@ -195,8 +193,21 @@ func headerMsg(line []byte) string {
 	var t tokenizer
 	t.unlimited = true
 	f, msg := t.split(line)
-	if msg != "" || len(f) < 2 {
+	if msg != "" || !isHeader(f) {
 		return ""
+	}
+	return headerText(line)
+}
+
+// isHeader reports whether the fields of a first line are column names.
+// They are when
+//   - the first two fields are one of headerPairs, unless there are exactly
+//     three fields and the third is a number (an edge with a weight), or
+//   - there are exactly three fields and the third is one of headerWeights
+//     (no edge has a weight that is a word).
+func isHeader(f [][]byte) bool {
+	if len(f) < 2 {
+		return false
 	}
 	header := false
 	for _, p := range headerPairs {
@@ -214,8 +225,29 @@ func headerMsg(line []byte) string {
 			}
 		}
 	}
-	if !header {
-		return ""
-	}
-	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header line; remove it or comment it out with #"
+	return header
 }
+
+// headerText is the message for a header row where none is expected.
+func headerText(line []byte) string {
+	return strconv.Quote(clip(bytes.TrimSpace(line))) + " looks like a header row; choose the columns by name to read it, or comment it out with #"
+}
+
+// NameProblem says what is wrong with a state name read from a table or
+// design file ("" when nothing is): empty, longer than MaxNameBytes, or
+// holding a control character (a byte below 0x20 other than tab, or 0x7f),
+// as the network readers refuse them.
+func NameProblem(name string) string {
+	switch {
+	case name == "":
+		return "empty node name"
+	case len(name) > MaxNameBytes:
+		return "node name of " + strconv.Itoa(len(name)) + " bytes; the limit is " + strconv.Itoa(MaxNameBytes)
+	}
+	return controlMsg(name)
+}
+
+// Clip shortens a value echoed in a message to at most 40 bytes (cut at
+// a character boundary, marked "..."), so that a 10 MB cell is not
+// repeated whole.
+func Clip(s string) string { return source.Clip(s, 40) }

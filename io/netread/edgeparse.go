@@ -50,22 +50,54 @@ type block struct {
 	buf   []byte // backing store of data
 	tok   tokenizer
 	b     *structural.Builder // for LookupInt while parsing; nil in lineOfEdge
+	lf    *lineFormat
 }
 
-// readEdgeList parses "source target [weight]" lines into b.
-func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights bool) error {
+// isoTok in place of an edge's target marks a line that declares an
+// isolated state (a single name).
+const isoTok = math.MinInt32
+
+// readEdgeList parses "source target [weight]" lines, or the rows of a
+// table (see Columns), into b.
+func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Options) error {
 	// A byte-order mark, as some editors write, is not part of the first
 	// name; r reads decompressed bytes, so this holds for gzip input too.
 	if p, _ := r.Peek(len(utf8BOM)); string(p) == utf8BOM {
 		r.Discard(len(utf8BOM))
 	}
+	weights := opt.Weights
+	lf, head, err := chooseFormat(r, file, opt)
+	if err != nil {
+		return err
+	}
+	// Lines up to the header row (comments, then the header) are read
+	// here; the blocks start after them.
+	line0 := 0
+	for line0 < head {
+		if _, err := r.ReadSlice('\n'); err != nil {
+			break
+		}
+		line0++
+	}
+	hd := headerState{done: !lf.plain}
 	rd := &blockReader{r: r}
-	var hd headerState
-	first := newBlock(b)
+	newBlock := func(b *structural.Builder) *block {
+		blk := newBlockSized(b, blockBytes)
+		blk.lf = lf
+		return blk
+	}
+	// An input that fits in the read buffer gets a first block its size.
+	var first *block
+	if p, err := r.Peek(r.Size()); err != nil && len(p) < blockBytes {
+		first = newBlockSized(b, len(p)+1)
+		first.lf = lf
+	} else {
+		first = newBlock(b)
+	}
 	rd.fill(first)
 	if first.readErr != nil || rd.eof || parseWorkers == 1 {
 		// Small input, or sequential on request: parse in turn.
-		line := 0
+		line := line0
 		blk := first
 		for {
 			parseBlock(blk, weights)
@@ -117,8 +149,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 			rd.fill(blk)
 		}
 	}()
-	line := 0
-	var err error
+	line := line0
 	for blk := range order {
 		<-blk.done
 		if err == nil {
@@ -141,11 +172,13 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, weights b
 
 var errStop = errors.New("stop")
 
-func newBlock(b *structural.Builder) *block {
-	// A line of an edge is at least 4 bytes ("1 2\n"): toks never grows
-	// past this capacity, of which only the part used is ever touched.
-	return &block{buf: make([]byte, blockBytes), done: make(chan struct{}, 1), b: b,
-		toks: make([]int32, 0, blockBytes/2)}
+// newBlockSized returns a block of size bytes.
+func newBlockSized(b *structural.Builder, size int) *block {
+	// A line of an edge is at least 4 bytes ("1 2\n"): toks rarely grows
+	// past this capacity (lines of one short name can make it), of which
+	// only the part used is ever touched.
+	return &block{buf: make([]byte, size), done: make(chan struct{}, 1), b: b,
+		toks: make([]int32, 0, size/2+2)}
 }
 
 // blockReader cuts its input into blocks of whole lines.
@@ -210,14 +243,14 @@ func parseBlock(blk *block, weights bool) {
 		}
 		blk.lines++
 		if blk.tooLong && data == nil {
-			blk.err = errorf("", blk.lines, "line longer than %d bytes", maxLineBytes)
+			blk.err = errorf("", blk.lines, "line longer than %d bytes", blk.maxLine())
 			return
 		}
 		if n := len(line); n > 0 && line[n-1] == '\r' {
 			line = line[:n-1]
 		}
-		if len(line) > maxLineBytes {
-			blk.err = errorf("", blk.lines, "line longer than %d bytes", maxLineBytes)
+		if len(line) > blk.maxLine() {
+			blk.err = errorf("", blk.lines, "line longer than %d bytes", blk.maxLine())
 			return
 		}
 		if msg := blk.parseLine(line, weights); msg != "" {
@@ -227,8 +260,19 @@ func parseBlock(blk *block, weights bool) {
 	}
 }
 
+// maxLine is the longest line of the block's format.
+func (blk *block) maxLine() int {
+	if blk.lf == nil || blk.lf.plain {
+		return maxLineBytes
+	}
+	return maxTableLineBytes
+}
+
 // parseLine adds the edge on one line, if any, or returns a message.
 func (blk *block) parseLine(line []byte, weights bool) string {
+	if blk.lf != nil && !blk.lf.plain {
+		return blk.tableLine(line, weights)
+	}
 	// Fast path: two or three unquoted fields.
 	i, n := 0, len(line)
 	for i < n && isSpace(line[i]) {
@@ -293,7 +337,11 @@ func (blk *block) slowLine(line []byte, weights bool) string {
 	case 0:
 		return ""
 	case 1:
-		return "want \"source target [weight]\", found one field " + strconv.Quote(clip(fields[0]))
+		// A single name declares an isolated state, unless it holds a
+		// semicolon: then the file is most likely separated by them.
+		if bytes.IndexByte(line, ';') >= 0 && hasUnquoted(line, ';') {
+			return "one name " + strconv.Quote(clip(fields[0])) + " holding a semicolon: quote it to declare an isolated state, or set the separator to semicolon"
+		}
 	case 2, 3:
 	default:
 		return "want \"source target [weight]\", found " + strconv.Itoa(len(fields)) + " fields"
@@ -301,9 +349,14 @@ func (blk *block) slowLine(line []byte, weights bool) string {
 	return blk.addFields(fields, weights)
 }
 
-// addFields checks the fields of an edge line and records the edge.
+// addFields checks the fields of an edge line and records the edge; a
+// single field declares an isolated state.
 func (blk *block) addFields(fields [][]byte, weights bool) string {
-	for _, f := range fields[:2] {
+	ends := fields
+	if len(ends) > 2 {
+		ends = ends[:2]
+	}
+	for _, f := range ends {
 		if len(f) == 0 {
 			return "empty node name"
 		}
@@ -322,7 +375,7 @@ func (blk *block) addFields(fields [][]byte, weights bool) string {
 		}
 		w = x
 	}
-	for _, f := range fields[:2] {
+	for _, f := range ends {
 		if v, ok := decimalValue(f); ok {
 			// A name already interned (in an earlier block) resolves
 			// now, in parallel; the rest waits for the in-order merge.
@@ -341,6 +394,9 @@ func (blk *block) addFields(fields [][]byte, weights bool) string {
 		blk.offs = append(blk.offs, int32(len(blk.arena)))
 		blk.arena = append(blk.arena, f...)
 		blk.offs = append(blk.offs, int32(len(blk.arena)))
+	}
+	if len(ends) == 1 {
+		blk.toks = append(blk.toks, isoTok)
 	}
 	if weights {
 		blk.ws = append(blk.ws, w)
@@ -423,6 +479,9 @@ func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, li
 		if err != nil {
 			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)
 		}
+		if toks[e+1] == isoTok {
+			continue
+		}
 		v, err := blk.intern(b, toks[e+1])
 		if err != nil {
 			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)
@@ -466,7 +525,7 @@ func (blk *block) intern(b *structural.Builder, t int32) (int32, error) {
 
 // lineOfEdge returns the line, counted within blk, that holds edge k.
 func (blk *block) lineOfEdge(k int, weights bool) int {
-	scratch := &block{} // no Builder: every name stays pending
+	scratch := &block{lf: blk.lf} // no Builder: every name stays pending
 	data, line := blk.data, 0
 	for len(data) > 0 {
 		var l []byte

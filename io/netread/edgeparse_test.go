@@ -13,6 +13,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
 )
@@ -41,7 +42,7 @@ func readLines(r *bufio.Reader, file string, b *structural.Builder, weights bool
 			if f, _ := ht.split(line); len(f) > 0 {
 				first = false
 				if refHeader(f) {
-					return errorf(file, lr.line, "%q looks like a header line; remove it or comment it out with #", clip(bytes.TrimSpace(line)))
+					return errorf(file, lr.line, "%q looks like a header row; choose the columns by name to read it, or comment it out with #", clip(bytes.TrimSpace(line)))
 				}
 			}
 		}
@@ -60,7 +61,20 @@ func readLines(r *bufio.Reader, file string, b *structural.Builder, weights bool
 		case 0:
 			continue
 		case 1:
-			return errorf(file, lr.line, "want \"source target [weight]\", found one field %q", clip(fields[0]))
+			// One name: an isolated state, unless it holds a semicolon.
+			if strings.Contains(string(line), ";") && !strings.HasPrefix(strings.TrimSpace(string(line)), "\"") {
+				return errorf(file, lr.line, "one name %q holding a semicolon: quote it to declare an isolated state, or set the separator to semicolon", clip(fields[0]))
+			}
+			if len(fields[0]) == 0 {
+				return errorf(file, lr.line, "empty node name")
+			}
+			if len(fields[0]) > MaxNameBytes {
+				return errorf(file, lr.line, "node name of %d bytes; the limit is %d", len(fields[0]), MaxNameBytes)
+			}
+			if _, err := b.Intern(fields[0]); err != nil {
+				return errorf(file, lr.line, "%v", err)
+			}
+			continue
 		case 2, 3:
 		default:
 			return errorf(file, lr.line, "want \"source target [weight]\", found %d fields", len(fields))
@@ -124,7 +138,7 @@ func readWith(data []byte, block, workers int, opt Options) (*structural.Network
 	defer func(b, w int) { blockBytes, parseWorkers = b, w }(blockBytes, parseWorkers)
 	blockBytes, parseWorkers = block, workers
 	if workers == 0 {
-		br, err := maybeGunzip(bytes.NewReader(data), "in")
+		br, err := maybeGunzip(source.NewDigest(bytes.NewReader(data)), "in", opt)
 		if err != nil {
 			return nil, err
 		}
@@ -134,7 +148,7 @@ func readWith(data []byte, block, workers int, opt Options) (*structural.Network
 		}
 		return finish(b, "in", opt)
 	}
-	return Read(bytes.NewReader(data), "in", opt)
+	return readNet(bytes.NewReader(data), "in", opt)
 }
 
 // sameNetwork reports the first difference between two networks: state
@@ -291,7 +305,7 @@ func TestBlockParserErrors(t *testing.T) {
 	comments := strings.Repeat("# only a comment\n", 2000)
 	long := strings.Repeat("y", maxLineBytes+1)
 	for _, bad := range []string{
-		"lonely\n", "a b c d\n", "a,,b\n", "\"x y\n", "a\"b c\n", "\"a\"b c\n",
+		"\"\"\n", "a b c d\n", "a,,b\n", "\"x y\n", "a\"b c\n", "\"a\"b c\n",
 		"a b 0\n", "a b nan\n", "a b 1e999\n", "a b,\n", "a,b,1,\n",
 		strings.Repeat("n", MaxNameBytes+1) + " b\n", long + "\n", long,
 		// Control characters, bare and quoted, in either name.

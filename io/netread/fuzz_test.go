@@ -2,6 +2,7 @@ package netread
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"os"
 	"path/filepath"
 	"slices"
@@ -26,26 +27,11 @@ func fuzzOptions(format Format, flags uint8) Options {
 }
 
 func fuzzRead(t *testing.T, format Format, data []byte, flags uint8) {
-	if flags&8 != 0 {
-		data = gzipBytes(data)
-	}
-	g, err := Read(bytes.NewReader(data), "fuzz", fuzzOptions(format, flags))
-	if err != nil {
-		e, ok := err.(*Error)
-		if !ok {
-			t.Fatalf("error %v is a %T, want *netread.Error", err, err)
-		}
-		if strings.ContainsAny(e.Error(), "\r\n") {
-			t.Fatalf("error text has a line break: %q", e.Error())
-		}
-		if e.File != "fuzz" || e.Line < 0 {
-			t.Fatalf("error %q names file %q line %d", e.Error(), e.File, e.Line)
-		}
+	in := fuzzReadOpt(t, data, flags, fuzzOptions(format, flags))
+	if in == nil {
 		return
 	}
-	if err := checkNetwork(g); err != nil {
-		t.Fatalf("invalid network: %v", err)
-	}
+	g := in.Network
 	if flags&4 != 0 && g.SelfLoops() != g.N() {
 		t.Fatalf("self-dynamics: %d self-loops for %d states", g.SelfLoops(), g.N())
 	}
@@ -143,5 +129,124 @@ func FuzzDOT(f *testing.F) {
 	addFileSeeds(f, "*.dot")
 	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
 		fuzzRead(t, DOT, data, flags)
+	})
+}
+
+// fuzzReadOpt reads data with opt (gzip-compressed when flags say so)
+// and checks what every read must deliver; it returns the input read, or
+// nil after an error.
+func fuzzReadOpt(t *testing.T, data []byte, flags uint8, opt Options) *Input {
+	if flags&8 != 0 {
+		data = gzipBytes(data)
+	}
+	in, err := Read(bytes.NewReader(data), "fuzz", opt)
+	if err != nil {
+		e, ok := err.(*Error)
+		if !ok {
+			t.Fatalf("error %v is a %T, want *netread.Error", err, err)
+		}
+		if strings.ContainsAny(e.Error(), "\r\n") || len(e.Error()) > 2000 {
+			t.Fatalf("error text has a line break or is long: %.300q", e.Error())
+		}
+		if e.File != "fuzz" || e.Line < 0 {
+			t.Fatalf("error %q names file %q line %d", e.Error(), e.File, e.Line)
+		}
+		return nil
+	}
+	if err := checkNetwork(in.Network); err != nil {
+		t.Fatalf("invalid network: %v", err)
+	}
+	if in.Size != int64(len(data)) || in.SHA256 != sha256.Sum256(data) {
+		t.Fatalf("digest covers %d of %d bytes", in.Size, len(data))
+	}
+	for _, s := range [][]string{in.Labels, in.Groups} {
+		if s != nil && len(s) != in.Network.N() {
+			t.Fatalf("%d labels or groups for %d states", len(s), in.Network.N())
+		}
+	}
+	return in
+}
+
+// addDirSeeds adds the files of a testdata subdirectory matching pattern.
+func addDirSeeds(f *testing.F, pattern string) {
+	paths, _ := filepath.Glob(filepath.Join("testdata", "networkx", pattern))
+	for _, p := range paths {
+		b, err := os.ReadFile(p)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(b, uint8(0))
+		f.Add(b, uint8(1))
+	}
+}
+
+// FuzzTable reads delimited tables with columns chosen by the flags.
+func FuzzTable(f *testing.F) {
+	for _, s := range []string{
+		"s,t,w\na,b,1\nc\n", "x;t;s\n1;a;b\n", "\"s\"\t\"t\"\n\"a b\"\tc\n", "a b;c d\n",
+		"s,t\n\"a,b\n", "s,t,t\n", "a,b;c\n", "S T\nx y\n", "# c\n\ns,t,w\na,b,\n",
+	} {
+		for _, fl := range []uint8{0, 16, 32, 48, 64, 128, 192} {
+			f.Add([]byte(s), fl)
+		}
+	}
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		opt := fuzzOptions(EdgeList, flags)
+		switch flags >> 4 & 3 {
+		case 1:
+			opt.Columns = &Columns{Names: []string{"s", "t", "w"}}
+		case 2:
+			opt.Columns = &Columns{Positions: []int{2, 1}}
+		case 3:
+			opt.Columns = &Columns{Names: []string{"t", "s"}}
+		}
+		opt.Separator = []Separator{DetectSeparator, Comma, Semicolon, Whitespace}[flags>>6]
+		fuzzReadOpt(t, data, flags, opt)
+	})
+}
+
+func FuzzGraphML(f *testing.F) {
+	f.Add([]byte(graphmlHead+`<graph edgedefault="undirected"><node id="a"><data key="l">A</data></node><node id="b"/><edge source="a" target="b" directed="true"><data key="w">3</data></edge></graph></graphml>`), uint8(1))
+	f.Add([]byte(`<graphml><graph><edge source="a" target="b"/></graph></graphml>`), uint8(0))
+	addDirSeeds(f, "*.graphml")
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		fuzzRead(t, GraphML, data, flags)
+	})
+}
+
+func FuzzGML(f *testing.F) {
+	f.Add([]byte("graph [ directed 1 node [ id 0 label \"a&#38;b\" ] node [ id 1 ] edge [ source 0 target 1 weight 2 ] ]"), uint8(1))
+	f.Add([]byte("Creator \"x\"\ngraph\n[\n node [ id 1 name \"p\" group 3 ]\n]\n"), uint8(0))
+	addDirSeeds(f, "*.gml")
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		fuzzRead(t, GML, data, flags)
+	})
+}
+
+func FuzzPajek(f *testing.F) {
+	f.Add([]byte("*Vertices 3\n1 \"a b\" 0 0\n2 c\n*Arcs\n1 2 2\n*Edges\n2 3\n*Arcslist\n1 2 3\n"), uint8(1))
+	f.Add([]byte("% c\n*network x\n*vertices 2 1\n*edgeslist\n1 2\n"), uint8(0))
+	addDirSeeds(f, "*.net")
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		fuzzRead(t, Pajek, data, flags)
+	})
+}
+
+func FuzzNodeLinkJSON(f *testing.F) {
+	f.Add([]byte(`{"directed": true, "nodes": [{"id": "a", "label": "A", "group": 2}, {"id": 1}], "links": [{"source": "a", "target": 1, "weight": 1.5}]}`), uint8(1))
+	f.Add([]byte(`{"nodes": [{"id": 1}], "edges": [{"source": 1, "target": 1}], "graph": {"x": [1, {"y": null}]}}`), uint8(0))
+	addDirSeeds(f, "*.json")
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		fuzzRead(t, NodeLinkJSON, data, flags)
+	})
+}
+
+// FuzzSniff reads with no format given: whatever the content announces.
+func FuzzSniff(f *testing.F) {
+	for _, s := range []string{"%%MatrixMarket matrix coordinate pattern general\n2 2 1\n1 2\n", "digraph { a -> b }", "graph [ ]", "*Vertices 1\n", "{\"nodes\": []}", "<?xml version=\"1.0\"?><graphml/>", "a b\n"} {
+		f.Add([]byte(s), uint8(0))
+	}
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		fuzzRead(t, "", data, flags)
 	})
 }

@@ -5,6 +5,7 @@ import (
 	"compress/gzip"
 	"errors"
 	"fmt"
+	"io"
 	"slices"
 	"sort"
 	"strings"
@@ -177,7 +178,7 @@ func runReadCases(t *testing.T, format Format, cases []readCase) {
 		t.Run(c.name, func(t *testing.T) {
 			opt := c.opt
 			opt.Format = format
-			g, err := Read(strings.NewReader(c.in), "net", opt)
+			g, err := readNet(strings.NewReader(c.in), "net", opt)
 			if c.err != "" {
 				if err == nil {
 					t.Fatalf("got no error, want %q at line %d", c.err, c.line)
@@ -210,4 +211,22 @@ func runReadCases(t *testing.T, format Format, cases []readCase) {
 			}
 		})
 	}
+}
+
+// readNet is Read for tests that look at the network only.
+func readNet(r io.Reader, file string, opt Options) (*structural.Network, error) {
+	in, err := Read(r, file, opt)
+	if err != nil {
+		return nil, err
+	}
+	return in.Network, nil
+}
+
+// readFileNet is ReadFile for tests that look at the network only.
+func readFileNet(path string, opt Options) (*structural.Network, error) {
+	in, err := ReadFile(path, opt)
+	if err != nil {
+		return nil, err
+	}
+	return in.Network, nil
 }

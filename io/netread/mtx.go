@@ -48,7 +48,7 @@ func maxStatesFor(entries int64) int64 {
 
 // readMatrixMarket reads a Matrix Market coordinate file: entry (i, j) is
 // the edge j -> i between the states named "j" and "i".
-func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*structural.Network, error) {
+func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	lr := &lineReader{r: r, file: file, max: mtxMaxLine}
 	h, err := readMTXHeader(lr)
 	if err != nil {
@@ -147,9 +147,9 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*structural.Ne
 	}
 	g, err := b.Build(opt.Build)
 	if err != nil {
-		return nil, &Error{File: file, Msg: trimStructural(err.Error())}
+		return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
 	}
-	return g, nil
+	return &parsed{g: g}, nil
 }
 
 // readMTXHeader reads the banner, the comments and the size line, and

@@ -146,11 +146,11 @@ func TestMatrixMarketMatchesEdgeList(t *testing.T) {
 	for i := range all {
 		all[i] = fmt.Sprint(i + 1)
 	}
-	gm, err := Read(&mtx, "m.mtx", Options{Format: MatrixMarket, Weights: true})
+	gm, err := readNet(&mtx, "m.mtx", Options{Format: MatrixMarket, Weights: true})
 	if err != nil {
 		t.Fatal(err)
 	}
-	ge, err := Read(&el, "e.edges", Options{Weights: true, States: all})
+	ge, err := readNet(&el, "e.edges", Options{Weights: true, States: all})
 	if err != nil {
 		t.Fatal(err)
 	}

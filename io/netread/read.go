@@ -7,10 +7,12 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/structural"
 )
 
@@ -25,24 +27,40 @@ const (
 	EdgeList     Format = "edges"
 	MatrixMarket Format = "mtx"
 	DOT          Format = "dot"
+	GraphML      Format = "graphml"
+	GML          Format = "gml"
+	Pajek        Format = "pajek"
+	NodeLinkJSON Format = "json"
 )
 
 // Formats lists the accepted format names, for help texts.
-var Formats = []Format{EdgeList, MatrixMarket, DOT}
+var Formats = []Format{EdgeList, MatrixMarket, DOT, GraphML, GML, Pajek, NodeLinkJSON}
 
-// Error is a problem found in an input file.
+// Error is a problem found in an input file. It prints as "FILE:LINE:
+// message" (or "FILE: message" when no line is at fault).
 type Error struct {
 	File string
 	Line int // 1-based; 0 when the problem is not tied to a line
 	Msg  string
+	// Err is the cause when there is one (an *fs.PathError for a file
+	// that cannot be opened, say), so that errors.Is(err, fs.ErrNotExist)
+	// works; nil otherwise.
+	Err error
 }
 
 func (e *Error) Error() string {
-	if e.Line > 0 {
-		return fmt.Sprintf("%s:%d: %s", e.File, e.Line, e.Msg)
+	msg := e.Msg
+	if msg == "" && e.Err != nil {
+		msg = e.Err.Error()
 	}
-	return fmt.Sprintf("%s: %s", e.File, e.Msg)
+	if e.Line > 0 {
+		return fmt.Sprintf("%s:%d: %s", e.File, e.Line, msg)
+	}
+	return fmt.Sprintf("%s: %s", e.File, msg)
 }
+
+// Unwrap returns the cause.
+func (e *Error) Unwrap() error { return e.Err }
 
 func errorf(file string, line int, format string, args ...any) *Error {
 	return &Error{File: file, Line: line, Msg: fmt.Sprintf(format, args...)}
@@ -50,27 +68,82 @@ func errorf(file string, line int, format string, args ...any) *Error {
 
 // Options control reading.
 type Options struct {
-	// Format forces a format; empty means by extension (.mtx; .dot, .gv;
-	// anything else is an edge list), looking through a .gz suffix.
+	// Format forces a format. Empty means: an edge list or table when
+	// Columns or Separator is set; else by content when the content
+	// says (a Matrix Market banner, a DOT graph, GraphML, GML, Pajek or
+	// node-link JSON), else by the file name's extension (looking through
+	// a .gz suffix; see FormatOf), else an edge list.
 	Format Format
 	// Build is passed to structural.Builder.Build.
 	Build structural.BuildOptions
 	// Weights keeps edge weights (the third column of an edge list, the
-	// values of a Matrix Market file, the weight attribute in DOT).
+	// values of a Matrix Market file, the WeightKey attribute of DOT,
+	// GraphML, GML and node-link JSON, the value on a Pajek arc).
 	Weights bool
+	// WeightKey names the edge attribute that holds the weight in DOT,
+	// GraphML (the key's attr.name), GML and node-link JSON; empty means
+	// "weight".
+	WeightKey string
 	// States names extra states that exist even with no edge (from a node
 	// table, say). For Matrix Market files they must be indices 1..N.
 	States []string
+	// Columns selects the source, target and weight columns of a
+	// delimited table (edge lists only); nil keeps the plain edge-list
+	// format. See Columns.
+	Columns *Columns
+	// Separator sets the field separator of an edge list or table; the
+	// zero value detects it (see Separator).
+	Separator Separator
+	// MaxInflateRatio bounds gzip decompression: reading stops with an
+	// error once the decompressed data exceed InflateAllowance bytes and
+	// this many times the compressed bytes read so far. 0 means
+	// DefaultMaxInflateRatio; a negative value removes the bound.
+	MaxInflateRatio float64
+	// Stdin is what the path "-" reads. nil means os.Stdin.
+	Stdin io.Reader
 }
 
-// FormatOf returns the format implied by a file name.
+// Input is a network as read, with what the file said besides the edges
+// and a digest of the bytes it came from.
+type Input struct {
+	Network *structural.Network
+	// Format is the format actually read: forced by Options.Format,
+	// recognised by content, or implied by the extension.
+	Format Format
+	// Labels holds a display label per state index ("" where none), from
+	// DOT label attributes, GraphML, GML and node-link JSON label data or
+	// Pajek vertex labels that are not used as names; nil when the file
+	// has none.
+	Labels []string
+	// Groups holds a group per state index likewise (DOT, GraphML, GML
+	// and node-link JSON "group" attributes); nil when the file has none.
+	Groups []string
+	// SHA256 is the digest of the bytes read, before decompression: the
+	// whole file (or standard input) on success.
+	SHA256 [32]byte
+	// Size is the number of bytes read, before decompression.
+	Size int64
+}
+
+// FormatOf returns the format implied by a file name: .mtx Matrix Market;
+// .dot and .gv DOT; .graphml and .xml GraphML; .gml GML; .net and .paj
+// Pajek; .json node-link JSON; anything else an edge list. A .gz suffix
+// is looked through.
 func FormatOf(name string) Format {
-	name = strings.ToLower(strings.TrimSuffix(strings.ToLower(name), ".gz"))
+	name = strings.TrimSuffix(strings.ToLower(name), ".gz")
 	switch filepath.Ext(name) {
 	case ".mtx":
 		return MatrixMarket
 	case ".dot", ".gv":
 		return DOT
+	case ".graphml", ".xml":
+		return GraphML
+	case ".gml":
+		return GML
+	case ".net", ".paj":
+		return Pajek
+	case ".json":
+		return NodeLinkJSON
 	}
 	return EdgeList
 }
@@ -83,62 +156,147 @@ func ParseFormat(s string) (Format, error) {
 		}
 	}
 	switch s {
-	case "edgelist", "edge-list", "txt", "tsv", "csv":
+	case "edgelist", "edge-list", "txt", "tsv", "csv", "table":
 		return EdgeList, nil
 	case "matrix-market", "mm":
 		return MatrixMarket, nil
 	case "gv":
 		return DOT, nil
+	case "xml":
+		return GraphML, nil
+	case "net", "paj":
+		return Pajek, nil
+	case "node-link", "nodelink":
+		return NodeLinkJSON, nil
 	}
-	return "", fmt.Errorf("netread: unknown format %q (want edges, mtx or dot)", s)
+	return "", fmt.Errorf("netread: unknown format %q (want edges, mtx, dot, graphml, gml, pajek or json)", s)
 }
 
-// ReadFile reads the network in path; "-" reads standard input.
-func ReadFile(path string, opt Options) (*structural.Network, error) {
+// Open opens path for one of the io readers: "-" is stdin (os.Stdin when
+// stdin is nil) and is named "stdin" in messages. what says what the file
+// should be, for the message about a directory ("network file", say). A
+// file that cannot be opened gives an *Error wrapping the cause.
+func Open(path string, stdin io.Reader, what string) (io.ReadCloser, string, error) {
 	if path == "-" {
-		return Read(os.Stdin, "stdin", opt)
+		if stdin == nil {
+			stdin = os.Stdin
+		}
+		return io.NopCloser(stdin), "stdin", nil
 	}
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, &Error{File: path, Msg: strings.TrimPrefix(err.Error(), "open "+path+": ")}
+		msg := err.Error()
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			msg = pe.Err.Error()
+		}
+		return nil, path, &Error{File: path, Msg: msg, Err: err}
 	}
-	defer f.Close()
 	if st, err := f.Stat(); err == nil && st.IsDir() {
-		return nil, &Error{File: path, Msg: "is a directory, not a network file"}
+		f.Close()
+		return nil, path, &Error{File: path, Msg: "is a directory, not a " + what}
 	}
-	if opt.Format == "" {
-		opt.Format = FormatOf(path)
-	}
-	return Read(f, path, opt)
+	return f, path, nil
 }
 
-// Read reads a network from r; file names the source in error messages.
-// Without opt.Format the input is read as an edge list.
-func Read(r io.Reader, file string, opt Options) (*structural.Network, error) {
-	br, err := maybeGunzip(r, file)
+// ReadFile reads the network in path; "-" reads opt.Stdin.
+func ReadFile(path string, opt Options) (*Input, error) {
+	f, name, err := Open(path, opt.Stdin, "network file")
 	if err != nil {
 		return nil, err
 	}
-	switch opt.Format {
-	case MatrixMarket:
-		return readMatrixMarket(br, file, opt)
-	case DOT:
-		return readDOT(br, file, opt)
-	case EdgeList, "":
-		b := structural.NewBuilder()
-		if err := readEdgeList(br, file, b, opt.Weights); err != nil {
-			return nil, err
-		}
-		return finish(b, file, opt)
+	defer f.Close()
+	return Read(f, name, opt)
+}
+
+// Read reads a network from r; file names the source in error messages,
+// and its extension chooses the format when neither opt.Format nor the
+// content does.
+func Read(r io.Reader, file string, opt Options) (*Input, error) {
+	d := source.NewDigest(r)
+	br, err := maybeGunzip(d, file, opt)
+	if err != nil {
+		return nil, err
 	}
-	return nil, &Error{File: file, Msg: fmt.Sprintf("unknown format %q", opt.Format)}
+	// A byte-order mark, as some editors write, belongs to no format.
+	if p, _ := br.Peek(len(utf8BOM)); string(p) == utf8BOM {
+		br.Discard(len(utf8BOM))
+	}
+	in := &Input{Format: opt.Format}
+	if in.Format == "" && (opt.Columns != nil || opt.Separator != DetectSeparator) {
+		in.Format = EdgeList // columns or a separator say it is a table
+	}
+	if in.Format == "" {
+		p, _ := br.Peek(sniffBytes)
+		in.Format = Sniff(p)
+		if in.Format == "" {
+			in.Format = FormatOf(file)
+		}
+	}
+	if in.Format != EdgeList && (opt.Columns != nil || opt.Separator != DetectSeparator) {
+		return nil, &Error{File: file, Msg: fmt.Sprintf("columns and separators apply to edge lists and tables; this is read as %s", in.Format)}
+	}
+	var res *parsed
+	switch in.Format {
+	case MatrixMarket:
+		res, err = readMatrixMarket(br, file, opt)
+	case DOT:
+		res, err = readDOT(br, file, opt)
+	case GraphML:
+		res, err = readGraphML(br, file, opt)
+	case GML:
+		res, err = readGML(br, file, opt)
+	case Pajek:
+		res, err = readPajek(br, file, opt)
+	case NodeLinkJSON:
+		res, err = readJSON(br, file, opt)
+	case EdgeList:
+		res, err = readEdges(br, file, opt)
+	default:
+		return nil, &Error{File: file, Msg: fmt.Sprintf("unknown format %q", opt.Format)}
+	}
+	if err != nil {
+		return nil, err
+	}
+	// Every reader stops at the end of its input; make sure of it, so that
+	// the digest covers every byte.
+	if p, err := br.Peek(1); len(p) > 0 {
+		return nil, &Error{File: file, Msg: "data after the end of the network"}
+	} else if err != nil && err != io.EOF {
+		return nil, readError(file, 0, err)
+	}
+	if err := d.Drain(); err != nil {
+		return nil, readError(file, 0, err)
+	}
+	in.Network, in.Labels, in.Groups = res.g, res.labels, res.groups
+	in.SHA256, in.Size = d.Sum(), d.Size()
+	return in, nil
+}
+
+// parsed is what a format reader returns.
+type parsed struct {
+	g              *structural.Network
+	labels, groups []string
+}
+
+// readError turns a read failure into an *Error at line (0: none),
+// keeping an *Error the input layers made (gzip, limits) as it is.
+func readError(file string, line int, err error) *Error {
+	var e *Error
+	if errors.As(err, &e) {
+		if e.Line == 0 {
+			e.Line = line
+		}
+		return e
+	}
+	return &Error{File: file, Line: line, Msg: oneLineMsg(err.Error()), Err: err}
 }
 
 // finish adds the extra states and builds the network.
 func finish(b *structural.Builder, file string, opt Options) (*structural.Network, error) {
 	for _, s := range opt.States {
 		if _, err := b.Intern([]byte(s)); err != nil {
-			return nil, &Error{File: file, Msg: err.Error()}
+			return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
 		}
 	}
 	if b.States() == 0 {
@@ -146,21 +304,59 @@ func finish(b *structural.Builder, file string, opt Options) (*structural.Networ
 	}
 	g, err := b.Build(opt.Build)
 	if err != nil {
-		return nil, &Error{File: file, Msg: strings.TrimPrefix(err.Error(), "structural: ")}
+		return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
 	}
 	return g, nil
 }
 
-// gzipReadErr wraps decompression errors with the file name.
+// padded returns s extended with "" to n entries, or nil when s holds
+// nothing but "".
+func padded(s []string, n int) []string {
+	any := false
+	for _, x := range s {
+		any = any || x != ""
+	}
+	if !any {
+		return nil
+	}
+	if len(s) < n {
+		s = append(s, make([]string, n-len(s))...)
+	}
+	return s[:n]
+}
+
+// Gzip bounds. A stream may expand to InflateAllowance bytes freely, and
+// beyond that to MaxInflateRatio times the compressed bytes read so far.
+// Real edge lists compress 3 to 10 times (10^8 edges of integer names, 1.6
+// GB of text, read well within the bound); a stream of blank lines
+// compresses a thousand times and is stopped soon after the allowance.
+const (
+	DefaultMaxInflateRatio = 100
+	InflateAllowance       = 256 << 20
+)
+
+// inflateAllowance is InflateAllowance; tests lower it.
+var inflateAllowance int64 = InflateAllowance
+
+// gzipReader wraps decompression errors with the file name and enforces
+// the inflation bound.
 type gzipReader struct {
-	r    io.Reader
-	file string
+	r     io.Reader
+	raw   *source.Digest
+	file  string
+	ratio float64 // < 0: no bound
+	out   int64
 }
 
 func (g *gzipReader) Read(p []byte) (int, error) {
 	n, err := g.r.Read(p)
+	g.out += int64(n)
+	if g.ratio >= 0 && g.out > inflateAllowance && float64(g.out) > g.ratio*float64(g.raw.Size()) {
+		return 0, &Error{File: g.file, Msg: fmt.Sprintf("gzip: the data expand more than %g times past the first %d MiB (%d MiB from %d KiB so far): refused as a likely decompression bomb; raise the inflation limit to read it",
+			g.ratio, inflateAllowance>>20, g.out>>20, g.raw.Size()>>10)}
+	}
 	if err != nil && err != io.EOF {
-		err = &Error{File: g.file, Msg: gzipMsg(err)}
+		err = &Error{File: g.file, Msg: gzipMsg(err), Err: err}
 	}
 	return n, err
 }
@@ -170,18 +366,28 @@ func gzipMsg(err error) string {
 	if err == io.ErrUnexpectedEOF {
 		return "gzip: the compressed stream ends early (truncated file?)"
 	}
-	return "gzip: " + err.Error()
+	return "gzip: " + oneLineMsg(err.Error())
 }
 
-func maybeGunzip(r io.Reader, file string) (*bufio.Reader, error) {
-	br := bufio.NewReaderSize(r, 1<<20)
+// readBuffer is the size of the input buffers: it holds what Sniff and
+// the table's first rows look at (large reads pass through it).
+const readBuffer = 256 << 10
+
+// maybeGunzip returns a buffered reader of the decompressed input when
+// it starts with the gzip magic bytes, of the input itself otherwise.
+func maybeGunzip(raw *source.Digest, file string, opt Options) (*bufio.Reader, error) {
+	br := bufio.NewReaderSize(raw, readBuffer)
 	magic, _ := br.Peek(2)
 	if len(magic) == 2 && magic[0] == 0x1f && magic[1] == 0x8b {
 		zr, err := gzip.NewReader(br)
 		if err != nil {
-			return nil, &Error{File: file, Msg: gzipMsg(err)}
+			return nil, &Error{File: file, Msg: gzipMsg(err), Err: err}
 		}
-		return bufio.NewReaderSize(&gzipReader{r: zr, file: file}, 1<<20), nil
+		ratio := opt.MaxInflateRatio
+		if ratio == 0 {
+			ratio = DefaultMaxInflateRatio
+		}
+		return bufio.NewReaderSize(&gzipReader{r: zr, raw: raw, file: file, ratio: ratio}, readBuffer), nil
 	}
 	return br, nil
 }
@@ -212,12 +418,7 @@ func (l *lineReader) next() ([]byte, error) {
 		s = l.long
 	}
 	if err != nil && err != io.EOF {
-		var e *Error
-		if errors.As(err, &e) {
-			e.Line = l.line
-			return nil, e
-		}
-		return nil, errorf(l.file, l.line, "%v", err)
+		return nil, readError(l.file, l.line, err)
 	}
 	if err == io.EOF && len(s) == 0 {
 		return nil, io.EOF

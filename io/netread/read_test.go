@@ -45,7 +45,7 @@ func TestReadFileFormats(t *testing.T) {
 		{"canal.dot", canalEdges},
 		{"canal.mtx", byIndex},
 	} {
-		g, err := ReadFile(filepath.Join("testdata", c.file), Options{})
+		g, err := readFileNet(filepath.Join("testdata", c.file), Options{})
 		if err != nil {
 			t.Errorf("%s: %v", c.file, err)
 			continue
@@ -80,8 +80,8 @@ func TestFormatOf(t *testing.T) {
 			t.Errorf("ParseFormat(%q): %v", s, err)
 		}
 	}
-	if _, err := ParseFormat("xml"); err == nil {
-		t.Errorf("ParseFormat(\"xml\") gave no error")
+	if _, err := ParseFormat("yaml"); err == nil {
+		t.Errorf("ParseFormat(\"yaml\") gave no error")
 	}
 }
 
@@ -95,7 +95,7 @@ func TestGzip(t *testing.T) {
 	}
 	for f, in := range inputs {
 		packed := gzipBytes([]byte(in))
-		g, err := Read(bytes.NewReader(packed), "plain-name", Options{Format: f})
+		g, err := readNet(bytes.NewReader(packed), "plain-name", Options{Format: f})
 		if err != nil {
 			t.Errorf("%s: %v", f, err)
 			continue
@@ -140,12 +140,12 @@ func TestGzip(t *testing.T) {
 // Read takes any reader (standard input in the CLI), reads an edge list
 // when no format is given, and names the source in errors.
 func TestReadStdin(t *testing.T) {
-	g, err := Read(strings.NewReader("x y\n"), "stdin", Options{})
+	g, err := readNet(strings.NewReader("x y\n"), "stdin", Options{})
 	if err != nil || g.N() != 2 || g.Edges() != 1 {
 		t.Fatalf("got %v, %v; want 2 states, 1 edge", g, err)
 	}
-	_, err = Read(strings.NewReader("x y\nz\n"), "stdin", Options{})
-	if err == nil || err.Error() != "stdin:2: want \"source target [weight]\", found one field \"z\"" {
+	_, err = Read(strings.NewReader("x y\nz z z z\n"), "stdin", Options{})
+	if err == nil || err.Error() != "stdin:2: want \"source target [weight]\", found more than 3 fields (choose columns to read a wider table)" {
 		t.Errorf("got %v", err)
 	}
 	_, err = Read(strings.NewReader("x y\n"), "stdin", Options{Format: "xml"})

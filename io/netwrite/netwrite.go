@@ -108,11 +108,13 @@ func WriteEdges(w io.Writer, g *structural.Network) error {
 	return bw.Flush()
 }
 
-// WriteNodeTable writes a node table listing every state of g.
+// WriteNodeTable writes a node table listing every state of g, each
+// marked isolated=yes: it exists whether or not an edge names it, so that
+// the table reads back with the network without errors.
 func WriteNodeTable(w io.Writer, g *structural.Network) error {
 	cw := csv.NewWriter(bufio.NewWriterSize(w, 1<<16))
-	cw.Write([]string{"node"})
-	rec := []string{""}
+	cw.Write([]string{"node", "isolated"})
+	rec := []string{"", "yes"}
 	for v := int32(0); int(v) < g.N(); v++ {
 		rec[0] = g.Name(v)
 		if err := cw.Write(rec); err != nil {
@@ -124,14 +126,14 @@ func WriteNodeTable(w io.Writer, g *structural.Network) error {
 }
 
 // WriteIntNodeTable writes the node table of n states named base..base+n-1
-// without building a network.
+// without building a network, marked isolated=yes like WriteNodeTable.
 func WriteIntNodeTable(w io.Writer, n, base int) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
-	bw.WriteString("node\n")
+	bw.WriteString("node,isolated\n")
 	var b []byte
 	for i := 0; i < n; i++ {
 		b = strconv.AppendInt(b[:0], int64(i+base), 10)
-		b = append(b, '\n')
+		b = append(b, ",yes\n"...)
 		if _, err := bw.Write(b); err != nil {
 			return err
 		}

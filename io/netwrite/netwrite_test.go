@@ -55,11 +55,14 @@ func readNodeTable(t *testing.T, path string) []string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(recs) == 0 || len(recs[0]) != 1 || recs[0][0] != "node" {
-		t.Fatalf("node table header %v, want [node]", recs[:1])
+	if len(recs) == 0 || len(recs[0]) != 2 || recs[0][0] != "node" || recs[0][1] != "isolated" {
+		t.Fatalf("node table header %v, want [node isolated]", recs[:1])
 	}
 	var names []string
 	for _, r := range recs[1:] {
+		if r[1] != "yes" {
+			t.Fatalf("row %q: want isolated=yes", r)
+		}
 		names = append(names, r[0])
 	}
 	return names
@@ -82,10 +85,11 @@ func TestEdgeListRoundTrip(t *testing.T) {
 			t.Errorf("node table at %q", wr.NodeTable)
 		}
 		states := readNodeTable(t, wr.NodeTable)
-		h, err := netread.ReadFile(path, netread.Options{States: states})
+		in, err := netread.ReadFile(path, netread.Options{States: states})
 		if err != nil {
 			t.Fatal(err)
 		}
+		h := in.Network
 		if h.N() != g.N() || h.Edges() != g.Edges() {
 			t.Errorf("%s: read back N=%d L=%d, want N=%d L=%d", name, h.N(), h.Edges(), g.N(), g.Edges())
 		}
@@ -148,7 +152,7 @@ func TestEdgeWriter(t *testing.T) {
 		t.Errorf("got %q (%d edges)", buf.String(), e.Edges())
 	}
 	buf.Reset()
-	if err := WriteIntNodeTable(&buf, 3, 1); err != nil || buf.String() != "node\n1\n2\n3\n" {
+	if err := WriteIntNodeTable(&buf, 3, 1); err != nil || buf.String() != "node,isolated\n1,yes\n2,yes\n3,yes\n" {
 		t.Errorf("int node table %q, %v", buf.String(), err)
 	}
 }
@@ -201,7 +205,7 @@ func TestMatrixMarketKeepsNames(t *testing.T) {
 		t.Errorf("size line and entries %q, want 3 3 2 and two entries", data)
 	}
 	back, err := netread.Read(strings.NewReader(out), "named.mtx", netread.Options{Format: netread.MatrixMarket})
-	if err != nil || back.N() != 3 || back.Edges() != 2 {
+	if err != nil || back.Network.N() != 3 || back.Network.Edges() != 2 {
 		t.Errorf("read back: %v, want 3 states and 2 edges", err)
 	}
 	// Integer names equal to the indices need no comments.

@@ -15,6 +15,8 @@
 //	has_sensor    yes or no (default no)
 //	group         plant area or unit, for drawings
 //	label         name to show in drawings
+//	isolated      yes or no: the state is meant to exist even when no edge of
+//	              the network names it (default no)
 //
 // Costs are non-negative decimal numbers with at most three decimals and at
 // most 10^9; they are held as integers in thousandths (CostScale units per
@@ -22,9 +24,18 @@
 // in any case; an empty cell takes the default. A state listed with an
 // existing device must allow one.
 //
-// An unknown column is a warning; a bad value, a repeated node or a missing
-// node column is an error printed as "FILE:LINE: message" (type
-// netread.Error). States of the table that are in no edge of the network
-// become isolated states (each needs its own device); Isolated returns a
-// warning naming each, since a misspelt name looks the same.
+// An unknown column is a warning; a bad value, a repeated node, a missing
+// node column, a name (or label, group) holding a control character and a
+// line longer than MaxLineBytes are errors printed as "FILE:LINE: message"
+// (type netread.Error); values echoed in messages are clipped.
+//
+// A row naming a state that is in no edge of the network is most likely a
+// misspelt name: pass States(false) to the network reader and Check
+// returns an error naming the row and the nearest names of the network.
+// Rows with isolated=yes are added as isolated states (each needs its own
+// device); a caller that accepts every row passes States(true), and
+// Isolated then warns about the rows that were not marked.
+//
+// Read hashes (SHA-256) and counts the bytes it reads: Table.SHA256 and
+// Table.Size certify the table that was used.
 package nodetable

@@ -7,10 +7,10 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
 )
@@ -32,6 +32,9 @@ type Row struct {
 	CanActuate, HasActuator  bool
 	CanSense, HasSensor      bool
 	Group, Label             string
+	// Isolated says the state is meant to exist even when no edge of the
+	// network names it (the isolated column).
+	Isolated bool
 }
 
 // Table is a node table.
@@ -43,6 +46,10 @@ type Table struct {
 	// Warnings are "FILE:LINE: message" lines about the file itself
 	// (unknown columns).
 	Warnings []string
+	// SHA256 and Size describe the bytes read (the whole file on
+	// success), so that a report can certify the table it used.
+	SHA256 [32]byte
+	Size   int64
 
 	columns map[string]bool
 	index   map[string]int
@@ -59,27 +66,48 @@ const (
 	colHasSensor    = "has_sensor"
 	colGroup        = "group"
 	colLabel        = "label"
+	colIsolated     = "isolated"
 )
 
 var knownColumns = []string{colNode, colActuatorCost, colCanActuate, colHasActuator,
-	colSensorCost, colCanSense, colHasSensor, colGroup, colLabel}
+	colSensorCost, colCanSense, colHasSensor, colGroup, colLabel, colIsolated}
 
-// ReadFile reads the node table in path; "-" reads standard input.
-func ReadFile(path string) (*Table, error) {
-	if path == "-" {
-		return Read(os.Stdin, "stdin")
-	}
-	f, err := os.Open(path)
+// MaxLineBytes bounds a line of a node table: a file without line breaks
+// (/dev/zero, say) fails after this many bytes.
+const MaxLineBytes = 1 << 16
+
+// Options control reading.
+type Options struct {
+	// Stdin is what the path "-" reads; nil means os.Stdin.
+	Stdin io.Reader
+}
+
+// ReadFile reads the node table in path; "-" reads opt.Stdin.
+func ReadFile(path string, opt Options) (*Table, error) {
+	f, name, err := netread.Open(path, opt.Stdin, "node table")
 	if err != nil {
-		return nil, &netread.Error{File: path, Msg: strings.TrimPrefix(err.Error(), "open "+path+": ")}
+		return nil, err
 	}
 	defer f.Close()
-	return Read(f, path)
+	return Read(f, name)
 }
 
 // Read reads a node table from r; file names r in messages.
 func Read(r io.Reader, file string) (*Table, error) {
-	br := bufio.NewReaderSize(r, 1<<16)
+	d := source.NewDigest(r)
+	t, err := read(d, file)
+	if err != nil {
+		return nil, err
+	}
+	if err := d.Drain(); err != nil {
+		return nil, &netread.Error{File: file, Msg: err.Error(), Err: err}
+	}
+	t.SHA256, t.Size = d.Sum(), d.Size()
+	return t, nil
+}
+
+func read(r io.Reader, file string) (*Table, error) {
+	br := bufio.NewReaderSize(source.LineLimit(r, MaxLineBytes), 1<<16)
 	if bom, _ := br.Peek(3); bytes.Equal(bom, []byte{0xEF, 0xBB, 0xBF}) {
 		br.Discard(3)
 	}
@@ -93,10 +121,17 @@ func Read(r io.Reader, file string) (*Table, error) {
 	}
 	csvErr := func(err error) error {
 		var pe *csv.ParseError
-		if errors.As(err, &pe) {
-			return fail(pe.Line, "%v", pe.Err)
+		var lt *source.LineTooLong
+		var ne *netread.Error
+		switch {
+		case errors.As(err, &lt):
+			return &netread.Error{File: file, Line: lt.Line, Msg: lt.Error(), Err: err}
+		case errors.As(err, &ne):
+			return ne
+		case errors.As(err, &pe):
+			return &netread.Error{File: file, Line: pe.Line, Msg: pe.Err.Error(), Err: err}
 		}
-		return fail(0, "%v", err)
+		return &netread.Error{File: file, Msg: err.Error(), Err: err}
 	}
 	header, err := cr.Read()
 	if err == io.EOF {
@@ -123,7 +158,7 @@ func Read(r io.Reader, file string) (*Table, error) {
 			return nil, fail(headLine, "column %d of the header has no name", i+1)
 		case !known:
 			t.Warnings = append(t.Warnings, fmt.Sprintf("%s:%d: unknown column %q ignored (known: %s)",
-				file, headLine, h, strings.Join(knownColumns, ", ")))
+				file, headLine, netread.Clip(h), strings.Join(knownColumns, ", ")))
 		case p >= 0:
 			return nil, fail(headLine, "column %q appears twice", name)
 		default:
@@ -154,17 +189,14 @@ func Read(r io.Reader, file string) (*Table, error) {
 		}
 		row := Row{Line: line, ActuatorCost: CostScale, SensorCost: CostScale, CanActuate: true, CanSense: true}
 		row.Node = cell(colNode)
-		if row.Node == "" {
-			if blank(rec) {
-				continue
-			}
-			return nil, fail(line, "empty node name")
+		if row.Node == "" && blank(rec) {
+			continue
 		}
-		if len(row.Node) > netread.MaxNameBytes {
-			return nil, fail(line, "node name of %d bytes; the limit is %d", len(row.Node), netread.MaxNameBytes)
+		if msg := netread.NameProblem(row.Node); msg != "" {
+			return nil, fail(line, "%s", msg)
 		}
 		if prev, dup := t.index[row.Node]; dup {
-			return nil, fail(line, "node %q is already listed on line %d", row.Node, t.Rows[prev].Line)
+			return nil, fail(line, "node %q is already listed on line %d", netread.Clip(row.Node), t.Rows[prev].Line)
 		}
 		for _, c := range []struct {
 			col string
@@ -173,7 +205,7 @@ func Read(r io.Reader, file string) (*Table, error) {
 			if s := cell(c.col); s != "" {
 				v, ok := parseCost(s)
 				if !ok {
-					return nil, fail(line, "%s %q: want a number from 0 to 1e9 with at most 3 decimals", c.col, s)
+					return nil, fail(line, "%s %q: want a number from 0 to 1e9 with at most 3 decimals", c.col, netread.Clip(s))
 				}
 				*c.dst = v
 			}
@@ -181,23 +213,28 @@ func Read(r io.Reader, file string) (*Table, error) {
 		for _, c := range []struct {
 			col string
 			dst *bool
-		}{{colCanActuate, &row.CanActuate}, {colHasActuator, &row.HasActuator}, {colCanSense, &row.CanSense}, {colHasSensor, &row.HasSensor}} {
+		}{{colCanActuate, &row.CanActuate}, {colHasActuator, &row.HasActuator}, {colCanSense, &row.CanSense}, {colHasSensor, &row.HasSensor}, {colIsolated, &row.Isolated}} {
 			if s := cell(c.col); s != "" {
 				v, ok := parseBool(s)
 				if !ok {
-					return nil, fail(line, "%s %q: want yes or no", c.col, s)
+					return nil, fail(line, "%s %q: want yes or no", c.col, netread.Clip(s))
 				}
 				*c.dst = v
 			}
 		}
 		if row.HasActuator && !row.CanActuate {
-			return nil, fail(line, "node %q: has_actuator is yes but can_actuate is no", row.Node)
+			return nil, fail(line, "node %q: has_actuator is yes but can_actuate is no", netread.Clip(row.Node))
 		}
 		if row.HasSensor && !row.CanSense {
-			return nil, fail(line, "node %q: has_sensor is yes but can_sense is no", row.Node)
+			return nil, fail(line, "node %q: has_sensor is yes but can_sense is no", netread.Clip(row.Node))
 		}
 		row.Group = cell(colGroup)
 		row.Label = cell(colLabel)
+		for _, c := range []struct{ col, val string }{{colGroup, row.Group}, {colLabel, row.Label}} {
+			if msg := netread.NameProblem(c.val); c.val != "" && msg != "" {
+				return nil, fail(line, "%s: %s", c.col, strings.Replace(msg, "node name", "value", 1))
+			}
+		}
 		t.index[row.Node] = len(t.Rows)
 		t.Rows = append(t.Rows, row)
 	}
@@ -273,15 +310,123 @@ func FormatCost(units int64) string {
 // Has reports whether the file had the named column.
 func (t *Table) Has(column string) bool { return t.columns[column] }
 
-// Names returns the states the table lists, in file order: pass them to
-// the network reader (netread.Options.States) so that every listed state
-// exists.
+// Names returns the states the table lists, in file order.
 func (t *Table) Names() []string {
 	out := make([]string, len(t.Rows))
 	for i, r := range t.Rows {
 		out[i] = r.Node
 	}
 	return out
+}
+
+// States returns the states to pass to the network reader
+// (netread.Options.States): the rows marked isolated, or every row when
+// all is set (the caller accepts listed states that are in no edge).
+// Check the network afterwards with Check.
+func (t *Table) States(all bool) []string {
+	var out []string
+	for _, r := range t.Rows {
+		if all || r.Isolated {
+			out = append(out, r.Node)
+		}
+	}
+	return out
+}
+
+// Check returns an error for the first row whose state is not in g: most
+// likely a misspelt name, since rows meant to add an isolated state say so
+// in the isolated column. The message names the row and the nearest names
+// of g (edit distance).
+func (t *Table) Check(g *structural.Network) error {
+	for _, r := range t.Rows {
+		if _, ok := g.Lookup(r.Node); ok {
+			continue
+		}
+		msg := fmt.Sprintf("node %q is in no edge of the network", netread.Clip(r.Node))
+		if near := Nearest(g, r.Node, 3); len(near) > 0 {
+			q := make([]string, len(near))
+			for i, s := range near {
+				q[i] = strconv.Quote(netread.Clip(s))
+			}
+			msg += " (nearest: " + strings.Join(q, ", ") + ")"
+		}
+		msg += "; if the state is meant to have no edges, say isolated=yes in its row"
+		return &netread.Error{File: t.File, Line: r.Line, Msg: msg}
+	}
+	return nil
+}
+
+// Nearest returns up to k names of g closest to name by edit distance
+// (Levenshtein: insertions, deletions and substitutions of bytes), nearest
+// first, ties in state order; only names within a third of name's length
+// (at least 2) count. It costs O(N * len(name) * bound) at worst.
+func Nearest(g *structural.Network, name string, k int) []string {
+	bound := max(2, len(name)/3)
+	type hit struct {
+		d int
+		v int32
+	}
+	var best []hit
+	row := make([]int, len(name)+1)
+	prev := make([]int, len(name)+1)
+	for v := int32(0); int(v) < g.N(); v++ {
+		cand := g.Name(v)
+		limit := bound
+		if len(best) == k {
+			limit = best[k-1].d - 1
+		}
+		if limit < 0 || abs(len(cand)-len(name)) > limit {
+			continue
+		}
+		d := editDistance(name, cand, limit, prev, row)
+		if d > limit {
+			continue
+		}
+		best = append(best, hit{d, v})
+		for i := len(best) - 1; i > 0 && best[i].d < best[i-1].d; i-- {
+			best[i], best[i-1] = best[i-1], best[i]
+		}
+		if len(best) > k {
+			best = best[:k]
+		}
+	}
+	out := make([]string, len(best))
+	for i, h := range best {
+		out[i] = g.Name(h.v)
+	}
+	return out
+}
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+// editDistance returns the Levenshtein distance of a and b, or limit+1
+// once it must exceed limit (a row of the table all above it).
+func editDistance(a, b string, limit int, prev, row []int) int {
+	for i := range prev {
+		prev[i] = i
+	}
+	for j := 1; j <= len(b); j++ {
+		row[0] = j
+		low := row[0]
+		for i := 1; i <= len(a); i++ {
+			c := prev[i-1]
+			if a[i-1] != b[j-1] {
+				c = 1 + min(prev[i-1], prev[i], row[i-1])
+			}
+			row[i] = c
+			low = min(low, c)
+		}
+		if low > limit {
+			return limit + 1
+		}
+		prev, row = row, prev
+	}
+	return prev[len(a)]
 }
 
 // Lookup returns the row of the named state.
@@ -311,7 +456,7 @@ func (t *Table) Isolated(g *structural.Network) []string {
 		for _, w := range g.Pred(v) {
 			linked = linked || w != v
 		}
-		if !linked {
+		if !linked && !r.Isolated {
 			isolated++
 			if isolated <= maxIsolatedNamed {
 				out = append(out, fmt.Sprintf("%s:%d: node %q is in no edge of the network: it is an isolated state and needs its own device (a misspelt name?)",

@@ -11,7 +11,7 @@ import (
 )
 
 func TestReadPlant(t *testing.T) {
-	tab, err := ReadFile("testdata/plant.csv")
+	tab, err := ReadFile("testdata/plant.csv", Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -122,10 +122,11 @@ func TestNetworkBinding(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	g, err := netread.Read(strings.NewReader("a b\nb c\nc c\n"), "n.edges", netread.Options{States: tab.Names(), Build: structural.BuildOptions{SelfDynamics: true}})
+	in, err := netread.Read(strings.NewReader("a b\nb c\nc c\n"), "n.edges", netread.Options{States: tab.Names(), Build: structural.BuildOptions{SelfDynamics: true}})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	if g.N() != 4 {
 		t.Fatalf("got %d states, want 4 (a, b, c and lonely)", g.N())
 	}
@@ -156,10 +157,11 @@ func TestIsolatedSummarised(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	g, err := netread.Read(strings.NewReader("a b\n"), "n.edges", netread.Options{States: tab.Names()})
+	in, err := netread.Read(strings.NewReader("a b\n"), "n.edges", netread.Options{States: tab.Names()})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	w := tab.Isolated(g)
 	if len(w) != maxIsolatedNamed+1 {
 		t.Fatalf("got %d warnings, want %d", len(w), maxIsolatedNamed+1)

@@ -22,11 +22,11 @@ var update = flag.Bool("update", false, "rewrite the golden files in testdata")
 
 func readNet(t testing.TB, path string) *structural.Network {
 	t.Helper()
-	g, err := netread.ReadFile(path, netread.Options{})
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	return g
+	return in.Network
 }
 
 func lookup(t testing.TB, g *structural.Network, names ...string) []int32 {

@@ -7,12 +7,12 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"slices"
 	"strconv"
 	"strings"
 
 	"github.com/netsteer/netsteer/io/fileout"
+	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/io/netread"
 )
 
@@ -108,21 +108,26 @@ func WriteFile(path string, rows []Row, stdout io.Writer) error {
 	})
 }
 
+// MaxLineBytes bounds a line of a sweep file: a file without line breaks
+// fails after this many bytes.
+const MaxLineBytes = 1 << 16
+
 // ReadFile reads a sweep file. Columns may come in any order and extra
 // columns are ignored; the contract columns and params must be present.
 // Errors are *netread.Error values ("FILE:LINE: message").
 func ReadFile(path string) ([]Row, error) {
-	f, err := os.Open(path)
+	f, name, err := netread.Open(path, nil, "sweep file")
 	if err != nil {
-		return nil, &netread.Error{File: path, Msg: strings.TrimPrefix(err.Error(), "open "+path+": ")}
+		return nil, err
 	}
 	defer f.Close()
-	return Read(f, path)
+	return Read(f, name)
 }
 
-// Read reads a sweep file from r; file names it in errors.
+// Read reads a sweep file from r; file names it in errors. Lines are
+// bounded by MaxLineBytes and values echoed in messages are clipped.
 func Read(r io.Reader, file string) ([]Row, error) {
-	cr := csv.NewReader(bufio.NewReader(r))
+	cr := csv.NewReader(bufio.NewReader(source.LineLimit(r, MaxLineBytes)))
 	cr.ReuseRecord = true
 	header, err := cr.Read()
 	if err == io.EOF {
@@ -147,10 +152,10 @@ func Read(r io.Reader, file string) ([]Row, error) {
 		if err == io.EOF {
 			break
 		}
-		line, _ := cr.FieldPos(0)
 		if err != nil {
 			return nil, csvError(file, err)
 		}
+		line, _ := cr.FieldPos(0)
 		get := func(c string) string {
 			if i, ok := col[c]; ok && i < len(rec) {
 				return rec[i]
@@ -180,7 +185,7 @@ func Read(r io.Reader, file string) ([]Row, error) {
 				*d, err = strconv.ParseFloat(s, 64)
 			}
 			if err != nil {
-				perr = fmt.Errorf("%s %q is not a valid number", c, s)
+				perr = fmt.Errorf("%s %q is not a valid number", c, netread.Clip(s))
 			}
 		}
 		row.Model = get("model")
@@ -225,17 +230,21 @@ func (r *Row) check() error {
 	case !math.IsNaN(r.PredictedFraction) && !(r.PredictedFraction >= 0 && r.PredictedFraction <= 1):
 		return fmt.Errorf("predicted_fraction %v is not in [0, 1]", r.PredictedFraction)
 	case r.PredictionFrom != "" && r.PredictionFrom != "model" && r.PredictionFrom != "degrees":
-		return fmt.Errorf("prediction_from %q: want model or degrees", r.PredictionFrom)
+		return fmt.Errorf("prediction_from %q: want model or degrees", netread.Clip(r.PredictionFrom))
 	}
 	return nil
 }
 
 func csvError(file string, err error) error {
 	var pe *csv.ParseError
-	if errors.As(err, &pe) {
-		return &netread.Error{File: file, Line: pe.Line, Msg: pe.Err.Error()}
+	var lt *source.LineTooLong
+	switch {
+	case errors.As(err, &lt):
+		return &netread.Error{File: file, Line: lt.Line, Msg: lt.Error(), Err: err}
+	case errors.As(err, &pe):
+		return &netread.Error{File: file, Line: pe.Line, Msg: pe.Err.Error(), Err: err}
 	}
-	return &netread.Error{File: file, Msg: err.Error()}
+	return &netread.Error{File: file, Msg: err.Error(), Err: err}
 }
 
 // Sort puts rows in the canonical order.

@@ -17,10 +17,11 @@ import (
 // cheapest placement with unit costs passes Lin's theorem.
 func TestRolesWikiVote(t *testing.T) {
 	path := testnet.Dataset(t, "wiki-vote.edges.gz")
-	g, err := netread.ReadFile(path, netread.Options{})
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	m := g.Matching()
 	roles := structural.StateRoles(g).Of
 	var count [4]int

@@ -10,6 +10,8 @@ import (
 	"strconv"
 	"time"
 
+	"github.com/netsteer/netsteer/io/fileout"
+
 	"github.com/netsteer/netsteer/io/sweepcsv"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/gen"
@@ -126,6 +128,15 @@ func (pl *Plan) Run(ctx context.Context, opt RunOptions) (*Result, error) {
 		return nil, err
 	}
 	toFile := opt.Output != "" && opt.Output != "-"
+	if toFile {
+		// One sweep writes an output at a time: a second one on the same
+		// file would drop the first one's rows.
+		lk, err := fileout.LockFile(opt.Output)
+		if err != nil {
+			return nil, err
+		}
+		defer lk.Unlock()
+	}
 	var have []sweepcsv.Row
 	if toFile && fileExists(opt.Output) {
 		rows, err := sweepcsv.ReadFile(opt.Output)
