@@ -47,6 +47,13 @@ fails, check names the states where an uncontrollable mode can live and
 prints a witness: integer values for the couplings, an eigenvalue and a
 vector the inputs cannot move, confirmed in exact arithmetic.
 
+--targets FILE judges the design for the listed states only: whether they
+are steerable (target controllable: the generic rank of C[B, AB, ...], C
+selecting them, equals their number), by proved upper and lower bounds,
+exact when they meet (linking in the time-expanded network, Murota & Poljak
+1990; disjoint paths, van der Woude 1991; an exact sample over GF(p)), and,
+when not, which targets are out of reach and why.
+
 Exit status: 0 when the design is controllable (and observable, with
 --outputs; strongly, with --strong), 1 when not, 2 on error.
 
@@ -64,6 +71,9 @@ Example:
 		var sf strongFlags
 		sf.register(fs, "also decide strong structural controllability (observability): for every value of the couplings")
 		witness := fs.Int("witness-entries", 0, "with --strong, the largest witness to print, in matrix entries (default 100000)")
+		var tf targetsFlag
+		tf.register(fs)
+		seed := fs.Uint64("seed", 1, "with --targets, seed of the samples that decide undecided bounds")
 		of.register(fs)
 		return func(args []string) error {
 			path, err := oneArg(args)
@@ -80,11 +90,15 @@ Example:
 				return err
 			}
 			start := time.Now()
-			in, err := nf.load(path, of.output, false, *inputs, *outputs, sf.mayBeZero)
+			in, err := nf.load(path, of.output, false, *inputs, *outputs, sf.mayBeZero, tf.file)
 			if err != nil {
 				return err
 			}
-			req := analysis.CheckRequest{Actuators: in.devices(structural.Controllability), Sensors: in.devices(structural.Observability), WitnessEntries: *witness}
+			targets, err := tf.states(e, in)
+			if err != nil {
+				return err
+			}
+			req := analysis.CheckRequest{Actuators: in.devices(structural.Controllability), Sensors: in.devices(structural.Observability), WitnessEntries: *witness, Targets: targets, Seed: *seed}
 			if req.Strong, err = sf.class(in); err != nil {
 				return err
 			}

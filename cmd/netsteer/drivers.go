@@ -27,12 +27,21 @@ enters), intermittent (in some) or redundant (in none); and every edge across
 all maximum matchings (Liu et al. 2011): critical (in every one), ordinary
 or redundant (in none). Linear time after the one matching.
 
+--targets FILE asks only for the states listed (zone temperatures, bus
+voltages...): the fewest signals that make them steerable (the generic rank
+of C[B, AB, ...], C selecting them, equals their number). Choosing them is
+NP-hard (Czeizler et al. 2018): netsteer compares full control of the part
+that acts on the targets, a stem-cycle cover, the greedy of Gao et al.
+(Nat. Commun. 2014) and, on small networks, an exhaustive search, and
+reports a lower bound and the saving against full control.
+
 NET is a network file (see "netsteer help formats"); - reads standard input.
 
 Example:
   netsteer drivers testdata/plant/heating.edges
   netsteer drivers --roles testdata/plant/heating.edges
   netsteer drivers -o drivers.json big.edges.gz
+  netsteer drivers --targets rooms.txt testdata/plant/heating.edges
 `,
 	flags: func(e *env, fs *pflag.FlagSet) func([]string) error {
 		var nf netFlags
@@ -41,6 +50,9 @@ Example:
 		of.register(fs)
 		timings := fs.Bool("timings", false, "print stage times on standard error")
 		roles := fs.Bool("roles", false, "classify states (critical, intermittent, redundant) and edges (critical, ordinary, redundant)")
+		var tf targetsFlag
+		tf.register(fs)
+		seed := fs.Uint64("seed", 1, "with --targets, seed of the samples that confirm a choice")
 		return func(args []string) error {
 			path, err := oneArg(args)
 			if err != nil {
@@ -50,12 +62,16 @@ Example:
 				return err
 			}
 			start := time.Now()
-			in, err := nf.load(path, of.output, false)
+			in, err := nf.load(path, of.output, false, tf.file)
+			if err != nil {
+				return err
+			}
+			targets, err := tf.states(e, in)
 			if err != nil {
 				return err
 			}
 			e.status("matching and components (%d states, %d edges)", in.g.N(), in.g.Edges())
-			r, err := analysis.Drivers(in.g, analysis.DriversRequest{Roles: *roles})
+			r, err := analysis.Drivers(in.g, analysis.DriversRequest{Roles: *roles, Targets: targets, Seed: *seed})
 			e.status("")
 			if err != nil {
 				return err

@@ -41,23 +41,33 @@ func readmeKeys(path string) (map[string]map[string]bool, error) {
 			out[cmd][k] = true
 		}
 	}
-	for cmd, keys := range out {
-		for k := range keys {
-			prefix, name, ok := strings.Cut(k, "@")
-			if !ok {
-				continue
-			}
-			shape, ok := out[name]
-			if !ok {
-				return nil, fmt.Errorf("%s: %s uses the unknown shape %q", path, cmd, name)
-			}
-			delete(keys, k)
-			for sk := range shape {
-				keys[prefix+sk] = true
+	// Expand shapes until none is left (a shape may use another).
+	for round := 0; ; round++ {
+		changed := false
+		for cmd, keys := range out {
+			for k := range keys {
+				prefix, name, ok := strings.Cut(k, "@")
+				if !ok {
+					continue
+				}
+				shape, ok := out[name]
+				if !ok {
+					return nil, fmt.Errorf("%s: %s uses the unknown shape %q", path, cmd, name)
+				}
+				delete(keys, k)
+				for sk := range shape {
+					keys[prefix+sk] = true
+				}
+				changed = true
 			}
 		}
+		if !changed {
+			return out, nil
+		}
+		if round > 10 {
+			return nil, fmt.Errorf("%s: shapes refer to each other in a loop", path)
+		}
 	}
-	return out, nil
 }
 
 // checkKeys returns the key paths of the JSON document data that the

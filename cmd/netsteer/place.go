@@ -37,6 +37,10 @@ a search with bounds on small networks (always up to 18 allowed states,
 by default up to 64 states) and otherwise is a fast placement with a lower
 bound and the gap between them.
 
+--targets FILE places for the listed states only: the cheapest dedicated
+%[2]s that make them steerable, with a lower bound and the saving against
+full control (see "netsteer help drivers").
+
 When no placement the node table allows can succeed, the exit status is 1
 and the output names the states or components that block.
 
@@ -63,6 +67,8 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 			sf.register(fs, "place for strong structural "+map[bool]string{true: "observability", false: "controllability"}[p == structural.Observability]+": for every value of the couplings")
 			exact := fs.Int("exact-states", 0, "with --strong, search exactly on networks of at most this many states (default 64, at most 512)")
 			nodes := fs.Int64("search-nodes", 0, "with --strong, node budget of the exact search (default 200000)")
+			var tf targetsFlag
+			tf.register(fs)
 			rank := fs.Bool("rank-effort", false, "rank the equally cheap placements --roles lists by control effort on numbers (implies --roles)")
 			weights := fs.Bool("weights", false, "with --rank-effort, use the model's own numbers (edge weights) instead of samples")
 			trials := fs.Int("trials", numeric.DefaultTrials, "with --rank-effort, random samples averaged")
@@ -84,11 +90,15 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 					return err
 				}
 				start := time.Now()
-				in, err := nf.load(path, of.output, *weights, sf.mayBeZero)
+				in, err := nf.load(path, of.output, *weights, sf.mayBeZero, tf.file)
 				if err != nil {
 					return err
 				}
-				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts, ExactStates: *exact, SearchNodes: *nodes}
+				targets, err := tf.states(e, in)
+				if err != nil {
+					return err
+				}
+				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts, ExactStates: *exact, SearchNodes: *nodes, Targets: targets, Seed: *seed}
 				if req.Strong, err = sf.class(in); err != nil {
 					return err
 				}

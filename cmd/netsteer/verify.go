@@ -12,6 +12,7 @@ import (
 	"github.com/netsteer/netsteer/io/design"
 	"github.com/netsteer/netsteer/io/textout"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/numeric"
 )
 
@@ -73,6 +74,9 @@ Kalman decomposition. --effort measures how hard the inputs must work
 to reach a unit state, and trace(W). A model's numbers are only as good as
 its fit.
 
+--targets FILE adds the exact sampled rank of C*K over GF(p), C selecting
+the listed states, beside their structural bounds.
+
 Exit status: 0 when the sample (or the model) is controllable, and
 observable when --outputs is given; 1 when not; 2 on error.
 
@@ -111,6 +115,8 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes")
 	var sf strongFlags
 	sf.register(fs, "show the strong structural verdict (every value of the couplings) beside the generic one")
+	var tf targetsFlag
+	tf.register(fs)
 	return func(args []string) error {
 		path, err := oneArg(args)
 		if err != nil {
@@ -144,9 +150,16 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			*seed = rand.Uint64N(1_000_000_000)
 		}
 		start := time.Now()
-		in, err := nf.load(path, of.output, *weights, *inputs, *outputs, sf.mayBeZero)
+		in, err := nf.load(path, of.output, *weights, *inputs, *outputs, sf.mayBeZero, tf.file)
 		if err != nil {
 			return err
+		}
+		targets, err := tf.states(e, in)
+		if err != nil {
+			return err
+		}
+		if targets != nil && (*weights || *inputs == "") {
+			return usagef("--targets takes random samples of an input design: give --inputs, without --weights")
 		}
 		req := numeric.Request{Trials: *trials, Seed: *seed, Weights: *weights, MaxStates: *maxStates,
 			MaxFloatStates: *maxFloat, WarnMargin: *warnMargin, Modes: *modes, Effort: *effort, Horizon: *horizon, Discrete: *discrete}
@@ -203,7 +216,7 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 				e.status("%s check of %s, trial %d of %d: %d of %d", p.Stage, p.Kind, p.Trial, p.Trials, p.Done, p.Total)
 			}
 		}
-		r, err := numeric.Verify(in.g, req)
+		r, err := analysis.Verify(in.g, analysis.VerifyRequest{Request: req, Targets: targets})
 		e.status("")
 		var se *numeric.SizeError
 		if errors.As(err, &se) {

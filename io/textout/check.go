@@ -78,6 +78,9 @@ func (c Check) Text(w io.Writer, o Options) error {
 	heads := make([]string, len(props))
 	for i, p := range props {
 		heads[i] = Headline(p, r.Nodes)
+		if p.Targets != nil {
+			heads[i] = t.targetHeadline(p.Targets)
+		}
 	}
 	t.p("  ", "%s: %s.", displayFile(r.File), strings.Join(heads, "; "))
 	for _, p := range props {
@@ -86,11 +89,17 @@ func (c Check) Text(w io.Writer, o Options) error {
 		}
 	}
 	for _, p := range props {
-		if !p.Holds {
-			lead := "To fix"
-			if len(props) > 1 {
-				lead += " " + p.Property.String()
+		lead := "To fix"
+		if len(props) > 1 {
+			lead += " " + p.Property.String()
+		}
+		if p.Targets != nil {
+			for _, f := range t.targetFix(p.Targets) {
+				t.p("  ", "%s: %s.", lead, f)
 			}
+			continue
+		}
+		if !p.Holds {
 			t.p("  ", "%s: %s.", lead, t.fix(p))
 		}
 	}
@@ -99,11 +108,17 @@ func (c Check) Text(w io.Writer, o Options) error {
 	for _, p := range props {
 		c.details(t, p, r.Nodes)
 	}
+	targets := false
 	for _, p := range props {
 		if p.Completion != nil {
 			t.blank()
 			c.completion(t, p)
 		}
+		targets = targets || p.Targets != nil
+	}
+	if targets {
+		t.blank()
+		t.p("  ", "%s", TargetCaution)
 	}
 	return t.done()
 }
@@ -126,6 +141,9 @@ func (c Check) details(t *tw, p *analysis.PropertyResult, n int) {
 	}
 	if p.Strong != nil {
 		defer t.strongDetails(p.Property, p.Strong)
+	}
+	if p.Targets != nil {
+		defer t.targetDetails(p.Targets)
 	}
 	d := p.Dilation
 	if d == nil {

@@ -22,6 +22,11 @@ func (d Drivers) Value() any { return d.R }
 func (d Drivers) Text(w io.Writer, o Options) error {
 	r := d.R
 	t := newTW(w, o)
+	if r.Targets != nil {
+		t.selection(r.File, "", r.Targets, true)
+		t.blank()
+		t.p("  ", "For full control:")
+	}
 	nd := r.DriverCount
 	t.p("  ", "%s needs %d independent control %s for %s (driver fraction %.4f).",
 		displayFile(r.File), nd, plural(nd, "signal", "signals"), count(r.Nodes, "state", "states"), r.DriverFraction)

@@ -39,6 +39,11 @@ func (p Place) Text(w io.Writer, o Options) error {
 	pw := placeDuals[r.Property]
 	dev, devs := r.Device, r.Device+"s"
 	nd := pl.Devices.Len()
+	if r.Targets != nil {
+		t.selection(r.File, dev, r.Targets, false)
+		t.blank()
+		t.p("  ", "For full control:")
+	}
 	if r.Strong != nil {
 		t.strongPlacement(r.File, dev, r.Property, r.Strong)
 		t.blank()

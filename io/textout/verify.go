@@ -9,12 +9,13 @@ import (
 	"strings"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/numeric"
 )
 
 // Verify is the report of numeric.Verify.
 type Verify struct {
-	R *numeric.Result
+	R *analysis.VerifyResult
 	// Modes selects the CSV table of modes instead of the trials.
 	Modes bool
 	// Hints follow a warning of the given kind (how to act on it in the
@@ -65,6 +66,18 @@ func (v Verify) Text(w io.Writer, o Options) error {
 	n := r.Nodes
 	if r.Part != nil {
 		n = r.Part.Nodes
+	}
+	if ts := r.Targets; ts != nil {
+		verdict := "steer"
+		if !ts.Holds {
+			verdict = "do NOT steer"
+		}
+		agree := "the samples agree with the structural bounds"
+		if !ts.Agrees {
+			agree = "the samples do not reach the structural bound"
+		}
+		t.p("  ", "Targets: the samples %s the %s: rank of C*K %d of %d (structural bounds %d..%d; %s).", verdict,
+			count(ts.Targets.Len(), "target", "targets"), ts.Rank, ts.Targets.Len(), ts.Lower, ts.Upper, agree)
 	}
 	for _, p := range r.Properties() {
 		t.p("  ", "%s: %s", capital(p.Property.String()), v.headline(p, n))

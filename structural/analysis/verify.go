@@ -45,6 +45,10 @@ func Verify(g *structural.Network, req VerifyRequest) (*VerifyResult, error) {
 		if err != nil {
 			return nil, err
 		}
+		r.Cautions = append(r.Cautions, TargetCaution)
 	}
 	return r, nil
 }
+
+// TargetCaution is the caution every target-control answer carries.
+const TargetCaution = "Target control means the targets can be brought to any values at some time; the other states may then be anywhere, and holding the targets on a trajectory is a stronger requirement not checked here."
