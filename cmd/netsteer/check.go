@@ -120,6 +120,7 @@ Example:
 				return err
 			}
 			r.File = path
+			of.labels, of.groups = in.labelsGroups()
 			if p := r.Controllability; p != nil {
 				p.DesignFile = *inputs
 			}

@@ -77,6 +77,7 @@ Example:
 				return err
 			}
 			r.File = path
+			of.labels, of.groups = in.labelsGroups()
 			finish(&r.Timings, in, start)
 			if err := of.write(e, textout.Drivers{R: r}); err != nil {
 				return err

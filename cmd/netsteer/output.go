@@ -4,12 +4,12 @@ import (
 	"bufio"
 	"encoding/json"
 	"io"
-	"path/filepath"
 	"strings"
 
 	"github.com/spf13/pflag"
 
 	"github.com/netsteer/netsteer/io/fileout"
+	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/io/textout"
 )
 
@@ -18,10 +18,12 @@ type outFlags struct {
 	format string
 	output string
 	all    bool
+	// labels and groups of the states, for graph files (nil: none).
+	labels, groups []string
 }
 
 func (f *outFlags) register(fs *pflag.FlagSet) {
-	fs.StringVar(&f.format, "format", "", "output format: text, json or csv (default: from -o's extension, else text)")
+	fs.StringVar(&f.format, "format", "", "output format: text, json, csv, or the network with the answer as attributes: graphml or nodelink (default: from -o's extension, else text)")
 	fs.StringVarP(&f.output, "output", "o", "-", "write the result to this file (- for standard output)")
 	fs.BoolVar(&f.all, "all", false, "list every state in the text report (long lists are capped otherwise)")
 }
@@ -31,11 +33,16 @@ func (f *outFlags) register(fs *pflag.FlagSet) {
 // extension is a usage error.
 func (f *outFlags) resolve() error {
 	ext := ""
-	switch strings.ToLower(filepath.Ext(strings.TrimSuffix(strings.ToLower(f.output), ".gz"))) {
-	case ".json":
+	name := strings.ToLower(f.output)
+	switch {
+	case strings.HasSuffix(name, ".nodelink.json"):
+		ext = "nodelink"
+	case strings.HasSuffix(name, ".json"):
 		ext = "json"
-	case ".csv":
+	case strings.HasSuffix(name, ".csv"):
 		ext = "csv"
+	case strings.HasSuffix(name, ".graphml"):
+		ext = "graphml"
 	}
 	f.format = strings.ToLower(f.format)
 	switch f.format {
@@ -44,14 +51,23 @@ func (f *outFlags) resolve() error {
 		if f.format == "" {
 			f.format = "text"
 		}
-	case "text", "json", "csv":
+	case "text", "json", "csv", "graphml", "nodelink":
+		if f.format == "json" && ext == "nodelink" {
+			break
+		}
 		if ext != "" && ext != f.format {
 			return usagef("--format %s contradicts -o %s", f.format, f.output)
 		}
 	default:
-		return usagef("--format %q: want text, json or csv", f.format)
+		return usagef("--format %q: want text, json, csv, graphml or nodelink", f.format)
 	}
 	return nil
+}
+
+// annotator is a report that can give the network with its answer as
+// attributes (drivers, check, actuators, sensors).
+type annotator interface {
+	Annotated() *netwrite.Annotated
 }
 
 // report is a result the command line can write in each format: JSON by
@@ -75,6 +91,18 @@ func (f *outFlags) write(e *env, r report) error {
 			}
 		case "csv":
 			err = r.CSV(bw)
+		case "graphml", "nodelink":
+			an, ok := r.(annotator)
+			if !ok {
+				return usagef("--format %s: this command's answer is not a network", f.format)
+			}
+			a := an.Annotated()
+			a.AddLabels(f.labels, f.groups)
+			if f.format == "graphml" {
+				err = netwrite.WriteGraphML(bw, a)
+			} else {
+				err = netwrite.WriteNodeLink(bw, a)
+			}
 		default:
 			o := textout.Options{Width: e.Width, All: f.all, MoreHint: "--all lists them"}
 			if f.output != "-" {

@@ -116,6 +116,7 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 					return err
 				}
 				r.File = path
+				of.labels, of.groups = in.labelsGroups()
 				finish(&r.Timings, in, start)
 				if err := of.write(e, textout.Place{R: r, Costed: in.table != nil}); err != nil {
 					return err

@@ -126,7 +126,8 @@ func TestNodeLinkJSON(t *testing.T) {
 		{name: "undeclared", in: "{\"directed\": true, \"nodes\": [{\"id\": 1}],\n\"links\": [\n{\"source\": 1, \"target\": 3}]}", line: 3, err: `edge names node "3", which is never declared`},
 		{name: "no id", in: "{\"nodes\": [\n{\"label\": 1}]}", line: 2, err: "a node without an id"},
 		{name: "twice", in: `{"nodes": [{"id": 1}, {"id": "1"}]}`, line: 1, err: `node "1" declared twice`},
-		{name: "both link keys", in: `{"nodes": [], "links": [], "edges": []}`, line: 1, err: "both"},
+		{name: "link keys that differ", in: `{"nodes": [{"id": 1}, {"id": 2}], "links": [{"source": 1, "target": 2}], "edges": [{"source": 2, "target": 1}]}`, line: 0, err: "differ"},
+		{name: "a link key twice", in: `{"nodes": [], "links": [], "links": []}`, line: 1, err: "two"},
 		{name: "syntax", in: "{\"nodes\": [\n{\"id\": 1,,}]}", line: 2, err: "JSON: "},
 		{name: "ends early", in: `{"nodes": [{"id": 1}`, line: 1, err: "ends early"},
 		{name: "trailing", in: `{"nodes": [{"id": 1}]} {}`, line: 1, err: "data after the JSON object"},
@@ -138,4 +139,16 @@ func TestNodeLinkJSON(t *testing.T) {
 		{name: "bad id type", in: `{"nodes": [{"id": [1]}]}`, line: 1, err: "id: want a string or a number"},
 	}
 	runReadCases(t, NodeLinkJSON, cases)
+}
+
+// The edges under both "links" and "edges", as netsteer writes them for
+// networkx of either default, read as one list.
+func TestNodeLinkBothKeys(t *testing.T) {
+	in, err := Read(strings.NewReader(`{"directed": true, "nodes": [{"id": "a"}, {"id": "b"}], "links": [{"source": "a", "target": "b"}], "edges": [{"source": "a", "target": "b"}]}`), "x.json", Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if g := in.Network; g.N() != 2 || g.Edges() != 1 || g.DuplicatesMerged() != 0 {
+		t.Fatalf("got %d states, %d edges, %d merged", g.N(), g.Edges(), g.DuplicatesMerged())
+	}
 }

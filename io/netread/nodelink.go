@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"io"
+	"slices"
 	"strings"
 )
 
@@ -190,7 +191,7 @@ func readJSON(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	}
 	var (
 		directed, haveDirected bool
-		edges                  []rawEdge
+		edges, second          []rawEdge
 		haveNodes, haveLinks   bool
 		linksKey               string
 	)
@@ -251,8 +252,15 @@ func readJSON(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				return nil
 			})
 		case "links", "edges":
+			// Writers may give the edges under both keys, for readers that
+			// expect either; the second list must then repeat the first.
+			into := &edges
 			if haveLinks {
-				return fail("both %q and %q arrays; want one", linksKey, key)
+				if key == linksKey {
+					return fail("two %q arrays; want one", key)
+				}
+				second = []rawEdge{}
+				into = &second
 			}
 			haveLinks, linksKey = true, key
 			return array(key, func() error {
@@ -295,7 +303,7 @@ func readJSON(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				if e.u < 0 || e.v < 0 {
 					return errorf(file, start, "an edge without source and target")
 				}
-				edges = append(edges, e)
+				*into = append(*into, e)
 				return nil
 			})
 		default:
@@ -313,6 +321,9 @@ func readJSON(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 		return nil, &Error{File: file, Line: 1, Msg: "not node-link JSON: no \"nodes\" array"}
 	}
 	_ = haveDirected
+	if second != nil && !slices.Equal(edges, second) {
+		return nil, &Error{File: file, Msg: "the \"links\" and \"edges\" arrays differ; want one list of edges"}
+	}
 	for _, e := range edges {
 		gb.edge(e.u, e.v, e.w, e.hasW, !directed)
 	}

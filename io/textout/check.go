@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/placement"
@@ -243,3 +244,6 @@ func completionCSV(kv func(k, v string), k string, pl *placement.Placement) {
 	states(kv, k+"added", pl.Added)
 	kv(k+"total_cost", pl.Cost.String())
 }
+
+// Annotated returns the network with the answer as attributes.
+func (c Check) Annotated() *netwrite.Annotated { return netwrite.FromCheck(c.R) }

@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
 )
@@ -159,3 +160,6 @@ func (d Drivers) CSV(w io.Writer) error {
 	cw.Flush()
 	return cw.Error()
 }
+
+// Annotated returns the network with the answer as attributes.
+func (d Drivers) Annotated() *netwrite.Annotated { return netwrite.FromDrivers(d.R) }

@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
 )
@@ -247,3 +248,6 @@ func (p Place) rankingText(t *tw) {
 		t.row(fmt.Sprintf("  %3d. %-36s ", c.Rank, what), "worst-case energy %s, trace %.3g", energy, c.GramianTrace)
 	}
 }
+
+// Annotated returns the network with the answer as attributes.
+func (p Place) Annotated() *netwrite.Annotated { return netwrite.FromPlace(p.R) }

@@ -143,6 +143,8 @@ type PropertyResult struct {
 	// Targets is the target-control verdict (CheckRequest.Targets); nil
 	// when not asked.
 	Targets *target.Verdict `json:"targets,omitempty"`
+	// Design is the design judged.
+	Design structural.Design `json:"-"`
 }
 
 // CheckResult is the answer to "does this design work, and if not, what
@@ -217,7 +219,7 @@ func Check(g *structural.Network, req CheckRequest) (*CheckResult, error) {
 			return nil, err
 		}
 		t = r.Timings.Add("check_"+x.p.String(), t)
-		prop := &PropertyResult{Verdict: v}
+		prop := &PropertyResult{Verdict: v, Design: *x.d}
 		if req.Strong != nil {
 			prop.Strong, err = strong.Check(g, strong.Request{Property: x.p, Design: *x.d, Class: *req.Strong, WitnessEntries: req.WitnessEntries})
 			if err != nil {
