@@ -577,3 +577,11 @@ func num(n int) string {
 	}
 	return s
 }
+
+// File describes an input: what it is for, its name, and the size and
+// SHA-256 of the bytes the analysis read (taken while reading, so
+// standard input and FIFOs are covered and a file changed afterwards is
+// not certified with its new content).
+type File struct {
+	Role, Name, Size, SHA256 string
+}
