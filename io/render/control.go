@@ -21,7 +21,6 @@ const (
 	gapW    = 30.0
 	rowH    = 44.0
 	leftPad = 12.0
-	sigW    = 96.0 // room for the signal node and its cost
 )
 
 func controlDesc(in *Input, opt Options) string {
@@ -118,15 +117,19 @@ func drawSignal(s *scene, in *Input, has map[string]bool, st *analysis.Stem, x, 
 		tip += ", cost " + st.Cost.String()
 	}
 	s.tip(tip)
-	it := s.ellipse(x, y-14, 28, 28, fill, stroke, 1.6)
-	it.dash = dash
-	s.text(x+14, y+4.5, fit(label, smallSize, true, 26), smallSize, true, 'm', colInk)
+	w := signalWidth(label)
+	it := s.rect(x, y-13, w, 26, fill, stroke, 1.6)
+	it.rx, it.dash = 13, dash
+	s.text(x+w/2, y+4.5, label, smallSize, true, 'm', colInk)
 	if st.Cost != nil {
-		s.text(x+34, y+4.5, st.Cost.String(), smallSize, false, 's', colMuted)
+		s.text(x+w+5, y+4.5, st.Cost.String(), smallSize, false, 's', colMuted)
 	}
 	s.end()
 	has[key] = true
 }
+
+// signalWidth is the width of a signal's pill.
+func signalWidth(label string) float64 { return math.Max(26, textWidth(label, smallSize, true)+14) }
 
 // arrow draws a control edge from x0 to x1 at height y.
 func arrow(s *scene, col string, sw, x0, x1, y float64, dash string) {
@@ -169,6 +172,14 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 	}
 	// Cycles hung from cycles count towards the stem; the marks show the
 	// ones hung from a stem state or its signal.
+	sigW := 60.0
+	for k := 0; k < min(len(st.Stems), opt.maxStems()); k++ {
+		w := signalWidth(in.signalName(false, st.Stems[k].Signal)) + 30
+		if c := st.Stems[k].Cost; c != nil {
+			w += textWidth(c.String(), smallSize, false) + 6
+		}
+		sigW = math.Max(sigW, w)
+	}
 	slots := int(math.Floor((sceneWidth - leftPad - sigW - 150) / (boxW + gapW)))
 	y := top + 6
 	shown := min(len(st.Stems), opt.maxStems())
@@ -192,7 +203,7 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 			head := slots - 2
 			draw = append(append(append([]int32{}, ids[:head]...), -1), ids[len(ids)-1])
 		}
-		prevEnd := leftPad + 30.0
+		prevEnd := leftPad + signalWidth(in.signalName(false, stem.Signal))
 		for i, id := range draw {
 			col, dash := colBlue, ""
 			if i == 0 {

@@ -104,13 +104,13 @@ func histogram(s *scene, x, y, w, h float64, title, xlabel string, a, b []analys
 		if ta > 0 && bn.a > 0 {
 			f := float64(bn.a) / float64(ta)
 			s.tip(fmt.Sprintf("%s, %s %s: %s (%.3g)", nameA, xlabel, label, num(bn.a), f))
-			s.rect(bx, top+plotH-f*plotH, barW, f*plotH, colA, "", 0)
+			s.rect(bx, top+plotH-f/maxF*plotH, barW, f/maxF*plotH, colA, "", 0)
 			s.end()
 		}
 		if tb > 0 && bn.b > 0 {
 			f := float64(bn.b) / float64(tb)
 			s.tip(fmt.Sprintf("%s, %s %s: %s (%.3g)", nameB, xlabel, label, num(bn.b), f))
-			s.rect(bx+barW, top+plotH-f*plotH, barW, f*plotH, colB, colInk, 1)
+			s.rect(bx+barW, top+plotH-f/maxF*plotH, barW, f/maxF*plotH, colB, colInk, 1)
 			s.end()
 		}
 		if i%every == 0 {
@@ -118,7 +118,6 @@ func histogram(s *scene, x, y, w, h float64, title, xlabel string, a, b []analys
 		}
 	}
 	s.text(ax+aw/2, top+plotH+34, xlabel, smallSize, false, 'm', colInk)
-	s.text(x, top+plotH/2, "", smallSize, false, 's', colInk)
 }
 
 // degreesScene draws the in- and out-degree distributions of all states

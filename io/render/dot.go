@@ -539,7 +539,8 @@ func (d *dotWriter) condensation() {
 			tip = append(tip, "the state "+name(g.Name(cn.First))+", a component of its own")
 			tip = append(tip, facts...)
 		case cn.Component >= 0:
-			lines = append(lines, rankName(cn.Rank), counts)
+			// Whole words on each line: the rank, what it is, the counts.
+			lines = append(lines, strings.TrimSuffix(rankName(cn.Rank), " strongly connected component"), "strongly connected component", counts)
 			tip = append(tip, rankName(cn.Rank)+": "+counts, "includes "+name(g.Name(cn.First)))
 		default:
 			what := map[string]string{"source": "source", "sink": "sink", "other": "other"}[cn.Summary]

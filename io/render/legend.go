@@ -124,13 +124,16 @@ func legendEntries(in *Input, has map[string]bool, condensed bool) []legendEntry
 	add("signal-edge", edgeSwatch(colOrange, 1.6, "dash"), "a signal acts on a state")
 	add("sense-edge", edgeSwatch(colGreen, 1.6, "dot"), "a state is sensed")
 	if condensed {
-		add("driven", componentSwatch(false), "")
-		if len(es) > 0 && es[len(es)-1].text == "" {
-			es[len(es)-1] = legendEntry{nodeSwatch(colSky, colInk, 1, ""), "holds driven states"}
+		box := func(fill, stroke string, sw float64, dash string) swatch {
+			return func(s *scene, x, y float64) {
+				it := s.rect(x, y+1, 26, 14, fill, stroke, sw)
+				it.rx, it.dash = 4, dash
+			}
 		}
+		add("driven", box(colSky, colInk, 1, ""), "holds driven states")
 		add("sensed", doubleSwatch(colGreen), "holds sensed states")
-		add("unreached", nodeSwatch(colYellow, colInk, 1.6, "dash"), "holds unreached states")
-		add("unobserved", nodeSwatch(colGrey, colInk, 1.6, "dot"), "holds unobserved states")
+		add("unreached", box(colYellow, colInk, 1, ""), "holds unreached states")
+		add("unobserved", box(colGrey, colInk, 1, ""), "holds unobserved states")
 	} else {
 		add("driven", nodeSwatch(colSky, colInk, 1, ""), "state driven by "+article(ik))
 		add("sensed", doubleSwatch(colGreen), "state sensed by "+article(ok))
@@ -303,7 +306,7 @@ func drawFramed(ctx context.Context, in *Input, v *View, dot []byte, layout stri
 	fr := frame(in, v.Desc, has, condensed, gw, gh)
 	var buf bytes.Buffer
 	fmt.Fprintf(&buf, `<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" viewBox="0 0 %s %s" width="100%%" style="min-width:%spx" font-family="%s" font-size="%s">`+"\n",
-		ff(fr.s.W), ff(fr.s.H), ff(MinWidth(fr.s.W, gvFontSize)), fontStack, ff(textSize))
+		ff(fr.s.W), ff(fr.s.H), ff(MinWidth(fr.s.W, math.Min(gvFontSize, smallSize))), fontStack, ff(textSize))
 	fmt.Fprintf(&buf, `<rect x="0" y="0" width="%s" height="%s" fill="#FFFFFF"/>`+"\n", ff(fr.s.W), ff(fr.s.H))
 	fmt.Fprintf(&buf, `<g transform="translate(%s %s)">`, ff(fr.gx), ff(fr.gy))
 	buf.Write(inner)
