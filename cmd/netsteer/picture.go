@@ -40,6 +40,7 @@ type pictureFlags struct {
 	hops            int
 	layout          string
 	budget          float64
+	nodeTable       string // --node-table, set by the command
 }
 
 func (p *pictureFlags) registerDesign(fs *pflag.FlagSet) {
@@ -87,6 +88,8 @@ func (p *pictureFlags) check() error {
 		return usagef("--around draws the around view; drop --view %s", p.view)
 	case p.around == "" && k == render.Around:
 		return usagef("--view around needs --around NAMES")
+	case k == render.Groups && p.nodeTable == "":
+		return usagef("--view groups draws the groups of a node table: give --node-table FILE")
 	case p.inputs == "-" && p.outputs == "-":
 		return usagef("--inputs and --outputs cannot both read standard input")
 	}
@@ -385,7 +388,7 @@ func describeView(err error) error {
 	if errors.As(err, &be) {
 		return fmt.Errorf("%s (--view control, components, degrees or groups; --around NAMES for a neighbourhood; --budget SECONDS to wait longer)", strings.TrimPrefix(be.Error(), "render: "))
 	}
-	return err
+	return errors.New(strings.TrimPrefix(err.Error(), "render: "))
 }
 
 // progress shows a long layout's progress on the terminal.

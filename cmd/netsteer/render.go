@@ -84,6 +84,7 @@ Example:
 			if *output == "" {
 				return usagef("give the picture's file with -o FILE.svg (or .png, .dot)")
 			}
+			pf.nodeTable = nf.nodeTable
 			if err := pf.check(); err != nil {
 				return err
 			}

@@ -83,6 +83,7 @@ Example:
 			if *pdf != "" && *output == "-" {
 				return usagef("--pdf prints the page from its file: give -o FILE.html")
 			}
+			pf.nodeTable = nf.nodeTable
 			if err := pf.check(); err != nil {
 				return err
 			}

@@ -155,7 +155,6 @@ func TestCondensationAgainstGonum(t *testing.T) {
 	}
 }
 
-
 // path of small random DAGs, and checks that back edges are ignored.
 func TestDepth(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
