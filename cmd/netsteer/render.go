@@ -109,7 +109,7 @@ Example:
 			if f != render.FormatDOT && pf.needsLayout(l.g.N()) {
 				// Before the analysis, which may take long.
 				if _, err := render.FindLayoutProgram(); err != nil {
-					return err
+					return describeView(err)
 				}
 			}
 			rv, err := l.review(e, sh, pf.roles, true, 0)

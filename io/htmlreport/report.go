@@ -120,7 +120,7 @@ func Write(w io.Writer, r *Review) error {
 		w, h, min := svgSize(svg)
 		return &pic{Title: title, Note: note, SVG: s, MinWidth: strconv.Itoa(int(min)) + "px", Wide: w > 1.2*h}, nil
 	}
-	if len(r.Picture) > 0 && r.PictureError == "" {
+	if len(r.Picture) > 0 {
 		p, err := mk("", r.PictureNote, r.Picture)
 		if err != nil {
 			return err

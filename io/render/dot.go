@@ -179,13 +179,13 @@ func (d *dotWriter) states() {
 
 	// Nodes.
 	for i, s := range v.States {
-		name := g.Name(s)
+		nm := name(g.Name(s))
 		shown := in.shownName(s)
 		lines := []string{shown}
 		var tip []string
-		tip = append(tip, name)
-		if shown != name {
-			tip[0] = shown + " (" + name + ")"
+		tip = append(tip, nm)
+		if shown != nm {
+			tip[0] = shown + " (" + nm + ")"
 		}
 		attrs := []string{}
 		// Fill: the most pressing finding wins; the tooltip lists all.
@@ -245,7 +245,7 @@ func (d *dotWriter) states() {
 		}
 		if in.Group != nil {
 			if gr := in.Group(s); gr != "" {
-				tip = append(tip, "group: "+gr)
+				tip = append(tip, "group: "+name(gr))
 			}
 		}
 		if v.Hidden != nil && v.Hidden[i] > 0 {
@@ -369,7 +369,7 @@ func (d *dotWriter) completion(pos map[int32]int) []completed {
 			}
 			c := pl.CostOf(v).String()
 			d.printf("  %s%d [label=\"new\\n%s\", shape=%s, style=\"dashed,filled\", width=0.42, height=0.36, margin=\"0.02,0.02\", fillcolor=\"#FFFFFF\", color=%q, penwidth=1.6, tooltip=%s];\n",
-				id, v, c, shape, col, dotTooltip("new "+kind+" of the cheapest completion on "+d.in.Net.Name(v)+", cost "+c))
+				id, v, c, shape, col, dotTooltip("new "+kind+" of the cheapest completion on "+name(d.in.Net.Name(v))+", cost "+c))
 			d.has["complete"] = true
 			if k == 0 {
 				d.has["input-new"] = true
@@ -406,7 +406,7 @@ func (d *dotWriter) signalTip(kind, verb string, states []int32) string {
 		if i > 0 {
 			b.WriteString(", ")
 		}
-		b.WriteString(d.in.Net.Name(s))
+		b.WriteString(name(d.in.Net.Name(s)))
 	}
 	return b.String()
 }
@@ -482,7 +482,7 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	}
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(gr), colFrame)
+		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(name(gr)), colFrame)
 		d.printf("   ")
 		for _, s := range groups[gr] {
 			d.printf(" s%d;", s)
@@ -594,7 +594,7 @@ func (d *dotWriter) condensation() {
 	sort.Strings(names)
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(gr), colFrame)
+		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(name(gr)), colFrame)
 		for _, i := range groups[gr] {
 			d.printf(" c%d;", i)
 		}

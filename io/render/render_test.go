@@ -348,10 +348,11 @@ func TestHostileNamesSVG(t *testing.T) {
 				t.Errorf("%s: text %q not shown verbatim", layout, w)
 			}
 		}
-		// Tooltips carry the whole (cleaned) name.
+		// Tooltips carry the whole name, escaped as the text reports
+		// write it.
 		tips := strings.Join(s.tooltips, "\n")
 		for _, n := range hostileNames {
-			if !strings.Contains(tips, clean(n, maxTooltipRunes)) {
+			if !strings.Contains(tips, clean(name(n), maxTooltipRunes)) {
 				t.Errorf("%s: tooltip for %q missing", layout, n)
 			}
 		}
