@@ -24,8 +24,8 @@ import (
 
 	"gonum.org/v1/gonum/stat"
 	gplot "gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -389,7 +389,7 @@ func NewWith(rows []sweepcsv.Row, opt Options) (*gplot.Plot, error) {
 		p.Y.Min = 0
 		if max := maxY(series); max > 0 {
 			// Headroom for the legend, which sits top right.
-			p.Y.Max = math.Min(1, max*(1.1+0.08*float64(len(p.Legend.Entries))))
+			p.Y.Max = math.Min(1, max*(1.1+0.16*float64(len(series))))
 		}
 	}
 	return p, nil
