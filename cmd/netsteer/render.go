@@ -1,7 +1,6 @@
 package main
 
 import (
-	"fmt"
 	"io"
 	"strings"
 
@@ -142,10 +141,8 @@ Example:
 				return err
 			}
 			if *output != "-" {
-				fmt.Fprintf(e.Stdout, "%s: %s.\n", *output, render.Summary(in))
-				fmt.Fprintf(e.Stdout, "View: %s.\n", v.Desc)
-				for _, n := range in.Notes {
-					fmt.Fprintln(e.Stdout, n)
+				if err := render.WriteSummary(e.Stdout, *output, in, v, e.Width); err != nil {
+					return err
 				}
 			}
 			if !holds(rv) {

@@ -152,13 +152,8 @@ Example:
 				return err
 			}
 			if *output != "-" {
-				fmt.Fprintf(e.Stdout, "%s: review of %s.\n", *output, displayFile(path))
-				for _, a := range page.Answers {
-					word := ""
-					if a.Word != "" {
-						word = a.Word + ". "
-					}
-					fmt.Fprintf(e.Stdout, "%s %s%s\n", a.Topic, word, a.Headline)
+				if err := htmlreport.WriteSummary(e.Stdout, *output, displayFile(path), page, e.Width); err != nil {
+					return err
 				}
 			}
 			if *pdf != "" {

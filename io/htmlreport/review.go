@@ -2,6 +2,7 @@ package htmlreport
 
 import (
 	"fmt"
+	"io"
 	"runtime/debug"
 	"strconv"
 	"strings"
@@ -584,4 +585,23 @@ func num(n int) string {
 // not certified with its new content).
 type File struct {
 	Role, Name, Size, SHA256 string
+}
+
+// WriteSummary writes what a terminal shows after the page is written:
+// the file, then per card the question and, indented below it, the
+// answer word and the headline, wrapped to width columns without breaking
+// a name.
+func WriteSummary(w io.Writer, file, network string, r *Review, width int) error {
+	var b strings.Builder
+	b.WriteString(words.Wrap(file+": review of "+words.Quote(network)+".", width, "", "  "))
+	for _, a := range r.Answers {
+		b.WriteString(words.Wrap(a.Topic, width, "", "  "))
+		line := a.Headline
+		if a.Word != "" {
+			line = a.Word + ". " + line
+		}
+		b.WriteString(words.Wrap(line, width, "  ", "  "))
+	}
+	_, err := io.WriteString(w, b.String())
+	return err
 }

@@ -4,7 +4,10 @@ import (
 	"bytes"
 	"context"
 	"io"
+	"strings"
 	"time"
+
+	"github.com/netsteer/netsteer/io/internal/words"
 )
 
 // Draw selects the view of in and draws it in format f: the whole pipeline
@@ -100,3 +103,17 @@ func (e *FormatError) Error() string {
 // Nodes returns the number of nodes a Graphviz view draws (states or
 // components; signal nodes not counted), 0 for the others.
 func (v *View) Nodes() int { return len(v.States) + len(v.Comps) }
+
+// WriteSummary writes what a terminal shows after a picture is written:
+// the file and the title's numbers, the view, and one line per answer,
+// wrapped to width columns without breaking a name.
+func WriteSummary(w io.Writer, file string, in *Input, v *View, width int) error {
+	var b strings.Builder
+	b.WriteString(words.Wrap(file+": "+Summary(in)+".", width, "", "  "))
+	b.WriteString(words.Wrap("View: "+v.Desc+".", width, "", "  "))
+	for _, n := range in.Notes {
+		b.WriteString(words.Wrap(n, width, "", "  "))
+	}
+	_, err := io.WriteString(w, b.String())
+	return err
+}
