@@ -110,9 +110,9 @@ func Verdict(s *analysis.Structure) string {
 		return fmt.Sprintf("Cheapest dedicated %s: %s (%s new, total cost %s).", pluralKind(n, s.Kind), num(n), num(added), cost)
 	}
 	v := s.Verdict
-	what := capital(pluralKind(n, s.Kind))
+	what := "Design of " + num(n) + " " + pluralKind(n, s.Kind)
 	if v.Holds {
-		return fmt.Sprintf("%s (%s): structurally %s.", what, num(n), adj)
+		return fmt.Sprintf("%s: structurally %s.", what, adj)
 	}
 	var why []string
 	if k := v.Unreached.Len(); k > 0 {
@@ -129,15 +129,8 @@ func Verdict(s *analysis.Structure) string {
 		}
 		why = append(why, fmt.Sprintf("a dilation (at least %s more %s)", num(d), plural(d, sig, sig+"s")))
 	}
-	return fmt.Sprintf("%s (%s): NOT structurally %s: %s; %s dimension %s of %s.", what, num(n), adj, strings.Join(why, "; "),
+	return fmt.Sprintf("%s: NOT structurally %s: %s; %s dimension %s of %s.", what, adj, strings.Join(why, "; "),
 		adj, num(v.Dimension), num(len(v.MatchedFrom())))
-}
-
-func capital(s string) string {
-	if s == "" {
-		return s
-	}
-	return strings.ToUpper(s[:1]) + s[1:]
 }
 
 // prep derives the lists and marks the drawing code reads.
