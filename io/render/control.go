@@ -263,6 +263,18 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 	if k := len(in.unreached); k > 0 {
 		foot = append(foot, fmt.Sprintf("%s %s unreached by every signal.", num(k), plural(k, "state", "states")))
 	}
+	if pl := in.CompleteIn; pl != nil && pl.Feasible && pl.Added.Len() > 0 {
+		var names []string
+		for i, v := range pl.Added.IDs() {
+			if i == 12 {
+				names = append(names, fmt.Sprintf("and %s more", num(pl.Added.Len()-12)))
+				break
+			}
+			names = append(names, in.shownName(v)+" ("+pl.CostOf(v).String()+")")
+		}
+		foot = append(foot, fmt.Sprintf("The cheapest completion adds %s %s, total cost %s: on %s.",
+			num(pl.Added.Len()), pluralKind(pl.Added.Len(), "new actuator"), pl.Cost, strings.Join(names, ", ")))
+	}
 	y += 8
 	for _, f := range foot {
 		for _, l := range wrap(f, textSize, false, sceneWidth-2*leftPad) {
