@@ -155,12 +155,7 @@ func (p *builder) names(s structural.States) string {
 	return strings.Join(parts, ", ")
 }
 
-func (p *builder) cost(c structural.Cost) string {
-	if !p.c.Costed {
-		return strconv.FormatInt(int64(c/structural.Unit), 10)
-	}
-	return c.String()
-}
+func (p *builder) cost(c structural.Cost) string { return words.Thousands(c.String()) }
 
 // FromReview builds the review page of rv. The first screen answers the
 // questions asked, in their words: whether the given designs hold, or

@@ -2,6 +2,7 @@ package render
 
 import (
 	"fmt"
+	"github.com/netsteer/netsteer/io/internal/words"
 	"math"
 	"strings"
 
@@ -114,7 +115,7 @@ func drawSignal(s *scene, in *Input, has map[string]bool, st *analysis.Stem, x, 
 	label := in.signalName(false, st.Signal)
 	tip := label + ": " + what
 	if st.Cost != nil {
-		tip += ", cost " + st.Cost.String()
+		tip += ", cost " + words.Thousands(st.Cost.String())
 	}
 	s.tip(tip)
 	w := signalWidth(label)
@@ -122,7 +123,7 @@ func drawSignal(s *scene, in *Input, has map[string]bool, st *analysis.Stem, x, 
 	it.rx, it.dash = 13, dash
 	s.text(x+w/2, y+4.5, label, smallSize, true, 'm', colInk)
 	if st.Cost != nil {
-		s.text(x+w+5, y+4.5, st.Cost.String(), smallSize, false, 's', colMuted)
+		s.text(x+w+5, y+4.5, words.Thousands(st.Cost.String()), smallSize, false, 's', colMuted)
 	}
 	s.end()
 	has[key] = true
@@ -176,7 +177,7 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 	for k := 0; k < min(len(st.Stems), opt.maxStems()); k++ {
 		w := signalWidth(in.signalName(false, st.Stems[k].Signal)) + 30
 		if c := st.Stems[k].Cost; c != nil {
-			w += textWidth(c.String(), smallSize, false) + 6
+			w += textWidth(words.Thousands(c.String()), smallSize, false) + 6
 		}
 		sigW = math.Max(sigW, w)
 	}
@@ -204,6 +205,9 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 			draw = append(append(append([]int32{}, ids[:head]...), -1), ids[len(ids)-1])
 		}
 		prevEnd := leftPad + signalWidth(in.signalName(false, stem.Signal))
+		if stem.Cost != nil {
+			prevEnd += textWidth(words.Thousands(stem.Cost.String()), smallSize, false) + 9
+		}
 		for i, id := range draw {
 			col, dash := colBlue, ""
 			if i == 0 {
@@ -270,10 +274,10 @@ func controlScene(in *Input, v *View) (*scene, map[string]bool) {
 				names = append(names, fmt.Sprintf("and %s more", num(pl.Added.Len()-12)))
 				break
 			}
-			names = append(names, in.shownName(v)+" ("+pl.CostOf(v).String()+")")
+			names = append(names, in.shownName(v)+" ("+words.Thousands(pl.CostOf(v).String())+")")
 		}
 		foot = append(foot, fmt.Sprintf("The cheapest completion adds %s %s, total cost %s: on %s.",
-			num(pl.Added.Len()), pluralKind(pl.Added.Len(), "new actuator"), pl.Cost, strings.Join(names, ", ")))
+			num(pl.Added.Len()), pluralKind(pl.Added.Len(), "new actuator"), words.Thousands(pl.Cost.String()), strings.Join(names, ", ")))
 	}
 	y += 8
 	for _, f := range foot {

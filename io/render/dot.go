@@ -3,6 +3,7 @@ package render
 import (
 	"bufio"
 	"fmt"
+	"github.com/netsteer/netsteer/io/internal/words"
 	"io"
 	"math"
 	"sort"
@@ -333,8 +334,8 @@ func (d *dotWriter) signalNode(output bool, i int) {
 		what = "new " + what
 	}
 	if stem != nil && stem.Cost != nil {
-		label += `\n` + stem.Cost.String()
-		what += ", cost " + stem.Cost.String()
+		label += `\n` + words.Thousands(stem.Cost.String())
+		what += ", cost " + words.Thousands(stem.Cost.String())
 	}
 	verb := "drives"
 	if output {
@@ -367,7 +368,7 @@ func (d *dotWriter) completion(pos map[int32]int) []completed {
 			if _, ok := pos[v]; !ok {
 				continue
 			}
-			c := pl.CostOf(v).String()
+			c := words.Thousands(pl.CostOf(v).String())
 			d.printf("  %s%d [label=\"new\\n%s\", shape=%s, style=\"dashed,filled\", width=0.42, height=0.36, margin=\"0.02,0.02\", fillcolor=\"#FFFFFF\", color=%q, penwidth=1.6, tooltip=%s];\n",
 				id, v, c, shape, col, dotTooltip("new "+kind+" of the cheapest completion on "+name(d.in.Net.Name(v))+", cost "+c))
 			d.has["complete"] = true

@@ -2,6 +2,7 @@ package render
 
 import (
 	"fmt"
+	"github.com/netsteer/netsteer/io/internal/words"
 	"strconv"
 	"strings"
 
@@ -107,7 +108,7 @@ func Verdict(s *analysis.Structure) string {
 		if s.Verdict != nil && !s.Verdict.Holds {
 			return fmt.Sprintf("No placement of dedicated %ss can make it structurally %s; %s placed where allowed.", s.Kind, adj, num(n))
 		}
-		return fmt.Sprintf("Cheapest dedicated %s: %s (%s new, total cost %s).", pluralKind(n, s.Kind), num(n), num(added), cost)
+		return fmt.Sprintf("Cheapest dedicated %s: %s (%s new, total cost %s).", pluralKind(n, s.Kind), num(n), num(added), words.Thousands(cost.String()))
 	}
 	v := s.Verdict
 	what := "Design of " + num(n) + " " + pluralKind(n, s.Kind)

@@ -19,15 +19,16 @@ import (
 // answer (control structure, groups, distributions) and the title and
 // legend around a Graphviz layout. One list of shapes is written as SVG or
 // painted as PNG, so both formats show the same thing. Units are CSS
-// pixels at 100 % zoom; scenes are at most sceneWidth wide so that text of
-// textSize or more stays at least 10 px on a 1,400-pixel screen.
+// pixels at 100 % zoom; scenes are sceneWidth wide, so that on a
+// 1,400-pixel screen they fit a review page's column (about 1,100 pixels)
+// with their smallest text (smallSize) still 10 pixels or more.
 type scene struct {
 	W, H  float64
 	items []item
 }
 
 const (
-	sceneWidth = 1400.0
+	sceneWidth = 1240.0
 	textSize   = 13.0 // body text; small text is smallSize
 	smallSize  = 11.5
 	titleSize  = 19.0
