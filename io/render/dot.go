@@ -473,7 +473,7 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	sort.Strings(names)
 	srcFrame := func(indent string, f frame) {
 		d.printf("%ssubgraph \"cluster_src%d\" {\n", indent, f.comp)
-		d.printf("%s  label=\"source component\"; fontsize=11; fontcolor=%q; style=\"dashed,rounded\"; color=%q; penwidth=1.6;\n", indent, colPurple, colPurple)
+		d.printf("%s  label=\"source component\"; fontsize=12; fontcolor=%q; style=\"dashed,rounded\"; color=%q; penwidth=1.6;\n", indent, colPurple, colPurple)
 		d.printf("%s ", indent)
 		for _, s := range f.states {
 			d.printf(" s%d;", s)
@@ -483,7 +483,7 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	}
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(name(gr)), colFrame)
+		d.printf("    label=%s; fontsize=12; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(name(gr)), colFrame)
 		d.printf("   ")
 		for _, s := range groups[gr] {
 			d.printf(" s%d;", s)
@@ -595,7 +595,7 @@ func (d *dotWriter) condensation() {
 	sort.Strings(names)
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(name(gr)), colFrame)
+		d.printf("    label=%s; fontsize=12; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(name(gr)), colFrame)
 		for _, i := range groups[gr] {
 			d.printf(" c%d;", i)
 		}
