@@ -206,8 +206,9 @@ func generated(now time.Time) string {
 }
 
 // pictures draws the page's views: the one --view chooses (the control
-// structure when the layout program is missing), then the groups and the
-// distributions.
+// structure when the layout program is missing), then the control
+// structure, the groups and the distributions, and for a network above
+// --max-nodes its components.
 func pictures(e *env, c *htmlreport.Context, in *render.Input, pf *pictureFlags, g *structural.Network) {
 	opt, err := pf.options(g)
 	if err != nil {
@@ -245,7 +246,12 @@ func pictures(e *env, c *htmlreport.Context, in *render.Input, pf *pictureFlags,
 	} else {
 		c.Pictures = append(c.Pictures, htmlreport.Picture{SVG: svg, Note: "View: " + v.Desc + ". Hover over a node for its full name and findings."})
 	}
-	for _, k := range []render.Kind{render.Control, render.Groups, render.Degrees} {
+	extra := []render.Kind{render.Control, render.Groups, render.Degrees}
+	if g.N() > pf.maxNodes {
+		// A large network's components, labelled by what they are.
+		extra = append(extra, render.Components)
+	}
+	for _, k := range extra {
 		if k == main || (k == render.Groups && in.Group == nil) || (k == render.Control && in.In == nil) {
 			continue
 		}
@@ -256,7 +262,8 @@ func pictures(e *env, c *htmlreport.Context, in *render.Input, pf *pictureFlags,
 			e.warn("the %s view could not be drawn: %s", k, strings.TrimPrefix(err.Error(), "render: "))
 			continue
 		}
-		title := map[render.Kind]string{render.Control: "Control structure", render.Groups: "By group of the node table", render.Degrees: "Distributions"}[k]
+		title := map[render.Kind]string{render.Control: "Control structure", render.Groups: "By group of the node table",
+			render.Degrees: "Distributions", render.Components: "Strongly connected components"}[k]
 		c.Pictures = append(c.Pictures, htmlreport.Picture{Title: title, SVG: svg, Note: "View: " + v.Desc + "."})
 	}
 }
