@@ -105,6 +105,13 @@ Example:
 			if err != nil {
 				return err
 			}
+			opt, err := pf.options(l.g)
+			if err != nil {
+				return err
+			}
+			if err := render.Precheck(opt.View, l.g.N(), l.g.Edges(), opt); err != nil {
+				return describeView(err)
+			}
 			if f != render.FormatDOT && pf.needsLayout(l.g.N()) {
 				// Before the analysis, which may take long.
 				if _, err := render.FindLayoutProgram(); err != nil {
@@ -120,10 +127,6 @@ Example:
 				t = displayFile(path)
 			}
 			in, err := l.picture(rv, t, pf.roles)
-			if err != nil {
-				return err
-			}
-			opt, err := pf.options(l.g)
 			if err != nil {
 				return err
 			}

@@ -80,3 +80,21 @@ func Duration(d time.Duration) string {
 	}
 	return fmt.Sprintf("%.2g days", s/86400)
 }
+
+// Precheck refuses a whole view of a network of n states and e edges
+// before anything is computed, as Select would after the analysis: more
+// than opt.MaxNodes states, or a layout estimated past opt.Budget. Other
+// views return nil (their size is known only after the analysis).
+func Precheck(kind Kind, n, e int, opt Options) error {
+	if kind != Whole {
+		return nil
+	}
+	est := estimate(n, e)
+	if n > opt.maxNodes() {
+		return &BudgetError{View: Whole, Nodes: n, Edges: e, Limit: opt.maxNodes(), Estimate: est}
+	}
+	if b := opt.budget(); est > b {
+		return &BudgetError{View: Whole, Nodes: n, Edges: e, Estimate: est, Budget: b}
+	}
+	return nil
+}
