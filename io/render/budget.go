@@ -77,8 +77,10 @@ func Duration(d time.Duration) string {
 		return fmt.Sprintf("%.2g min", s/60)
 	case s < 2*86400:
 		return fmt.Sprintf("%.2g h", s/3600)
+	case s < 100*86400:
+		return fmt.Sprintf("%.2g days", s/86400)
 	}
-	return fmt.Sprintf("%.2g days", s/86400)
+	return "over 100 days"
 }
 
 // Precheck refuses a whole view of a network of n states and e edges

@@ -319,3 +319,14 @@ func BenchmarkViews(b *testing.B) {
 		}
 	}
 }
+
+func TestDuration(t *testing.T) {
+	for d, want := range map[time.Duration]string{
+		300 * time.Millisecond: "under a second", 12 * time.Second: "12 s", 10 * time.Minute: "10 min",
+		5 * time.Hour: "5 h", 3 * 24 * time.Hour: "3 days", 1e7 * time.Second: "over 100 days",
+	} {
+		if got := Duration(d); got != want {
+			t.Errorf("Duration(%v) = %q, want %q", d, got, want)
+		}
+	}
+}
