@@ -5,6 +5,7 @@ import (
 	"context"
 	"io"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/netsteer/netsteer/io/internal/words"
@@ -70,10 +71,15 @@ func DrawView(ctx context.Context, in *Input, v *View, layout string, f Format, 
 		return err
 	}
 	if p, ok := ctx.Value(progressKey{}).(Progress); ok && p != nil {
+		// The reporter stops before DrawView returns: no report comes
+		// after the picture is written.
 		done := make(chan struct{})
-		defer close(done)
+		var wg sync.WaitGroup
+		wg.Add(1)
+		defer func() { close(done); wg.Wait() }()
 		start := time.Now()
 		go func() {
+			defer wg.Done()
 			t := time.NewTicker(time.Second)
 			defer t.Stop()
 			for {

@@ -6,6 +6,7 @@ import (
 	"encoding/xml"
 	"errors"
 	"math"
+	"os"
 	"strconv"
 	"strings"
 	"testing"
@@ -328,5 +329,35 @@ func TestDuration(t *testing.T) {
 		if got := Duration(d); got != want {
 			t.Errorf("Duration(%v) = %q, want %q", d, got, want)
 		}
+	}
+}
+
+// TestProgress: a layout that takes a while reports its progress about
+// once a second (a stand-in layout program that sleeps, then answers).
+func TestProgress(t *testing.T) {
+	if testing.Short() {
+		t.Skip("waits two seconds")
+	}
+	dir := t.TempDir()
+	prog := dir + "/slow-layout"
+	script := "#!/bin/sh\ncat >/dev/null\nsleep 2.2\nprintf 'netsteer-layout protocol 1\\n<svg xmlns=\"http://www.w3.org/2000/svg\" viewBox=\"0 0 10 10\"></svg>\\n'\n"
+	if err := os.WriteFile(prog, []byte(script), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	t.Setenv(LayoutEnv, prog)
+	in := heatingDrivers(t)
+	calls := 0
+	ctx := WithProgress(context.Background(), func(elapsed, est time.Duration) {
+		calls++
+		if elapsed <= 0 || est <= 0 {
+			t.Errorf("progress %v of %v", elapsed, est)
+		}
+	})
+	var b bytes.Buffer
+	if _, err := Draw(ctx, in, Options{View: Whole}, AutoLayout, FormatSVG, &b); err != nil {
+		t.Fatal(err)
+	}
+	if calls < 1 {
+		t.Errorf("no progress reported during a 2-second layout")
 	}
 }
