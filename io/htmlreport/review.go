@@ -165,17 +165,14 @@ func (p *builder) cost(c structural.Cost) string { return words.Thousands(c.Stri
 func FromReview(rv *analysis.Review, c Context) *Review {
 	p := &builder{rv: rv, c: &c, g: rv.Network()}
 	r := &Review{Title: c.Title, Files: c.Files, Tool: c.Build.String(), Options: c.Command, Generated: c.Generated, Cautions: Cautions}
-	var qs []string
 	net := words.Escape(c.Network)
 	if cr := rv.Check; cr != nil {
 		if pr := cr.Controllability; pr != nil {
 			q := fmt.Sprintf("Is %s structurally controllable from the inputs in %s?", net, words.Escape(c.InputsFile))
-			qs = append(qs, q)
 			r.Answers = append(r.Answers, p.verdictCard(q, pr, c.Inputs))
 		}
 		if pr := cr.Observability; pr != nil {
 			q := fmt.Sprintf("Is %s structurally observable from the outputs in %s?", net, words.Escape(c.OutputsFile))
-			qs = append(qs, q)
 			r.Answers = append(r.Answers, p.verdictCard(q, pr, c.Outputs))
 		}
 	}
@@ -187,10 +184,9 @@ func FromReview(rv *analysis.Review, c Context) *Review {
 			continue
 		}
 		q := fmt.Sprintf("Where must dedicated %ss go, at least cost, for %s to be structurally %s?", x.pl.Device, net, x.adj)
-		qs = append(qs, q)
 		r.Answers = append(r.Answers, p.placeCard(q, x.pl))
 	}
-	r.Question = strings.Join(qs, " ")
+	// Each card asks its own question, in the words of the command line.
 	if n := c.Numeric; n != nil {
 		r.Answers = append(r.Answers, p.numericCard(n))
 		r.Numeric = p.numericTable(n)
