@@ -48,6 +48,7 @@ type Input struct {
 	inputs, outputs                          [][]int32
 	unreached, dilation, unobserved, obsDila []int32
 	next                                     []int32 // matched successor on a stem or cycle, -1
+	inStem, outStem                          []int32 // signal -> index in Stems
 	stemOf, cycOf                            func(int32) int
 }
 
@@ -171,8 +172,10 @@ func (in *Input) prep() {
 			}
 		}
 		in.stemOf, in.cycOf = s.StemOf, s.CycleOf
+		in.inStem = stemIndex(s)
 	}
 	if s := in.Out; s != nil {
+		in.outStem = stemIndex(s)
 		in.outputs = s.Design.Signals()
 		if v := s.Verdict; v != nil {
 			in.unobserved = v.Unreached.IDs()
@@ -209,14 +212,25 @@ func (in *Input) signalName(output bool, i int) string {
 	return in.inputPrefix() + strconv.Itoa(in.In.Design.Number(i))
 }
 
-// stemOfSignal returns the stem of input signal i.
+// stemOfSignal returns the stem of signal i of structure s (In or Out).
 func (in *Input) stemOfSignal(s *analysis.Structure, i int) *analysis.Stem {
-	for k := range s.Stems {
-		if s.Stems[k].Signal == i {
-			return &s.Stems[k]
-		}
+	idx := in.inStem
+	if s == in.Out {
+		idx = in.outStem
 	}
-	return nil
+	if i < 0 || i >= len(idx) {
+		return nil
+	}
+	return &s.Stems[idx[i]]
+}
+
+// stemIndex maps each signal of s to its stem's index.
+func stemIndex(s *analysis.Structure) []int32 {
+	idx := make([]int32, s.Design.Len())
+	for k := range s.Stems {
+		idx[s.Stems[k].Signal] = int32(k)
+	}
+	return idx
 }
 
 // Edge kinds for drawing.
