@@ -135,7 +135,7 @@ func TestInstalledPair(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !bytes.Contains(b, []byte("\n<svg ")) || !bytes.Contains(b, []byte(">supply.header_temp</text>")) || bytes.Contains(b, []byte("DOCTYPE")) {
+	if !bytes.HasPrefix(b, []byte("<svg ")) || !bytes.Contains(b, []byte(">supply.header_temp</text>")) || bytes.Contains(b, []byte("DOCTYPE")) {
 		t.Errorf("plant.svg is not netsteer's SVG of the plant: %.200q", b)
 	}
 	if _, err := os.Stat(cache); err != nil {

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"strconv"
@@ -83,6 +84,20 @@ type input struct {
 	table  *nodetable.Table // nil without --node-table
 	readT  time.Duration
 	digest map[string][32]byte // SHA-256 of each file read, by path
+	files  []inputFile         // every file read, in the order read
+}
+
+// inputFile records one file read: what it was for, its name, and the
+// size and SHA-256 of the bytes read (before decompression).
+type inputFile struct {
+	Role, Name string
+	Size       int64
+	SHA256     string
+}
+
+func (in *input) record(role, path string, size int64, sum [32]byte) {
+	in.digest[path] = sum
+	in.files = append(in.files, inputFile{Role: role, Name: displayFile(path), Size: size, SHA256: hex.EncodeToString(sum[:])})
 }
 
 // load reads the network at path (and the node table), refusing an output
@@ -139,7 +154,6 @@ func (f *netFlags) load(path, out string, weights bool, extra ...string) (*input
 			return nil, err
 		}
 		in.table = t
-		in.digest[f.nodeTable] = t.SHA256
 		opt.States = t.States(f.allowIsolated)
 	}
 	start := time.Now()
@@ -150,7 +164,10 @@ func (f *netFlags) load(path, out string, weights bool, extra ...string) (*input
 		return nil, err
 	}
 	in.read, in.g, in.readT = r, r.Network, time.Since(start)
-	in.digest[path] = r.SHA256
+	in.record("network", path, r.Size, r.SHA256)
+	if in.table != nil {
+		in.record("node table", f.nodeTable, in.table.Size, in.table.SHA256)
+	}
 	if in.table != nil {
 		if err := in.table.Check(in.g); err != nil {
 			return nil, err
@@ -185,7 +202,7 @@ func (in *input) readDesign(e *env, path string, p structural.Property, weights 
 	if err != nil {
 		return nil, nil, err
 	}
-	in.digest[path] = file.SHA256
+	in.record(map[bool]string{true: "inputs", false: "outputs"}[p == structural.Controllability], path, file.Size, file.SHA256)
 	sigs := file.Signals
 	if len(sigs) == 0 {
 		what := "inputs"

@@ -25,7 +25,7 @@ func (f *targetsFlag) states(e *env, in *input) ([]int32, error) {
 	if err != nil {
 		return nil, err
 	}
-	in.digest[f.file] = file.SHA256
+	in.record("targets", f.file, file.Size, file.SHA256)
 	var out []int32
 	for _, s := range file.Signals {
 		out = append(out, s.States...)

@@ -27,6 +27,8 @@ type Review struct {
 	Picture      []byte
 	PictureNote  string
 	PictureError string
+	// More are further pictures (other views), each with a title.
+	More []Picture
 
 	// Tables are the detail tables (drivers, actuators, sensors, ...);
 	// Findings are the tables of a failing design's witness, shown
@@ -47,10 +49,20 @@ type Review struct {
 // Answer is one verdict: a topic, a yes/no (or nil for a plain figure),
 // a one-line headline and the figures behind it.
 type Answer struct {
-	Topic    string
+	Topic string
+	// OK colours the card: true good, false bad, nil neutral. Word is
+	// the answer in one or two words, in the question's terms.
 	OK       *bool
+	Word     string
 	Headline string
 	Facts    []Fact
+}
+
+// Picture is one drawn view: an SVG document (from io/render), sanitised
+// and inlined, with its title and a note.
+type Picture struct {
+	Title, Note string
+	SVG         []byte
 }
 
 // Fact is one labelled figure.
@@ -89,19 +101,38 @@ var page = template.Must(template.New("page").Funcs(template.FuncMap{
 
 // Write writes the review page to w.
 func Write(w io.Writer, r *Review) error {
+	type pic struct {
+		Title, Note string
+		SVG         template.HTML
+		MinWidth    string
+		Wide        bool
+	}
 	data := struct {
 		*Review
-		SVG  template.HTML
-		Wide bool // print the picture on a landscape page
+		Main  *pic
+		Other []pic
 	}{Review: r}
-	if len(r.Picture) > 0 && r.PictureError == "" {
-		svg, err := SanitizeSVG(r.Picture)
+	mk := func(title, note string, svg []byte) (*pic, error) {
+		s, err := SanitizeSVG(svg)
+		if err != nil {
+			return nil, err
+		}
+		w, h, min := svgSize(svg)
+		return &pic{Title: title, Note: note, SVG: s, MinWidth: strconv.Itoa(int(min)) + "px", Wide: w > 1.2*h}, nil
+	}
+	if len(r.Picture) > 0 {
+		p, err := mk("", r.PictureNote, r.Picture)
 		if err != nil {
 			return err
 		}
-		data.SVG = svg
-		w, h := svgSize(r.Picture)
-		data.Wide = w > 1.2*h
+		data.Main = p
+	}
+	for _, m := range r.More {
+		p, err := mk(m.Title, m.Note, m.SVG)
+		if err != nil {
+			return err
+		}
+		data.Other = append(data.Other, *p)
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
 	if err := page.Execute(bw, data); err != nil {
@@ -110,26 +141,31 @@ func Write(w io.Writer, r *Review) error {
 	return bw.Flush()
 }
 
-// svgSize returns the width and height of an SVG document's root element
-// in its own units (Graphviz writes points), or zeros.
-func svgSize(svg []byte) (w, h float64) {
+// svgSize returns the width and height of an SVG document's viewBox and
+// the CSS min-width its root asks for (0 when none).
+func svgSize(svg []byte) (w, h, min float64) {
 	dec := xml.NewDecoder(bytes.NewReader(svg))
 	for {
 		tok, err := dec.RawToken()
 		if err != nil {
-			return 0, 0
+			return 0, 0, 0
 		}
 		if e, ok := tok.(xml.StartElement); ok {
 			for _, a := range e.Attr {
-				v, _ := strconv.ParseFloat(strings.TrimRight(a.Value, "ptxm"), 64)
 				switch a.Name.Local {
-				case "width":
-					w = v
-				case "height":
-					h = v
+				case "viewBox":
+					f := strings.Fields(a.Value)
+					if len(f) == 4 {
+						w, _ = strconv.ParseFloat(f[2], 64)
+						h, _ = strconv.ParseFloat(f[3], 64)
+					}
+				case "style":
+					if v, ok := strings.CutPrefix(a.Value, "min-width:"); ok {
+						min, _ = strconv.ParseFloat(strings.TrimSuffix(v, "px"), 64)
+					}
 				}
 			}
-			return w, h
+			return w, h, min
 		}
 	}
 }

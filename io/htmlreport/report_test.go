@@ -5,7 +5,6 @@ import (
 	"context"
 	"encoding/xml"
 	"io"
-	"os"
 	"strconv"
 	"strings"
 	"testing"
@@ -13,6 +12,7 @@ import (
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/io/render"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
 )
 
 // hostile are names meant to break out of HTML or SVG.
@@ -102,38 +102,37 @@ func hostileNetwork(t testing.TB) *structural.Network {
 	return g
 }
 
-// reviewOf builds a review page of g the way the report command does,
-// with every hostile name in every kind of field.
+// reviewOf builds a review page of g the way the report command does
+// (analysis.Analyse, render.FromReview, FromReview), with hostile text in
+// every free-text field as well as in the state names.
 func reviewOf(t testing.TB, g *structural.Network, title string) *Review {
-	ds := structural.MinimumDrivers(g)
-	in := &render.Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching, InputKind: "driver node", Title: title}
+	rv, err := analysis.Analyse(g, analysis.ReviewRequest{PlaceActuators: true, PlaceSensors: true, Roles: true, Alternatives: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	in, err := render.FromReview(rv, nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in.Title = title
 	var svg bytes.Buffer
 	v, err := render.Draw(context.Background(), in, render.Options{}, render.AutoLayout, render.FormatSVG, &svg)
 	if err != nil {
 		t.Fatal(err)
 	}
-	r := &Review{
-		Title:    title,
-		Question: "Where do the actuators go in " + title + "?",
-		Answers: []Answer{
-			{Topic: "Controllability", OK: No(), Headline: "Not controllable: " + hostile[0], Facts: []Fact{{Label: hostile[1], Value: hostile[2]}}},
-			{Topic: "Network", Headline: "figures", Facts: []Fact{{Label: "States", Value: "9"}}},
-		},
-		Picture:     svg.Bytes(),
-		PictureNote: "View: " + v.Desc,
-		Findings:    []Table{{Title: "Unreached states", Intro: hostile[3], Columns: []string{"State"}, Rows: [][]string{{hostile[4]}, {hostile[5]}}}},
-		Tables:      []Table{{ID: "drivers", Title: "Driver nodes", Columns: []string{"Signal", "Driver"}, More: 3, Note: hostile[6]}},
-		Numeric:     &Table{Title: "Numeric check", Columns: []string{"Property"}, Rows: [][]string{{hostile[7]}}},
-		Files:       []File{{Role: "network", Name: hostile[8], Size: "1", SHA256: strings.Repeat("0", 64)}},
-		Tool:        "netsteer test",
-		Options:     []string{"netsteer", "report", hostile[0]},
-		Cautions: []string{
-			"Structural results hold for almost all parameter values; they are a screening step.",
-		},
+	c := Context{
+		Title: title, Network: title,
+		Pictures: []Picture{{SVG: svg.Bytes(), Note: "View: " + v.Desc}},
+		Files:    []File{{Role: "network", Name: hostile[8], Size: "1", SHA256: strings.Repeat("0", 64)}},
+		Build:    Build{Module: "github.com/netsteer/netsteer", Version: "(devel)", Revision: "0123456789abcdef", Modified: true},
+		Command:  []string{"netsteer", "report", hostile[0]},
 	}
-	for i, d := range ds.Inputs {
-		r.Tables[0].Rows = append(r.Tables[0].Rows, []string{"u" + strconv.Itoa(i+1), g.Name(d[0])})
-	}
+	r := FromReview(rv, c)
+	r.Findings = append(r.Findings, Table{Title: "Unreached states", Intro: hostile[3], Columns: []string{"State"}, Rows: [][]string{{hostile[4]}, {hostile[5]}}})
+	r.Tables = append(r.Tables, Table{ID: "extra", Title: "Extra", Columns: []string{"Signal"}, More: 3, Note: hostile[6]})
+	r.Numeric = &Table{Title: "Numeric check", Columns: []string{"Property"}, Rows: [][]string{{hostile[7]}}}
+	r.Answers[0].Headline += " " + hostile[0]
+	r.Answers[0].Facts = append(r.Answers[0].Facts, Fact{Label: hostile[1], Value: hostile[2]})
 	return r
 }
 
@@ -240,7 +239,7 @@ func TestPageDemoPlant(t *testing.T) {
 		t.Errorf("active content on the page: %v", p.bad)
 	}
 	text := strings.Join(p.text, "\n")
-	for _, want := range []string{"heating.edges", "Controllability", "Picture", "Provenance", "Cautions", "screening step", "supply.header_temp", "u1"} {
+	for _, want := range []string{"heating.edges", "Where must dedicated actuators go", "Picture", "Provenance", "Cautions", "screening step", "supply.header_temp", "u1"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("page lacks %q", want)
 		}
@@ -250,23 +249,59 @@ func TestPageDemoPlant(t *testing.T) {
 	}
 }
 
-func TestDescribe(t *testing.T) {
-	dir := t.TempDir()
-	path := dir + "/f.edges"
-	if err := os.WriteFile(path, []byte("a b\n"), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	f, err := Describe("network", path)
+// TestPageEscapesBidi checks that a name carrying bidirectional controls
+// (which can make a name read reversed) shows them as escapes in the
+// tables, as the text reports write them (io/internal/words).
+func TestPageEscapesBidi(t *testing.T) {
+	const evil = "valve\u202eenil\u202c.pos"
+	in, err := netread.Read(strings.NewReader("\""+evil+"\" a\n"), "t", netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	// SHA-256 of "a b\n", computed independently with GNU coreutils'
-	// sha256sum.
-	const want = "01186fcf04b4b447f393e552964c08c7b419c1ad7a25c342a0b631b1967d3a27"
-	if f.Size != "4" || f.SHA256 != want || f.Name != path || f.Role != "network" {
-		t.Errorf("Describe = %+v, want size 4 and SHA-256 %s", f, want)
+	g := in.Network
+	rv, err := analysis.Analyse(g, analysis.ReviewRequest{PlaceActuators: true})
+	if err != nil {
+		t.Fatal(err)
 	}
-	if _, err := Describe("network", dir+"/missing"); err == nil {
-		t.Errorf("Describe of a missing file succeeded")
+	page := writePage(t, FromReview(rv, Context{Title: "t", Network: "t"}))
+	if bytes.Contains(page, []byte("\u202e")) {
+		t.Errorf("the raw right-to-left override reached the page")
+	}
+	if !bytes.Contains(page, []byte(`valve\u202eenil\u202c.pos`)) {
+		t.Errorf("the name is not shown with its controls escaped")
+	}
+}
+
+// TestFirstScreenWords checks the cards answer the questions asked in
+// their words: a failing design whose sample falls as short is
+// "Confirmed", a placement is answered with a count, not "Yes".
+func TestFirstScreenWords(t *testing.T) {
+	in, err := netread.ReadFile("../../testdata/plant/heating.edges", netread.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	g := in.Network
+	a, _ := g.Lookup("b1.fuel_flow")
+	d, _ := structural.Dedicated(g, []int32{a})
+	rv, err := analysis.Analyse(g, analysis.ReviewRequest{Inputs: &d, PlaceSensors: true, Complete: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	dim := rv.Check.Controllability.Dimension
+	r := FromReview(rv, Context{Title: "heating", Network: "heating.edges", InputsFile: "one.txt", Inputs: &d,
+		Numeric: &Numeric{What: "the given inputs", Seed: 1, Trials: 3, StatesChecked: 48,
+			Rows: []NumericRow{{Property: "controllability", Signals: 1, Structural: dim, Sampled: dim}}}})
+	want := []struct{ topic, word string }{
+		{"Is heating.edges structurally controllable from the inputs in one.txt?", "No"},
+		{"Where must dedicated sensors go, at least cost, for heating.edges to be structurally observable?", "18 sensors"},
+		{"Do sampled numbers confirm the structural answer?", "Confirmed"},
+	}
+	for i, w := range want {
+		if r.Answers[i].Topic != w.topic || r.Answers[i].Word != w.word {
+			t.Errorf("card %d: %q %q, want %q %q", i, r.Answers[i].Topic, r.Answers[i].Word, w.topic, w.word)
+		}
+	}
+	if h := r.Answers[2].Headline; !strings.HasPrefix(h, "Confirmed: controllability "+strconv.Itoa(dim)+" of 48") {
+		t.Errorf("numeric card says %q", h)
 	}
 }

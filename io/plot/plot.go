@@ -1,6 +1,10 @@
 // Package plot draws sweep results with gonum/plot: the measured mean
 // driver fraction at each grid point, with error bars of one standard error
-// over the replicates, against the curve the cavity method predicts.
+// over the replicates, against the curve the cavity method predicts. Plots
+// are sized for a slide, set in a sans-serif face, coloured from the
+// palette of the network pictures (Okabe & Ito) with a marker and a dash
+// per series, and titled with the model, its fixed parameters, N and the
+// replicates per point read from the rows.
 //
 // The x axis is the first coordinate of the rows' params that takes more
 // than one value; rows that differ in other coordinates form separate
@@ -10,6 +14,7 @@ package plot
 import (
 	"bytes"
 	"fmt"
+	"image/color"
 	"io"
 	"math"
 	"path/filepath"
@@ -19,8 +24,8 @@ import (
 
 	"gonum.org/v1/gonum/stat"
 	gplot "gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -192,32 +197,151 @@ func (e errPoints) YError(i int) (float64, float64) {
 	return e[i].StdErr, e[i].StdErr
 }
 
-// New draws rows into a plot.
+// Options style a plot.
+type Options struct {
+	// Title is the plot's first line; Describe(rows) is added beneath it.
+	Title string
+	// LogX and LogY draw the axis on a logarithmic scale (points at zero
+	// or below are left out of a log axis).
+	LogX, LogY bool
+}
+
+// The palette of the network pictures (Okabe & Ito 2008), with a marker
+// and a dash pattern per series so that series stay apart in grey.
+var (
+	palette = []color.NRGBA{
+		{0x00, 0x72, 0xB2, 0xFF}, {0xD5, 0x5E, 0x00, 0xFF}, {0x00, 0x9E, 0x73, 0xFF},
+		{0xCC, 0x79, 0xA7, 0xFF}, {0xE6, 0x9F, 0x00, 0xFF}, {0x56, 0xB4, 0xE9, 0xFF}, {0x00, 0x00, 0x00, 0xFF},
+	}
+	glyphs = []draw.GlyphDrawer{draw.CircleGlyph{}, draw.SquareGlyph{}, draw.TriangleGlyph{}, draw.RingGlyph{}, draw.BoxGlyph{}, draw.PyramidGlyph{}, draw.CrossGlyph{}}
+	dashes = [][]vg.Length{{vg.Points(6), vg.Points(3)}, {vg.Points(2), vg.Points(2)}, {vg.Points(8), vg.Points(2), vg.Points(2), vg.Points(2)}, {vg.Points(4), vg.Points(4)}}
+)
+
+// Slide is the size plots are drawn at: 16:9, for a slide.
+const (
+	SlideWidth  = 10 * vg.Inch
+	SlideHeight = 5.625 * vg.Inch
+)
+
+func sans(size vg.Length) font.Font {
+	return font.Font{Typeface: "Liberation", Variant: "Sans", Size: size}
+}
+
+// Describe words what the rows hold for a subtitle: the models, the
+// coordinates that take one value (N among them), and the replicates per
+// point.
+func Describe(rows []sweepcsv.Row) string {
+	models := map[string]bool{}
+	var order []string
+	values := map[string]map[string]bool{}
+	reps := map[string]int{}
+	nodes := map[int]bool{}
+	for _, r := range rows {
+		if !models[r.Model] {
+			models[r.Model] = true
+			order = append(order, r.Model)
+		}
+		nodes[r.Nodes] = true
+		for _, c := range parseParams(r.Params) {
+			if values[c.name] == nil {
+				values[c.name] = map[string]bool{}
+			}
+			values[c.name][c.value] = true
+		}
+		k := r.Model + "|" + r.Params
+		reps[k]++
+	}
+	var parts []string
+	parts = append(parts, "model "+strings.Join(order, ", "))
+	if len(nodes) == 1 {
+		for n := range nodes {
+			if n > 0 {
+				parts = append(parts, "N = "+thousands(n))
+			}
+		}
+	}
+	var fixed []string
+	for name, vs := range values {
+		if len(vs) == 1 && name != "nodes" {
+			for v := range vs {
+				fixed = append(fixed, strings.TrimPrefix(name, "+")+" = "+v)
+			}
+		}
+	}
+	sort.Strings(fixed)
+	parts = append(parts, fixed...)
+	lo, hi := math.MaxInt, 0
+	for _, k := range reps {
+		lo, hi = min(lo, k), max(hi, k)
+	}
+	if hi > 0 {
+		r := strconv.Itoa(hi)
+		if lo != hi {
+			r = strconv.Itoa(lo) + "-" + strconv.Itoa(hi)
+		}
+		parts = append(parts, r+" "+map[bool]string{true: "replicate", false: "replicates"}[hi == 1]+" per point")
+	}
+	return strings.Join(parts, "; ")
+}
+
+func thousands(n int) string {
+	s := strconv.Itoa(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
+}
+
+// New draws rows into a plot titled title.
 func New(rows []sweepcsv.Row, title string) (*gplot.Plot, error) {
+	return NewWith(rows, Options{Title: title})
+}
+
+// NewWith draws rows into a plot styled by opt: measured means as markers
+// joined by a thin solid line, with error bars of one standard error;
+// the cavity prediction as a dashed line without markers; one colour,
+// marker and dash per series; a sans-serif face throughout.
+func NewWith(rows []sweepcsv.Row, opt Options) (*gplot.Plot, error) {
 	xName, series, err := Aggregate(rows)
 	if err != nil {
 		return nil, err
 	}
 	p := gplot.New()
-	p.Title.Text = title
+	p.Title.Text = opt.Title
+	if d := Describe(rows); d != "" {
+		if p.Title.Text != "" {
+			p.Title.Text += "\n"
+		}
+		p.Title.Text += d
+	}
+	p.Title.TextStyle.Font = sans(15)
 	p.X.Label.Text = axisLabels[xName]
 	if p.X.Label.Text == "" {
 		p.X.Label.Text = strings.TrimPrefix(xName, "+")
 	}
 	p.Y.Label.Text = YLabel
-	p.Y.Min = 0
-	p.Add(plotter.NewGrid())
+	for _, ax := range []*gplot.Axis{&p.X, &p.Y} {
+		ax.Label.TextStyle.Font = sans(14)
+		ax.Tick.Label.Font = sans(12)
+	}
+	p.Legend.TextStyle.Font = sans(12)
 	p.Legend.Top = true
+	p.Add(plotter.NewGrid())
+	keep := func(x, y float64) bool { return (!opt.LogX || x > 0) && (!opt.LogY || y > 0) }
 	for i, s := range series {
-		col := plotutil.Color(i)
+		col := palette[i%len(palette)]
 		suffix := ""
 		if s.Label != "" {
 			suffix = " (" + s.Label + ")"
 		}
 		var pred plotter.XYs
+		var meas errPoints
 		for _, pt := range s.Points {
-			if !math.IsNaN(pt.Predicted) {
+			if !math.IsNaN(pt.Predicted) && keep(pt.X, pt.Predicted) {
 				pred = append(pred, plotter.XY{X: pt.X, Y: pt.Predicted})
+			}
+			if keep(pt.X, pt.Mean) {
+				meas = append(meas, pt)
 			}
 		}
 		if len(pred) > 0 {
@@ -226,28 +350,47 @@ func New(rows []sweepcsv.Row, title string) (*gplot.Plot, error) {
 				return nil, err
 			}
 			l.Color = col
-			l.Width = vg.Points(1.2)
-			l.Dashes = []vg.Length{vg.Points(5), vg.Points(3)}
+			l.Width = vg.Points(1.6)
+			l.Dashes = dashes[i%len(dashes)]
 			p.Add(l)
-			p.Legend.Add("cavity prediction"+suffix, l)
+			p.Legend.Add("theory: cavity prediction"+suffix, l)
 		}
-		sc, err := plotter.NewScatter(errPoints(s.Points))
+		if len(meas) == 0 {
+			continue
+		}
+		join, err := plotter.NewLine(meas)
+		if err != nil {
+			return nil, err
+		}
+		join.Color, join.Width = col, vg.Points(0.8)
+		sc, err := plotter.NewScatter(meas)
 		if err != nil {
 			return nil, err
 		}
 		sc.GlyphStyle.Color = col
-		sc.GlyphStyle.Shape = draw.CircleGlyph{}
-		sc.GlyphStyle.Radius = vg.Points(2.5)
-		eb, err := plotter.NewYErrorBars(errPoints(s.Points))
+		sc.GlyphStyle.Shape = glyphs[i%len(glyphs)]
+		sc.GlyphStyle.Radius = vg.Points(3.5)
+		eb, err := plotter.NewYErrorBars(meas)
 		if err != nil {
 			return nil, err
 		}
 		eb.Color = col
-		p.Add(sc, eb)
-		p.Legend.Add("measured mean ± s.e."+suffix, sc)
+		eb.LineStyle.Width = vg.Points(1.2)
+		eb.CapWidth = vg.Points(6)
+		p.Add(join, eb, sc)
+		p.Legend.Add("measured mean ± 1 s.e."+suffix, join, sc)
 	}
-	if max := maxY(series); max > 0 {
-		p.Y.Max = math.Min(1, max*1.1)
+	if opt.LogX {
+		p.X.Scale, p.X.Tick.Marker = gplot.LogScale{}, gplot.LogTicks{Prec: -1}
+	}
+	if opt.LogY {
+		p.Y.Scale, p.Y.Tick.Marker = gplot.LogScale{}, gplot.LogTicks{Prec: -1}
+	} else {
+		p.Y.Min = 0
+		if max := maxY(series); max > 0 {
+			// Headroom for the legend, which sits top right.
+			p.Y.Max = math.Min(1, max*(1.1+0.16*float64(len(series))))
+		}
 	}
 	return p, nil
 }
@@ -265,17 +408,24 @@ func maxY(series []Series) float64 {
 	return m
 }
 
-// WriteFile draws rows to path, SVG or PNG by its extension.
+// WriteFile draws rows to path, SVG or PNG by its extension, titled
+// title.
 func WriteFile(path string, rows []sweepcsv.Row, title string) error {
+	return WriteFileWith(path, rows, Options{Title: title})
+}
+
+// WriteFileWith draws rows to path, SVG or PNG by its extension, at
+// slide size (SlideWidth x SlideHeight).
+func WriteFileWith(path string, rows []sweepcsv.Row, opt Options) error {
 	format := strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), ".")
 	if format != "svg" && format != "png" {
 		return fmt.Errorf("plot: %s: want a .svg or .png file", path)
 	}
-	p, err := New(rows, title)
+	p, err := NewWith(rows, opt)
 	if err != nil {
 		return err
 	}
-	wt, err := p.WriterTo(6*vg.Inch, 4*vg.Inch, format)
+	wt, err := p.WriterTo(SlideWidth, SlideHeight, format)
 	if err != nil {
 		return err
 	}

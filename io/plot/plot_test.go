@@ -72,3 +72,41 @@ func TestWriteFile(t *testing.T) {
 		t.Error(".gif: got no error")
 	}
 }
+
+// TestDescribeAndStyle: the subtitle names the model, N, the fixed
+// parameters and the replicates per point; the SVG is set in a sans-serif
+// face, sized 16:9, and draws each series with its own colour; a log axis
+// leaves out points at zero.
+func TestDescribeAndStyle(t *testing.T) {
+	rs := rows()[:3]
+	for i := range rs {
+		rs[i].Nodes = 100
+	}
+	if got, want := Describe(rs), "model er; N = 100; 1-2 replicates per point"; got != want {
+		t.Errorf("Describe = %q, want %q", got, want)
+	}
+	dir := t.TempDir()
+	svg := filepath.Join(dir, "p.svg")
+	all := rows()
+	if err := WriteFileWith(svg, all, Options{Title: "driver fraction", LogX: true, LogY: true}); err != nil {
+		t.Fatal(err)
+	}
+	b, _ := os.ReadFile(svg)
+	s := string(b)
+	if !strings.Contains(s, "Liberation Sans") || strings.Contains(s, "Liberation Serif") {
+		t.Errorf("plot not set in a sans-serif face")
+	}
+	if !strings.Contains(s, `width="720pt" height="405pt"`) {
+		t.Errorf("plot not at slide size: %.200s", s)
+	}
+	for _, c := range []string{"#0072B2", "#D55E00"} {
+		if !strings.Contains(s, c) {
+			t.Errorf("series colour %s missing", c)
+		}
+	}
+	for _, want := range []string{"theory: cavity prediction", "measured mean ± 1 s.e."} {
+		if !strings.Contains(s, want) {
+			t.Errorf("legend lacks %q", want)
+		}
+	}
+}

@@ -24,7 +24,7 @@ func autoLayout(v *View) string {
 
 // graph returns the drawn graph as edges between nodes 0..n-1.
 func (v *View) graph() (n int, from, to []int32) {
-	if v.Kind == Condensation {
+	if v.Kind == Components {
 		for _, e := range v.CompEdges {
 			from = append(from, e.From)
 			to = append(to, e.To)

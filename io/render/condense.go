@@ -65,8 +65,8 @@ func condensationView(in *Input, opt Options) *View {
 			}
 			return first[ka] < first[kb]
 		})
-		if len(big) > max-3 {
-			big = big[:max-3]
+		if keep := max - 3; len(big) > keep {
+			big = big[:maxInt(keep, 0)]
 		}
 		for k := range node {
 			node[k] = -1
@@ -101,10 +101,10 @@ func condensationView(in *Input, opt Options) *View {
 	}
 
 	// Per-node counts.
-	driven := markAll(n, in.Inputs)
-	sensed := markAll(n, in.Outputs)
-	unreached := markAll(n, [][]int32{in.Unreached})
-	unobserved := markAll(n, [][]int32{in.Unobserved})
+	driven := markAll(n, in.inputs)
+	sensed := markAll(n, in.outputs)
+	unreached := markAll(n, [][]int32{in.unreached})
+	unobserved := markAll(n, [][]int32{in.unobserved})
 	groupOf := func(int32) string { return "" }
 	if in.Group != nil {
 		groupOf = in.Group
@@ -138,18 +138,29 @@ func condensationView(in *Input, opt Options) *View {
 		}
 	}
 	for i := range comps {
-		if comps[i].Component >= 0 {
-			comps[i].Source = isSource[comps[i].Component]
+		if k := comps[i].Component; k >= 0 {
+			comps[i].Source, comps[i].Sink = isSource[k], isSink[k]
 		} else {
-			comps[i].Source = comps[i].Summary == "source"
+			comps[i].Source, comps[i].Sink = comps[i].Summary == "source", comps[i].Summary == "sink"
 		}
 	}
+	// Ranks by size among the drawn components of two or more states.
+	var ranked []int
+	for i := range comps {
+		if comps[i].Component >= 0 && comps[i].States >= 2 {
+			ranked = append(ranked, i)
+		}
+	}
+	sort.SliceStable(ranked, func(a, b int) bool { return comps[ranked[a]].States > comps[ranked[b]].States })
+	for r, i := range ranked {
+		comps[i].Rank = r + 1
+	}
 
-	// Edges between nodes, counted in a dense table (at most
-	// (MaxNodes)^2 cells).
-	nc := len(comps)
-	count := make([]int32, nc*nc)
-	ctrl := make([]bool, nc*nc)
+	// Edges between nodes, counted in a map keyed by node pair: the drawn nodes are few, but a caller may
+	// ask for many.
+	type pair struct{ a, b int32 }
+	type tally struct{ count, stems int }
+	cells := map[pair]*tally{}
 	for u := 0; u < n; u++ {
 		a := node[c.Of[u]]
 		for _, w := range g.Succ(int32(u)) {
@@ -157,25 +168,34 @@ func condensationView(in *Input, opt Options) *View {
 			if a == b {
 				continue
 			}
-			count[int(a)*nc+int(b)]++
-			if in.Matching != nil && in.Matching.RowMate[u] == w {
+			t := cells[pair{a, b}]
+			if t == nil {
+				t = &tally{}
+				cells[pair{a, b}] = t
+			}
+			t.count++
+			if in.edgeKind(int32(u), w) == stemEdge {
 				// A matched edge between components is never on a
 				// cycle: it lies on a stem.
-				ctrl[int(a)*nc+int(b)] = true
+				t.stems++
 			}
 		}
 	}
-	var edges []CompEdge
-	for i := 0; i < nc*nc; i++ {
-		if count[i] > 0 {
-			edges = append(edges, CompEdge{From: int32(i / nc), To: int32(i % nc), Count: int(count[i]), Control: ctrl[i]})
-		}
+	edges := make([]CompEdge, 0, len(cells))
+	for p, t := range cells {
+		edges = append(edges, CompEdge{From: p.a, To: p.b, Count: t.count, Stems: t.stems})
 	}
-	v := &View{Kind: Condensation, Comps: comps, EdgesTotal: len(edges)}
+	sort.Slice(edges, func(a, b int) bool {
+		if edges[a].From != edges[b].From {
+			return edges[a].From < edges[b].From
+		}
+		return edges[a].To < edges[b].To
+	})
+	v := &View{Kind: Components, Comps: comps, EdgesTotal: len(edges)}
 	if len(edges) > opt.maxEdges() {
 		sort.SliceStable(edges, func(a, b int) bool {
-			if edges[a].Control != edges[b].Control {
-				return edges[a].Control
+			if (edges[a].Stems > 0) != (edges[b].Stems > 0) {
+				return edges[a].Stems > 0
 			}
 			return edges[a].Count > edges[b].Count
 		})
@@ -188,6 +208,7 @@ func condensationView(in *Input, opt Options) *View {
 		})
 	}
 	v.CompEdges = edges
+	nc := len(comps)
 	own := 0
 	for _, cn := range comps {
 		if cn.Component >= 0 {
@@ -198,13 +219,20 @@ func condensationView(in *Input, opt Options) *View {
 	case own == c.Count:
 		v.Desc = fmt.Sprintf("condensation: %s strongly connected %s, one node each", num(c.Count), plural(c.Count, "component", "components"))
 	case own == 0:
-		v.Desc = fmt.Sprintf("condensation: %s strongly connected components, all of one state, summarised in %d %s",
+		v.Desc = fmt.Sprintf("condensation: %s strongly connected components, summarised in %d %s",
 			num(c.Count), nc, plural(nc, "node", "nodes"))
 	default:
 		v.Desc = fmt.Sprintf("condensation: %s strongly connected components; the %s largest drawn one by one, the other %s summarised in %d %s",
 			num(c.Count), num(own), num(c.Count-own), nc-own, plural(nc-own, "node", "nodes"))
 	}
 	return v
+}
+
+func maxInt(a, b int) int {
+	if a > b {
+		return a
+	}
+	return b
 }
 
 // markAll marks every state named in lists.

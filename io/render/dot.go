@@ -3,11 +3,14 @@ package render
 import (
 	"bufio"
 	"fmt"
+	"github.com/netsteer/netsteer/io/internal/words"
 	"io"
 	"math"
 	"sort"
 	"strconv"
 	"strings"
+
+	"github.com/netsteer/netsteer/structural/placement"
 )
 
 // Palette: Okabe & Ito (2008), plus greys.
@@ -22,9 +25,12 @@ const (
 	colTint      = "#F6C9AE" // dilation fill: vermillion tint
 	colGrey      = "#D9D9D9" // unobserved fill
 	colInk       = "#333333" // outlines and text
+	colMuted     = "#555555" // secondary text
+	colRule      = "#C8C8C8" // rules between parts
 	colEdge      = "#9A9A9A" // plain edges
 	colFrame     = "#8A8A8A" // group frames
 	fontName     = "Helvetica"
+	gvFontSize   = 12.0 // node labels in Graphviz views, in points
 )
 
 // shapeOf maps a role to a node shape.
@@ -39,28 +45,44 @@ func shapeOf(role string) string {
 }
 
 // DOT writes the view v of in as Graphviz DOT text for the given layout
-// (see Layouts; "auto" is resolved by ChooseLayout). The text names its
-// layout engine in the graph's layout attribute, so Graphviz's own tools
-// draw it the same way. Nodes, clusters and edges come in a fixed order
-// (states ascending, edges in CSR order, groups by name), so the same input
-// always gives the same text.
+// (see Layouts; "auto" is resolved by ChooseLayout), with the title as a
+// plain graph label. The text names its layout engine in the graph's
+// layout attribute, so Graphviz's own tools draw it the same way. Nodes,
+// clusters and edges come in a fixed order (states ascending, edges in CSR
+// order, groups by name), so the same input always gives the same text.
+// Only the Graphviz views (View.Graph) have DOT text.
 func DOT(w io.Writer, in *Input, v *View, layout string) error {
+	_, err := writeDOT(w, in, v, layout, true)
+	return err
+}
+
+// writeDOT writes the DOT text, with the title as a graph label when
+// label is set, and returns the features drawn, for the legend.
+func writeDOT(w io.Writer, in *Input, v *View, layout string, label bool) (map[string]bool, error) {
+	if !v.Graph() {
+		return nil, fmt.Errorf("render: the %s view is not a graph and has no DOT text", v.Kind)
+	}
+	in.prep()
 	layout, err := ChooseLayout(layout, v)
 	if err != nil {
-		return err
+		return nil, err
 	}
 	eng, err := engine(layout)
 	if err != nil {
-		return err
+		return nil, err
 	}
 	bw := bufio.NewWriter(w)
-	d := &dotWriter{w: bw, in: in, v: v, eng: eng}
-	if v.Kind == Condensation {
+	d := &dotWriter{w: bw, in: in, v: v, eng: eng, has: map[string]bool{}}
+	if v.Kind == Components {
 		d.condensation()
 	} else {
 		d.states()
 	}
-	return bw.Flush()
+	if label {
+		d.plainTitle()
+	}
+	d.printf("}\n")
+	return d.has, bw.Flush()
 }
 
 type dotWriter struct {
@@ -81,14 +103,31 @@ func (d *dotWriter) header() {
 		d.printf(", %s", a)
 	}
 	d.printf("];\n")
-	d.printf("  node [fontname=%q, fontsize=10, shape=ellipse, style=filled, fillcolor=\"#FFFFFF\", color=%q, fontcolor=%q, penwidth=1, height=0.3, margin=\"0.06,0.03\"];\n", fontName, colInk, colInk)
+	d.printf("  node [fontname=%q, fontsize=%s, shape=ellipse, style=filled, fillcolor=\"#FFFFFF\", color=%q, fontcolor=%q, penwidth=1, height=0.3, margin=\"0.06,0.03\"];\n", fontName, ff(gvFontSize), colInk, colInk)
 	d.printf("  edge [color=%q, penwidth=0.8, arrowsize=0.6];\n", colEdge)
+}
+
+// plainTitle writes the title, summary, notes and view as a plain label
+// (the pictures draw them with the legend instead).
+func (d *dotWriter) plainTitle() {
+	lines := []string{d.in.Title, Summary(d.in)}
+	lines = append(lines, d.in.Notes...)
+	lines = append(lines, "view: "+d.v.Desc)
+	var b strings.Builder
+	for _, l := range lines {
+		if l == "" {
+			continue
+		}
+		q := dotPlain(l)
+		b.WriteString(q[1 : len(q)-1])
+		b.WriteString(`\l`)
+	}
+	d.printf("  label=\"%s\";\n", b.String())
 }
 
 // states writes a view of individual states.
 func (d *dotWriter) states() {
 	in, v, g := d.in, d.v, d.in.Net
-	d.has = map[string]bool{}
 	d.header()
 	pos := make(map[int32]int, len(v.States))
 	for i, s := range v.States {
@@ -98,7 +137,7 @@ func (d *dotWriter) states() {
 	drivenBy := map[int32][]int{}
 	sensedBy := map[int32][]int{}
 	var inSig, outSig []int
-	for i, sig := range in.Inputs {
+	for i, sig := range in.inputs {
 		touch := false
 		for _, s := range sig {
 			if _, ok := pos[s]; ok {
@@ -110,7 +149,7 @@ func (d *dotWriter) states() {
 			inSig = append(inSig, i)
 		}
 	}
-	for i, sig := range in.Outputs {
+	for i, sig := range in.outputs {
 		touch := false
 		for _, s := range sig {
 			if _, ok := pos[s]; ok {
@@ -123,36 +162,31 @@ func (d *dotWriter) states() {
 		}
 	}
 	unreached := map[int32]bool{}
-	for _, s := range in.Unreached {
+	for _, s := range in.unreached {
 		unreached[s] = true
 	}
 	dilation := map[int32]bool{}
-	for _, s := range in.Dilation {
+	for _, s := range in.dilation {
 		dilation[s] = true
 	}
 	unobserved := map[int32]bool{}
-	for _, s := range in.Unobserved {
+	for _, s := range in.unobserved {
 		unobserved[s] = true
 	}
 	obsDilation := map[int32]bool{}
-	for _, s := range in.ObservationDilation {
+	for _, s := range in.obsDila {
 		obsDilation[s] = true
 	}
 
 	// Nodes.
 	for i, s := range v.States {
-		name := g.Name(s)
-		shown := name
-		if in.Label != nil {
-			if l := in.Label(s); l != "" {
-				shown = l
-			}
-		}
+		nm := name(g.Name(s))
+		shown := in.shownName(s)
 		lines := []string{shown}
 		var tip []string
-		tip = append(tip, name)
-		if shown != name {
-			tip[0] = shown + " (" + name + ")"
+		tip = append(tip, nm)
+		if shown != nm {
+			tip[0] = shown + " (" + nm + ")"
 		}
 		attrs := []string{}
 		// Fill: the most pressing finding wins; the tooltip lists all.
@@ -194,11 +228,11 @@ func (d *dotWriter) states() {
 			attrs = append(attrs, fmt.Sprintf("style=\"filled,%s\"", style), "penwidth=1.8")
 		}
 		if sigs := drivenBy[s]; len(sigs) > 0 {
-			tip = append(tip, "driven by "+signalNames("u", sigs))
+			tip = append(tip, "driven by "+d.signalNames(false, sigs))
 		}
 		if sigs := sensedBy[s]; len(sigs) > 0 {
 			attrs = append(attrs, "peripheries=2", fmt.Sprintf("color=%q", colGreen), "penwidth=1.6")
-			tip = append(tip, "sensed by "+signalNames("y", sigs))
+			tip = append(tip, "sensed by "+d.signalNames(true, sigs))
 			d.has["sensed"] = true
 		}
 		if in.Role != nil {
@@ -212,7 +246,7 @@ func (d *dotWriter) states() {
 		}
 		if in.Group != nil {
 			if gr := in.Group(s); gr != "" {
-				tip = append(tip, "group: "+gr)
+				tip = append(tip, "group: "+name(gr))
 			}
 		}
 		if v.Hidden != nil && v.Hidden[i] > 0 {
@@ -223,17 +257,14 @@ func (d *dotWriter) states() {
 		}
 		d.printf("  s%d [label=%s, tooltip=%s%s];\n", s, labelLines(lines), dotTooltip(strings.Join(tip, "; ")), joinAttrs(attrs))
 	}
-	// Signal nodes.
+	// Signal nodes, and the new devices of a completion.
 	for _, i := range inSig {
-		d.printf("  u%d [label=\"u%d\", shape=circle, fixedsize=true, width=0.42, fillcolor=%q, color=%q, tooltip=%s];\n",
-			i+1, i+1, colOrange, colInk, dotTooltip(d.signalTip(in.inputKind(), "drives", in.Inputs[i])))
-		d.has["input"] = true
+		d.signalNode(false, i)
 	}
 	for _, i := range outSig {
-		d.printf("  y%d [label=\"y%d\", shape=box, fixedsize=true, width=0.42, height=0.3, fillcolor=%q, color=%q, fontcolor=\"#FFFFFF\", tooltip=%s];\n",
-			i+1, i+1, colGreen, colInk, dotTooltip(d.signalTip(in.outputKind(), "senses", in.Outputs[i])))
-		d.has["output"] = true
+		d.signalNode(true, i)
 	}
+	complete := d.completion(pos)
 	d.clusters(pos)
 	// Edges.
 	for _, e := range v.Edges {
@@ -250,21 +281,115 @@ func (d *dotWriter) states() {
 		}
 	}
 	for _, i := range inSig {
-		for _, s := range in.Inputs[i] {
+		for _, s := range in.inputs[i] {
 			if _, ok := pos[s]; ok {
-				d.printf("  u%d -> s%d [color=%q, penwidth=1.6, style=dashed];\n", i+1, s, colOrange)
+				d.printf("  u%d -> s%d [color=%q, penwidth=1.6, style=dashed];\n", i, s, colOrange)
+				d.has["signal-edge"] = true
 			}
 		}
 	}
 	for _, i := range outSig {
-		for _, s := range in.Outputs[i] {
+		for _, s := range in.outputs[i] {
 			if _, ok := pos[s]; ok {
-				d.printf("  s%d -> y%d [color=%q, penwidth=1.6, style=dotted];\n", s, i+1, colGreen)
+				d.printf("  s%d -> y%d [color=%q, penwidth=1.6, style=dotted];\n", s, i, colGreen)
+				d.has["sense-edge"] = true
 			}
 		}
 	}
-	d.title(len(v.Edges))
-	d.printf("}\n")
+	for _, c := range complete {
+		if c.out {
+			d.printf("  s%d -> ny%d [color=%q, penwidth=1.6, style=dotted];\n", c.v, c.v, colGreen)
+			d.has["sense-edge"] = true
+		} else {
+			d.printf("  nu%d -> s%d [color=%q, penwidth=1.6, style=dashed];\n", c.v, c.v, colOrange)
+			d.has["signal-edge"] = true
+		}
+	}
+
+}
+
+// signalNode writes input (or output) signal i: a circle (a square for an
+// output) with its number, hollow and dashed for a new device, with the
+// device's cost when known.
+func (d *dotWriter) signalNode(output bool, i int) {
+	in := d.in
+	st := in.In
+	shape, fill, key, id := "circle", colOrange, "input", "u"
+	if output {
+		st = in.Out
+		shape, fill, key, id = "box", colGreen, "output", "y"
+	}
+	label := in.signalName(output, i)
+	stem := in.stemOfSignal(st, i)
+	style := "filled"
+	stroke := colInk
+	font := colInk
+	if output {
+		font = "#FFFFFF"
+	}
+	what := st.Kind
+	if stem != nil && stem.New {
+		style, stroke, fill, font = "dashed,filled", fill, "#FFFFFF", colInk
+		key += "-new"
+		what = "new " + what
+	}
+	if stem != nil && stem.Cost != nil {
+		label += `\n` + words.Thousands(stem.Cost.String())
+		what += ", cost " + words.Thousands(stem.Cost.String())
+	}
+	verb := "drives"
+	if output {
+		verb = "senses"
+	}
+	tip := d.signalTip(in.signalName(output, i)+": "+what, verb, st.Design.Signal(i))
+	d.printf("  %s%d [label=\"%s\", shape=%s, style=%q, width=0.42, height=0.36, margin=\"0.02,0.02\", fillcolor=%q, color=%q, fontcolor=%q, penwidth=1.6, tooltip=%s];\n",
+		id, i, label, shape, style, fill, stroke, font, dotTooltip(tip))
+	d.has[key] = true
+}
+
+type completed struct {
+	v   int32
+	out bool
+}
+
+// completion writes the new devices of the cheapest completions on the
+// drawn states and returns them.
+func (d *dotWriter) completion(pos map[int32]int) []completed {
+	var out []completed
+	for k, pl := range [2]*placement.Placement{d.in.CompleteIn, d.in.CompleteOut} {
+		if pl == nil {
+			continue
+		}
+		kind, id, shape, col := "actuator", "nu", "circle", colOrange
+		if k == 1 {
+			kind, id, shape, col = "sensor", "ny", "box", colGreen
+		}
+		for _, v := range pl.Added.IDs() {
+			if _, ok := pos[v]; !ok {
+				continue
+			}
+			c := words.Thousands(pl.CostOf(v).String())
+			d.printf("  %s%d [label=\"new\\n%s\", shape=%s, style=\"dashed,filled\", width=0.42, height=0.36, margin=\"0.02,0.02\", fillcolor=\"#FFFFFF\", color=%q, penwidth=1.6, tooltip=%s];\n",
+				id, v, c, shape, col, dotTooltip("new "+kind+" of the cheapest completion on "+name(d.in.Net.Name(v))+", cost "+c))
+			d.has["complete"] = true
+			if k == 0 {
+				d.has["input-new"] = true
+			} else {
+				d.has["output-new"] = true
+			}
+			out = append(out, completed{v, k == 1})
+		}
+	}
+	return out
+}
+
+// signalNames names signals for a tooltip.
+func (d *dotWriter) signalNames(output bool, sigs []int) string {
+	parts := make([]string, len(sigs))
+	for i, s := range sigs {
+		parts[i] = d.in.signalName(output, s)
+	}
+	return strings.Join(parts, ", ")
 }
 
 // signalTip describes a signal for its tooltip.
@@ -282,7 +407,7 @@ func (d *dotWriter) signalTip(kind, verb string, states []int32) string {
 		if i > 0 {
 			b.WriteString(", ")
 		}
-		b.WriteString(d.in.Net.Name(s))
+		b.WriteString(name(d.in.Net.Name(s)))
 	}
 	return b.String()
 }
@@ -348,7 +473,7 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	sort.Strings(names)
 	srcFrame := func(indent string, f frame) {
 		d.printf("%ssubgraph \"cluster_src%d\" {\n", indent, f.comp)
-		d.printf("%s  label=\"source component\"; fontsize=9; fontcolor=%q; style=\"dashed,rounded\"; color=%q; penwidth=1.6;\n", indent, colPurple, colPurple)
+		d.printf("%s  label=\"source component\"; fontsize=12; fontcolor=%q; style=\"dashed,rounded\"; color=%q; penwidth=1.6;\n", indent, colPurple, colPurple)
 		d.printf("%s ", indent)
 		for _, s := range f.states {
 			d.printf(" s%d;", s)
@@ -358,7 +483,7 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	}
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(gr), colFrame)
+		d.printf("    label=%s; fontsize=12; style=rounded; color=%q; penwidth=1.2;\n", dotPlain(name(gr)), colFrame)
 		d.printf("   ")
 		for _, s := range groups[gr] {
 			d.printf(" s%d;", s)
@@ -375,10 +500,13 @@ func (d *dotWriter) clusters(pos map[int32]int) {
 	}
 }
 
-// condensation writes a condensation view.
+// condensation writes a condensation view. A component of two or more
+// states is labelled by what it is ("largest strongly connected
+// component", with its counts); a component of one state by the state's
+// name; a summary node by the kind and number of components it holds.
 func (d *dotWriter) condensation() {
 	in, v, g := d.in, d.v, d.in.Net
-	d.has = map[string]bool{"component": true}
+	d.has["component"] = true
 	d.header()
 	maxStates := 1
 	for _, cn := range v.Comps {
@@ -388,30 +516,7 @@ func (d *dotWriter) condensation() {
 	}
 	groups := map[string][]int{}
 	for i, cn := range v.Comps {
-		var lines []string
-		var tip []string
-		if cn.Component >= 0 {
-			name := g.Name(cn.First)
-			if in.Label != nil {
-				if l := in.Label(cn.First); l != "" {
-					name = l
-				}
-			}
-			if cn.States == 1 {
-				lines = append(lines, name)
-				tip = append(tip, name)
-			} else {
-				lines = append(lines, name, fmt.Sprintf("and %s more: %s states", num(cn.States-1), num(cn.States)))
-				tip = append(tip, fmt.Sprintf("strongly connected component of %s states, among them %s", num(cn.States), name))
-			}
-		} else {
-			what := map[string]string{"source": "source", "sink": "sink", "other": "other"}[cn.Summary]
-			lines = append(lines, fmt.Sprintf("%s %s %s", num(cn.Components), what, plural(cn.Components, "component", "components")),
-				fmt.Sprintf("%s %s", num(cn.States), plural(cn.States, "state", "states")))
-			tip = append(tip, fmt.Sprintf("%s %s %s not drawn one by one, %s %s in all", num(cn.Components), what,
-				plural(cn.Components, "component", "components"), num(cn.States), plural(cn.States, "state", "states")))
-			d.has["summary"] = true
-		}
+		var lines, tip []string
 		var facts []string
 		if cn.Driven > 0 {
 			facts = append(facts, num(cn.Driven)+" driven")
@@ -425,20 +530,32 @@ func (d *dotWriter) condensation() {
 		if cn.Unobserved > 0 {
 			facts = append(facts, num(cn.Unobserved)+" unobserved")
 		}
-		if len(facts) > 0 && (cn.States > 1 || cn.Component < 0) {
-			lines = append(lines, strings.Join(facts, ", "))
+		counts := num(cn.States) + " " + plural(cn.States, "state", "states")
+		if len(facts) > 0 {
+			counts += ", " + strings.Join(facts, ", ")
 		}
-		tip = append(tip, facts...)
+		switch {
+		case cn.Component >= 0 && cn.States == 1:
+			lines = append(lines, in.shownName(cn.First))
+			tip = append(tip, "the state "+name(g.Name(cn.First))+", a component of its own")
+			tip = append(tip, facts...)
+		case cn.Component >= 0:
+			// Whole words on each line: the rank, what it is, the counts.
+			lines = append(lines, strings.TrimSuffix(rankName(cn.Rank), " strongly connected component"), "strongly connected component", counts)
+			tip = append(tip, rankName(cn.Rank)+": "+counts, "includes "+name(g.Name(cn.First)))
+		default:
+			what := map[string]string{"source": "source", "sink": "sink", "other": "other"}[cn.Summary]
+			lines = append(lines, fmt.Sprintf("%s more %s %s", num(cn.Components), what, plural(cn.Components, "component", "components")), counts)
+			tip = append(tip, fmt.Sprintf("%s %s %s not drawn one by one: %s", num(cn.Components), what,
+				plural(cn.Components, "component", "components"), counts))
+			d.has["summary"] = true
+		}
 		attrs := []string{}
-		shape := "box"
+		shape, style := "box", "rounded,filled"
 		if cn.Component < 0 {
-			shape = "folder"
+			shape, style = "folder", "filled"
 		}
 		attrs = append(attrs, "shape="+shape)
-		style := "rounded,filled"
-		if shape == "folder" {
-			style = "filled"
-		}
 		switch {
 		case cn.Unreached > 0:
 			attrs = append(attrs, fmt.Sprintf("fillcolor=%q", colYellow))
@@ -478,61 +595,55 @@ func (d *dotWriter) condensation() {
 	sort.Strings(names)
 	for gi, gr := range names {
 		d.printf("  subgraph \"cluster_g%d\" {\n", gi)
-		d.printf("    label=%s; fontsize=11; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(gr), colFrame)
+		d.printf("    label=%s; fontsize=12; style=rounded; color=%q; penwidth=1.2;\n   ", dotPlain(name(gr)), colFrame)
 		for _, i := range groups[gr] {
 			d.printf(" c%d;", i)
 		}
 		d.printf("\n  }\n")
 		d.has["group"] = true
 	}
+	// Bundles are grey, their width growing with the count: the heavy
+	// control colours stay for single stem and cycle edges.
 	for _, e := range v.CompEdges {
 		w := 0.8 + 0.9*math.Log10(float64(e.Count))
 		if w > 5 {
 			w = 5
 		}
-		col := colEdge
-		if e.Control {
-			col = colBlue
-			w += 1.2
-			d.has["stem"] = true
-		} else {
-			d.has["edge"] = true
+		tip := num(e.Count) + " " + plural(e.Count, "edge", "edges")
+		if e.Stems > 0 {
+			tip += ", " + num(e.Stems) + " on stems"
 		}
-		d.printf("  c%d -> c%d [color=%q, penwidth=%s, tooltip=\"%s %s\"];\n", e.From, e.To, col,
-			strconv.FormatFloat(w, 'f', 2, 64), num(e.Count), plural(e.Count, "edge", "edges"))
+		d.printf("  c%d -> c%d [penwidth=%s, tooltip=%s];\n", e.From, e.To, strconv.FormatFloat(w, 'f', 2, 64), dotTooltip(tip))
+		d.has["bundle"] = true
 	}
-	d.title(len(v.CompEdges))
-	d.printf("}\n")
 }
 
-// title writes the graph label: title, summary numbers, notes, the view,
-// and the legend of what the picture holds.
-func (d *dotWriter) title(drawn int) {
-	in, v := d.in, d.v
-	var b strings.Builder
-	b.WriteString(`<<table border="0" cellborder="0" cellspacing="1" cellpadding="1">`)
-	row := func(content string) {
-		b.WriteString(`<tr><td align="left" balign="left">` + content + `</td></tr>`)
+// rankName words what a component of two or more states is.
+func rankName(rank int) string {
+	s := "strongly connected component"
+	switch rank {
+	case 1:
+		return "largest " + s
+	case 2:
+		return "2nd largest " + s
+	case 3:
+		return "3rd largest " + s
 	}
-	title := in.Title
-	if title == "" {
-		title = "network"
+	return ordinal(rank) + " largest " + s
+}
+
+func ordinal(n int) string {
+	suffix := "th"
+	switch {
+	case n%100 >= 11 && n%100 <= 13:
+	case n%10 == 1:
+		suffix = "st"
+	case n%10 == 2:
+		suffix = "nd"
+	case n%10 == 3:
+		suffix = "rd"
 	}
-	row(`<font point-size="16"><b>` + htmlText(title) + `</b></font>`)
-	row(`<font point-size="12">` + htmlText(Summary(in)) + `</font>`)
-	for _, note := range in.Notes {
-		row(`<font point-size="12">` + htmlText(note) + `</font>`)
-	}
-	desc := v.Desc
-	total := v.EdgesTotal
-	if drawn < total {
-		desc += fmt.Sprintf("; %s of %s edges drawn (limit), those carrying control first", num(drawn), num(total))
-	}
-	row(`<font point-size="10" color="#555555">view: ` + htmlText(desc) + `</font>`)
-	b.WriteString(`<tr><td align="left">`)
-	d.legend(&b)
-	b.WriteString(`</td></tr></table>>`)
-	d.printf("  label=%s;\n", b.String())
+	return strconv.Itoa(n) + suffix
 }
 
 // Summary returns the numbers line of the title: states, edges, signals and
@@ -540,22 +651,23 @@ func (d *dotWriter) title(drawn int) {
 func Summary(in *Input) string {
 	g := in.Net
 	parts := []string{num(g.N()) + " " + plural(g.N(), "state", "states"), num(g.Edges()) + " " + plural(g.Edges(), "edge", "edges")}
-	if k := len(in.Inputs); k > 0 {
+	in.prep()
+	if k := len(in.inputs); k > 0 {
 		parts = append(parts, num(k)+" "+pluralKind(k, in.inputKind()))
 	}
-	if k := len(in.Outputs); k > 0 {
+	if k := len(in.outputs); k > 0 {
 		parts = append(parts, num(k)+" "+pluralKind(k, in.outputKind()))
 	}
-	if k := len(in.Unreached); k > 0 {
+	if k := len(in.unreached); k > 0 {
 		parts = append(parts, num(k)+" unreached")
 	}
-	if k := len(in.Dilation); k > 0 {
+	if k := len(in.dilation); k > 0 {
 		parts = append(parts, "dilation set of "+num(k))
 	}
-	if k := len(in.Unobserved); k > 0 {
+	if k := len(in.unobserved); k > 0 {
 		parts = append(parts, num(k)+" unobserved")
 	}
-	if k := len(in.ObservationDilation); k > 0 {
+	if k := len(in.obsDila); k > 0 {
 		parts = append(parts, "observation dilation set of "+num(k))
 	}
 	return strings.Join(parts, " · ")
@@ -566,101 +678,6 @@ func pluralKind(n int, kind string) string {
 		return kind
 	}
 	return kind + "s"
-}
-
-// legend writes the legend as nested table rows, four entries a row, with
-// only the entries the picture uses.
-func (d *dotWriter) legend(b *strings.Builder) {
-	type entry struct{ swatch, text string }
-	var es []entry
-	box := func(fill, border, style string) string {
-		s := fmt.Sprintf(`<td width="22" height="13" fixedsize="true" bgcolor="%s" color="%s" border="1"`, fill, border)
-		if style != "" {
-			s += ` style="` + style + `"`
-		}
-		return s + `></td>`
-	}
-	line := func(col string, h int) string {
-		return fmt.Sprintf(`<td width="24" height="%d" fixedsize="true" bgcolor="%s"></td>`, h, col)
-	}
-	in := d.in
-	if d.has["input"] {
-		es = append(es, entry{box(colOrange, colInk, ""), in.inputKind() + " signal u1, u2, … (dashed arrows)"})
-	}
-	if d.has["driven"] {
-		what := "state driven by " + article(in.inputKind())
-		if d.v.Kind == Condensation {
-			what = "holds states driven by " + in.inputKind() + "s"
-		}
-		es = append(es, entry{box(colSky, colInk, ""), what})
-	}
-	if d.has["output"] {
-		es = append(es, entry{box(colGreen, colInk, ""), in.outputKind() + " signal y1, y2, … (dotted arrows)"})
-	}
-	if d.has["sensed"] {
-		what := "sensed by " + article(in.outputKind()) + " (double green outline)"
-		if d.v.Kind == Condensation {
-			what = "holds sensed states (double outline)"
-		}
-		es = append(es, entry{box("#FFFFFF", colGreen, ""), what})
-	}
-	if d.has["unreached"] {
-		what := "unreached: no input reaches it"
-		if d.v.Kind == Condensation {
-			what = "holds unreached states"
-		}
-		es = append(es, entry{box(colYellow, colInk, "dashed"), what})
-	}
-	if d.has["unobserved"] {
-		what := "unobserved: no " + in.outputKind() + " sees it"
-		if d.v.Kind == Condensation {
-			what = "holds unobserved states"
-		}
-		es = append(es, entry{box(colGrey, colInk, "dotted"), what})
-	}
-	if d.has["dilation"] {
-		es = append(es, entry{box(colTint, colVermilion, ""), "dilation set: too few in-neighbours"})
-	}
-	if d.has["stem"] {
-		es = append(es, entry{line(colBlue, 4), "stem: matched edges from an input"})
-	}
-	if d.has["cycle"] {
-		es = append(es, entry{line(colVermilion, 4), "cycle of matched edges"})
-	}
-	if d.has["edge"] {
-		es = append(es, entry{line(colEdge, 1), "other edge (u acts on v)"})
-	}
-	if d.has["source"] {
-		es = append(es, entry{box("#FFFFFF", colPurple, "dashed"), "source component: no edge enters it"})
-	}
-	if d.has["group"] {
-		es = append(es, entry{box("#FFFFFF", colFrame, ""), "group (node table)"})
-	}
-	if d.has["component"] {
-		es = append(es, entry{box("#FFFFFF", colInk, ""), "strongly connected component (size: states)"})
-	}
-	if d.has["summary"] {
-		es = append(es, entry{box("#FFFFFF", colInk, ""), "folder: components summarised"})
-	}
-	for _, r := range []string{"critical", "intermittent", "redundant"} {
-		if d.has["role-"+r] {
-			es = append(es, entry{`<td>` + map[string]string{"critical": "box", "intermittent": "octagon", "redundant": "ellipse"}[r] + `</td>`,
-				"role " + r})
-		}
-	}
-	if d.has["hidden"] {
-		es = append(es, entry{`<td>+k</td>`, "links to states not drawn"})
-	}
-	b.WriteString(`<table border="0" cellborder="0" cellspacing="3" cellpadding="1">`)
-	for i := 0; i < len(es); i += 4 {
-		b.WriteString(`<tr>`)
-		for j := i; j < i+4 && j < len(es); j++ {
-			b.WriteString(es[j].swatch)
-			b.WriteString(`<td align="left"><font point-size="10">` + htmlText(es[j].text) + `</font></td><td width="10"></td>`)
-		}
-		b.WriteString(`</tr>`)
-	}
-	b.WriteString(`</table>`)
 }
 
 func article(kind string) string {
@@ -691,14 +708,6 @@ func joinAttrs(attrs []string) string {
 		return ""
 	}
 	return ", " + strings.Join(attrs, ", ")
-}
-
-func signalNames(prefix string, sigs []int) string {
-	parts := make([]string, len(sigs))
-	for i, s := range sigs {
-		parts[i] = prefix + strconv.Itoa(s+1)
-	}
-	return strings.Join(parts, ", ")
 }
 
 // num formats n with thousands separators.

@@ -130,4 +130,4 @@ func htmlText(s string) string {
 // Shown returns the text a picture shows for name s: what a test should
 // look for in the SVG (after XML decoding). Names longer than the label
 // limit are cut with an ellipsis.
-func Shown(s string) string { return clean(s, maxLabelRunes) }
+func Shown(s string) string { return clean(name(s), maxLabelRunes) }

@@ -1,74 +1,236 @@
 package render
 
 import (
-	"github.com/netsteer/netsteer/matching"
+	"fmt"
+	"github.com/netsteer/netsteer/io/internal/words"
+	"strconv"
+	"strings"
+
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
+	"github.com/netsteer/netsteer/structural/placement"
 )
 
 // Input is what a picture is drawn from: a network and the answers to show
-// on it. Only Net is required; every other field may be left empty.
+// on it, normally built by FromReview. Only Net is required.
 type Input struct {
 	Net *structural.Network
-	// Components are Net's strongly connected components; computed when
-	// Count is zero.
+	// Components are Net's strongly connected components; Net's own when
+	// nil.
 	Components *structural.Components
 
-	// Inputs are the independent input signals: Inputs[i] lists the states
-	// signal i drives. InputKind names them in the title and legend:
-	// "driver node", "actuator" or "input" (the default).
-	Inputs    [][]int32
-	InputKind string
-	// Outputs are the independent output signals: Outputs[i] lists the
-	// states signal i senses. OutputKind is "sensor" by default.
-	Outputs    [][]int32
-	OutputKind string
-
-	// Matching is a structural matching of Net whose stems and cycles carry
-	// control: its paths that start at a state driven by an input are
-	// stems (with no Inputs, every path is). Use the driver set's matching
-	// for driver nodes and DesignMatching for a given design; nil draws
-	// every edge alike.
-	Matching *matching.Matching
-
-	// Unreached lists the states no input reaches; Dilation a set of states
-	// with fewer in-neighbours (inputs included) than members. Both come
-	// from judging a design (structural.Check); either may be empty.
-	Unreached []int32
-	Dilation  []int32
-	// Unobserved and ObservationDilation are their duals for an output
-	// design (structural.CheckObservability).
-	Unobserved          []int32
-	ObservationDilation []int32
+	// In is the control structure drawn (analysis.Review.Structure for
+	// controllability): its signals, stems and cycles, and its verdict's
+	// unreached states and dilation. Out is the observation structure of
+	// the outputs; only its signals and its verdict are drawn. Either may
+	// be nil.
+	In, Out *analysis.Structure
+	// CompleteIn and CompleteOut are the cheapest completions of a
+	// failing design: their added devices are marked as new.
+	CompleteIn, CompleteOut *placement.Placement
 
 	// Role, when not nil, names the role of a state: "critical",
-	// "intermittent" or "redundant" (Jia et al. 2013); other values and ""
-	// draw no role.
+	// "intermittent" or "redundant" (Jia et al. 2013); other values draw
+	// no role.
 	Role func(v int32) string
 	// Label, when not nil, gives the name to show for a state ("" falls
 	// back to the state's name, which always stays in the tooltip).
 	Label func(v int32) string
-	// Group, when not nil, gives the plant area a state belongs to; states
-	// of one group are framed together.
+	// Group, when not nil, gives the plant area a state belongs to.
 	Group func(v int32) string
 
 	// Title is the first line of the picture's title (a file name, say);
 	// Notes are extra lines under the summary (a verdict, say).
 	Title string
 	Notes []string
+
+	prepared                                 bool
+	inputs, outputs                          [][]int32
+	unreached, dilation, unobserved, obsDila []int32
+	next                                     []int32 // matched successor on a stem or cycle, -1
+	inStem, outStem                          []int32 // signal -> index in Stems
+	stemOf, cycOf                            func(int32) int
+}
+
+// FromReview builds the picture of a review: the control structure of the
+// inputs it judges or places (else of its driver set), the outputs it
+// judges or places, the completions of failing designs, node roles when
+// the review has them, and one note per answer. inputs and outputs are the
+// designs the request gave (nil for none).
+func FromReview(rv *analysis.Review, inputs, outputs *structural.Design) (*Input, error) {
+	in := &Input{Net: rv.Network()}
+	var err error
+	if in.In, err = rv.Structure(structural.Controllability, inputs); err != nil {
+		return nil, err
+	}
+	if in.Out, err = rv.Structure(structural.Observability, outputs); err != nil {
+		return nil, err
+	}
+	if c := rv.Check; c != nil {
+		if p := c.Controllability; p != nil && p.Completion != nil {
+			in.CompleteIn = p.Completion
+		}
+		if p := c.Observability; p != nil && p.Completion != nil {
+			in.CompleteOut = p.Completion
+		}
+	}
+	if r := rv.Drivers.NodeRoles; r != nil {
+		in.Role = func(v int32) string { return r.Of[v].String() }
+	}
+	for _, s := range []*analysis.Structure{in.In, in.Out} {
+		if s != nil {
+			in.Notes = append(in.Notes, Verdict(s))
+		}
+	}
+	return in, nil
+}
+
+// Verdict says in one line what a structure answers: the verdict of a
+// judged design, the cost of a placement, the driver count.
+func Verdict(s *analysis.Structure) string {
+	n := s.Design.Len()
+	adj := "controllable"
+	if s.Property == structural.Observability {
+		adj = "observable"
+	}
+	switch s.Source {
+	case analysis.FromDrivers:
+		return fmt.Sprintf("Minimum number of independent control signals N_D = %s (driver nodes of a maximum matching).", num(n))
+	case analysis.FromPlacement:
+		added, cost := 0, structural.Cost(0)
+		for _, st := range s.Stems {
+			if st.New {
+				added++
+				if st.Cost != nil {
+					cost += *st.Cost
+				}
+			}
+		}
+		if s.Verdict != nil && !s.Verdict.Holds {
+			return fmt.Sprintf("No placement of dedicated %ss can make it structurally %s; %s placed where allowed.", s.Kind, adj, num(n))
+		}
+		return fmt.Sprintf("Cheapest dedicated %s: %s (%s new, total cost %s).", pluralKind(n, s.Kind), num(n), num(added), words.Thousands(cost.String()))
+	}
+	v := s.Verdict
+	what := "Design of " + num(n) + " " + pluralKind(n, s.Kind)
+	if v.Holds {
+		return fmt.Sprintf("%s: structurally %s.", what, adj)
+	}
+	var why []string
+	if k := v.Unreached.Len(); k > 0 {
+		word := "unreached"
+		if s.Property == structural.Observability {
+			word = "unobserved"
+		}
+		why = append(why, num(k)+" "+plural(k, "state", "states")+" "+word)
+	}
+	if d := v.Deficiency(); d > 0 {
+		sig := "input"
+		if s.Property == structural.Observability {
+			sig = "output"
+		}
+		why = append(why, fmt.Sprintf("a dilation (at least %s more %s)", num(d), plural(d, sig, sig+"s")))
+	}
+	return fmt.Sprintf("%s: NOT structurally %s: %s; %s dimension %s of %s.", what, adj, strings.Join(why, "; "),
+		adj, num(v.Dimension), num(len(v.MatchedFrom())))
+}
+
+// prep derives the lists and marks the drawing code reads.
+func (in *Input) prep() {
+	if in.prepared {
+		return
+	}
+	in.prepared = true
+	if in.Components == nil {
+		in.Components = in.Net.Components()
+	}
+	n := in.Net.N()
+	in.stemOf = func(int32) int { return -1 }
+	in.cycOf = in.stemOf
+	if s := in.In; s != nil {
+		in.inputs = s.Design.Signals()
+		if v := s.Verdict; v != nil {
+			in.unreached = v.Unreached.IDs()
+			if v.Dilation != nil {
+				in.dilation = v.Dilation.States.IDs()
+			}
+		}
+		in.next = make([]int32, n)
+		for i := range in.next {
+			in.next[i] = -1
+		}
+		for _, st := range s.Stems {
+			ids := st.States.IDs()
+			for i := 1; i < len(ids); i++ {
+				in.next[ids[i-1]] = ids[i]
+			}
+		}
+		for _, c := range s.Cycles {
+			ids := c.States.IDs()
+			for i := range ids {
+				in.next[ids[i]] = ids[(i+1)%len(ids)]
+			}
+		}
+		in.stemOf, in.cycOf = s.StemOf, s.CycleOf
+		in.inStem = stemIndex(s)
+	}
+	if s := in.Out; s != nil {
+		in.outStem = stemIndex(s)
+		in.outputs = s.Design.Signals()
+		if v := s.Verdict; v != nil {
+			in.unobserved = v.Unreached.IDs()
+			if v.Dilation != nil {
+				in.obsDila = v.Dilation.States.IDs()
+			}
+		}
+	}
 }
 
 func (in *Input) inputKind() string {
-	if in.InputKind == "" {
+	if in.In == nil {
 		return "input"
 	}
-	return in.InputKind
+	return in.In.Kind
 }
 
 func (in *Input) outputKind() string {
-	if in.OutputKind == "" {
+	if in.Out == nil {
 		return "sensor"
 	}
-	return in.OutputKind
+	return in.Out.Kind
+}
+
+func (in *Input) inputPrefix() string  { return "u" }
+func (in *Input) outputPrefix() string { return "y" }
+
+// signalName names input (or output) signal i as every table of the
+// review does: the prefix and structural.Design.Number.
+func (in *Input) signalName(output bool, i int) string {
+	if output {
+		return in.outputPrefix() + strconv.Itoa(in.Out.Design.Number(i))
+	}
+	return in.inputPrefix() + strconv.Itoa(in.In.Design.Number(i))
+}
+
+// stemOfSignal returns the stem of signal i of structure s (In or Out).
+func (in *Input) stemOfSignal(s *analysis.Structure, i int) *analysis.Stem {
+	idx := in.inStem
+	if s == in.Out {
+		idx = in.outStem
+	}
+	if i < 0 || i >= len(idx) {
+		return nil
+	}
+	return &s.Stems[idx[i]]
+}
+
+// stemIndex maps each signal of s to its stem's index.
+func stemIndex(s *analysis.Structure) []int32 {
+	idx := make([]int32, s.Design.Len())
+	for k := range s.Stems {
+		idx[s.Stems[k].Signal] = int32(k)
+	}
+	return idx
 }
 
 // Edge kinds for drawing.
@@ -78,101 +240,27 @@ const (
 	cycleEdge
 )
 
-// Path marks for the states of a matching's paths and cycles.
-const (
-	onNone  uint8 = iota
-	onStem        // on a path that starts at a driven state
-	onCycle       // on a cycle of matched edges
-	onOther       // on a path that starts at a state no input drives
-)
-
-// control marks every state by the matched structure it lies on. A path
-// of matched edges starts at a state whose in-copy is unmatched; it is a
-// stem when an input drives that state (or when driven is nil: then every
-// such state is taken as driven, as for driver nodes). Matched edges on no
-// path lie on cycles. O(N).
-func control(n int, m *matching.Matching, driven []bool) []uint8 {
-	on := make([]uint8, n)
-	for v := 0; v < n; v++ {
-		if m.ColMate[v] >= 0 {
-			continue
-		}
-		mark := onStem
-		if driven != nil && !driven[v] {
-			mark = onOther
-		}
-		for u := int32(v); u >= 0 && on[u] == onNone; u = m.RowMate[u] {
-			on[u] = mark
-		}
-	}
-	for v := 0; v < n; v++ {
-		if on[v] == onNone && m.RowMate[v] >= 0 {
-			on[v] = onCycle
-		}
-	}
-	return on
-}
-
-// edgeKind classifies u -> v given the marks of control (nil when there
-// is no matching).
-func edgeKind(m *matching.Matching, on []uint8, u, v int32) uint8 {
-	if m == nil || m.RowMate[u] != v {
+// edgeKind classifies u -> v: on a stem, on a cycle of the control
+// structure, or neither.
+func (in *Input) edgeKind(u, v int32) uint8 {
+	if in.next == nil || in.next[u] != v {
 		return plainEdge
 	}
-	switch on[u] {
-	case onStem:
+	if in.stemOf(u) >= 0 {
 		return stemEdge
-	case onCycle:
+	}
+	if in.cycOf(u) >= 0 {
 		return cycleEdge
 	}
 	return plainEdge
 }
 
-// controlMarks runs control for in's matching and inputs.
-func (in *Input) controlMarks() []uint8 {
-	var driven []bool
-	if len(in.Inputs) > 0 {
-		driven = markAll(in.Net.N(), in.Inputs)
-	}
-	return control(in.Net.N(), in.Matching, driven)
-}
-
-// DesignMatching returns a matching of g's edges for drawing the design in
-// which signal i drives the states inputs[i]: a maximum matching of the
-// bipartite graph whose rows are the states and the inputs and whose
-// columns are the states (the graph of [A B] in Lin's theorem), restricted
-// to the edges between states. The states matched to an input head the
-// stems; paths from states no input drives stay plain. Cost: one maximum
-// matching on a copy of the edges.
-func DesignMatching(g *structural.Network, inputs [][]int32) *matching.Matching {
-	n := g.N()
-	rows := n + len(inputs)
-	b := &matching.CSR{Rows: rows, Cols: n, Ptr: make([]int64, rows+1)}
-	size := int64(len(g.Out().Adj))
-	for _, in := range inputs {
-		size += int64(len(in))
-	}
-	b.Adj = make([]int32, 0, size)
-	for u := 0; u < n; u++ {
-		b.Adj = append(b.Adj, g.Succ(int32(u))...)
-		b.Ptr[u+1] = int64(len(b.Adj))
-	}
-	for i, in := range inputs {
-		b.Adj = append(b.Adj, in...)
-		b.Ptr[n+i+1] = int64(len(b.Adj))
-	}
-	m := matching.Maximum(b, nil)
-	out := &matching.Matching{RowMate: m.RowMate[:n], ColMate: m.ColMate}
-	for v, r := range out.ColMate {
-		if r >= int32(n) {
-			out.ColMate[v] = -1 // matched to an input: heads a stem
+// shownName is the label of state v: its node-table label or its name.
+func (in *Input) shownName(v int32) string {
+	if in.Label != nil {
+		if l := in.Label(v); l != "" {
+			return name(l)
 		}
 	}
-	out.Size = 0
-	for _, c := range out.RowMate {
-		if c >= 0 {
-			out.Size++
-		}
-	}
-	return out
+	return name(in.Net.Name(v))
 }

@@ -99,10 +99,6 @@ var gvMu sync.Mutex
 // after LayoutTimeout. Only one layout runs at a time in a process. The
 // SVG has no DOCTYPE (and so no reference to an external DTD).
 func Layout(ctx context.Context, dot []byte, layout string, f Format, w io.Writer) error {
-	eng, err := engine(layout)
-	if err != nil {
-		return err
-	}
 	kind := "svg"
 	switch f {
 	case FormatSVG:
@@ -112,13 +108,7 @@ func Layout(ctx context.Context, dot []byte, layout string, f Format, w io.Write
 	default:
 		return fmt.Errorf("render: Graphviz output format %q not supported (want svg or png)", f)
 	}
-	prog, err := FindLayoutProgram()
-	if err != nil {
-		return err
-	}
-	gvMu.Lock()
-	defer gvMu.Unlock()
-	out, err := runLayout(ctx, prog, eng.engine, kind, dot)
+	out, err := layoutRaw(ctx, dot, layout, kind)
 	if err != nil {
 		return err
 	}
@@ -127,6 +117,22 @@ func Layout(ctx context.Context, dot []byte, layout string, f Format, w io.Write
 	}
 	_, err = w.Write(stripDoctype(out))
 	return err
+}
+
+// layoutRaw runs the layout program for the named layout and returns its
+// output of the given kind ("svg" or "json").
+func layoutRaw(ctx context.Context, dot []byte, layout, kind string) ([]byte, error) {
+	eng, err := engine(layout)
+	if err != nil {
+		return nil, err
+	}
+	prog, err := FindLayoutProgram()
+	if err != nil {
+		return nil, err
+	}
+	gvMu.Lock()
+	defer gvMu.Unlock()
+	return runLayout(ctx, prog, eng.engine, kind, dot)
 }
 
 var errLayoutTimeout = errors.New("render: layout timeout")

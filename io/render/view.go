@@ -4,31 +4,85 @@ import (
 	"errors"
 	"fmt"
 	"sort"
+	"strconv"
+	"strings"
+	"time"
 )
 
 // Kind is the kind of view a picture shows.
 type Kind int
 
-// The views. Auto draws the whole network when it has at most MaxNodes
-// states and its condensation otherwise.
+// The views. Whole, Around and Components are graphs laid out by Graphviz
+// and grow with what they draw; Control, Groups and Degrees draw the
+// answer itself, laid out by netsteer, and take time linear in the
+// network whatever its size.
 const (
+	// Auto picks by size: Whole up to MaxNodes states, Control above.
 	Auto Kind = iota
+	// Whole draws every state and edge.
 	Whole
-	Condensation
+	// Around draws the states within Hops links of Centres.
 	Around
-	OnlyDriven
+	// Components draws the condensation: one node per strongly connected
+	// component, labelled by what it is.
+	Components
+	// Control draws the control structure: each signal's stem in order,
+	// cycles hung where they attach, long stems shortened, ranked by size.
+	Control
+	// Groups draws a table and a chart by node-table group.
+	Groups
+	// Degrees draws the degree distributions of the signals' states
+	// against all states, and the stem lengths.
+	Degrees
 )
 
+var kindNames = []string{"auto", "whole", "around", "components", "control", "groups", "degrees"}
+
+// String returns the view's name, as ParseKind reads it.
+func (k Kind) String() string {
+	if k >= 0 && int(k) < len(kindNames) {
+		return kindNames[k]
+	}
+	return "Kind(" + strconv.Itoa(int(k)) + ")"
+}
+
+// ParseKind reads a view name.
+func ParseKind(s string) (Kind, error) {
+	for i, n := range kindNames {
+		if s == n {
+			return Kind(i), nil
+		}
+	}
+	return 0, fmt.Errorf("render: unknown view %q (want %s)", s, strings.Join(kindNames, ", "))
+}
+
+// Views returns the view names with a line of help each.
+func Views() [][2]string {
+	return [][2]string{
+		{"auto", "whole network up to --max-nodes states, else the control structure"},
+		{"whole", "every state and edge (Graphviz layout)"},
+		{"around", "the states within --hops links of --around (Graphviz layout)"},
+		{"components", "one node per strongly connected component, labelled by what it is"},
+		{"control", "each signal's stem in order with its cycles, ranked; any size"},
+		{"groups", "table and chart by node-table group; any size"},
+		{"degrees", "degree distributions of the signals' states against all, stem lengths; any size"},
+	}
+}
+
 // DefaultMaxNodes is the largest number of states drawn one by one unless
-// Options.MaxNodes says otherwise: about what a person can read on one page,
-// and what Graphviz lays out in a few seconds.
+// Options.MaxNodes says otherwise: about what a person can read on one
+// page, and what Graphviz lays out in a few seconds.
 const DefaultMaxNodes = 150
+
+// DefaultMaxStems is the number of stems the control view draws one by
+// one.
+const DefaultMaxStems = 40
 
 // Options choose the view.
 type Options struct {
 	View Kind
-	// MaxNodes bounds the states (or components) drawn; 0 means
-	// DefaultMaxNodes.
+	// MaxNodes bounds the states (or components) of a Graphviz view; 0
+	// means DefaultMaxNodes.
 	MaxNodes int
 	// MaxEdges bounds the edges drawn; 0 means four per node. Edges that
 	// carry control are kept first.
@@ -37,6 +91,13 @@ type Options struct {
 	// links of a centre, in either direction (Hops 0 means 1).
 	Centres []int32
 	Hops    int
+	// MaxStems bounds the stems the Control view draws one by one (0:
+	// DefaultMaxStems); the rest are counted.
+	MaxStems int
+	// Budget bounds the estimated layout time of a Graphviz view (0:
+	// DefaultBudget); a view estimated above it is refused with a
+	// *BudgetError before any layout starts.
+	Budget time.Duration
 }
 
 func (o *Options) maxNodes() int {
@@ -53,27 +114,46 @@ func (o *Options) maxEdges() int {
 	return o.MaxEdges
 }
 
+func (o *Options) maxStems() int {
+	if o.MaxStems <= 0 {
+		return DefaultMaxStems
+	}
+	return o.MaxStems
+}
+
 // View is what Select chose to draw.
 type View struct {
 	Kind Kind
 	// Desc says in words which view this is, for the title.
 	Desc string
+	// Chosen says why Auto chose this view; empty when the view was asked
+	// for.
+	Chosen string
 
-	// States are the states drawn (Whole, Around, OnlyDriven), ascending.
+	// States are the states drawn (Whole, Around), ascending.
 	States []int32
 	// Edges are the edges drawn between them, in CSR order.
 	Edges []ViewEdge
 	// Hidden[i] counts the links of States[i] to states not drawn.
 	Hidden []int32
 
-	// Comps are the nodes of a Condensation view, CompEdges its edges.
+	// Comps are the nodes of a Components view, CompEdges its edges.
 	Comps     []CompNode
 	CompEdges []CompEdge
 
 	// EdgesTotal is the number of edges the view would have without the
 	// edge cap; len(Edges) or len(CompEdges) the number drawn.
 	EdgesTotal int
+
+	// Estimate is the expected layout time of a Graphviz view (zero for
+	// the others).
+	Estimate time.Duration
+
+	opt Options
 }
+
+// Graph reports whether the view is a graph laid out by Graphviz.
+func (v *View) Graph() bool { return v.Kind == Whole || v.Kind == Around || v.Kind == Components }
 
 // ViewEdge is one edge between drawn states.
 type ViewEdge struct {
@@ -99,69 +179,100 @@ type CompNode struct {
 	Unreached  int
 	Unobserved int
 	Source     bool  // a source component (no edge enters it)
+	Sink       bool  // a sink component (no edge leaves it)
 	First      int32 // its lowest-numbered state
 	Group      string
+	// Rank is the component's place by size among those of two or more
+	// states (1: the largest), 0 for others.
+	Rank int
 }
 
 // CompEdge joins two condensation nodes (indices into Comps).
 type CompEdge struct {
 	From, To int32
-	Count    int  // network edges it stands for
-	Control  bool // at least one of them lies on a stem
+	Count    int // network edges it stands for
+	Stems    int // of them, edges on a stem
 }
 
-// Select chooses what to draw of in.
+// Select chooses what to draw of in. A Graphviz view whose layout is
+// estimated to take longer than opt.Budget is refused with a
+// *BudgetError naming the estimate and the views that will work.
 func Select(in *Input, opt Options) (*View, error) {
 	g := in.Net
 	if g == nil || g.N() == 0 {
 		return nil, errors.New("render: no network")
 	}
-	if in.Components == nil {
-		in.Components = g.Components()
-	}
+	in.prep()
 	kind := opt.View
+	chosen := ""
 	if kind == Auto {
 		kind = Whole
 		if g.N() > opt.maxNodes() {
-			kind = Condensation
+			kind = Control
+			chosen = fmt.Sprintf("chosen for %s states: more than %s are not drawn one by one", num(g.N()), num(opt.maxNodes()))
+		} else {
+			chosen = fmt.Sprintf("chosen for %s states: up to %s are drawn one by one", num(g.N()), num(opt.maxNodes()))
 		}
 	}
+	var v *View
+	var err error
 	switch kind {
 	case Whole:
 		if g.N() > opt.maxNodes() {
-			return nil, fmt.Errorf("render: %d states is more than the limit of %d for a whole view", g.N(), opt.maxNodes())
+			return nil, &BudgetError{View: Whole, Nodes: g.N(), Edges: g.Edges(), Limit: opt.maxNodes(), Estimate: estimate(g.N(), g.Edges())}
 		}
 		all := make([]int32, g.N())
 		for i := range all {
 			all[i] = int32(i)
 		}
-		v := statesView(in, opt, all, false)
+		v = statesView(in, opt, all)
 		v.Kind = Whole
 		v.Desc = "whole network"
-		return v, nil
 	case Around:
-		return aroundView(in, opt)
-	case OnlyDriven:
-		return drivenView(in, opt)
-	case Condensation:
-		return condensationView(in, opt), nil
+		v, err = aroundView(in, opt)
+	case Components:
+		v = condensationView(in, opt)
+	case Control:
+		if in.In == nil {
+			return nil, errors.New("render: the control view needs inputs or a driver set")
+		}
+		v = &View{Kind: Control, Desc: controlDesc(in, opt)}
+	case Groups:
+		if in.Group == nil {
+			return nil, errors.New("render: the groups view needs the states' groups (a node table with a group column)")
+		}
+		v = &View{Kind: Groups, Desc: "summary by group of the node table"}
+	case Degrees:
+		v = &View{Kind: Degrees, Desc: "degree distributions and stem lengths"}
+	default:
+		return nil, fmt.Errorf("render: unknown view %d", kind)
 	}
-	return nil, fmt.Errorf("render: unknown view %d", kind)
+	if err != nil {
+		return nil, err
+	}
+	v.Chosen, v.opt = chosen, opt
+	if chosen != "" {
+		v.Desc += " (" + chosen + ")"
+	}
+	if v.Graph() {
+		n, e := v.size()
+		v.Estimate = estimate(n, e)
+		if b := opt.budget(); v.Estimate > b {
+			return nil, &BudgetError{View: kind, Nodes: n, Edges: e, Estimate: v.Estimate, Budget: b}
+		}
+	}
+	return v, nil
 }
 
 // statesView builds the view of the given states (ascending): the edges
 // among them, control edges first when capped, and the hidden links.
 // With onlyControl, only the matched edges are drawn.
-func statesView(in *Input, opt Options, states []int32, onlyControl bool) *View {
+func statesView(in *Input, opt Options, states []int32) *View {
 	g := in.Net
 	v := &View{States: states}
 	shown := make(map[int32]int32, len(states)) // state -> position
 	for i, s := range states {
 		shown[s] = int32(i)
-	}
-	var on []uint8
-	if in.Matching != nil {
-		on = in.controlMarks()
 	}
 	var control, plain []ViewEdge
 	hidden := make([]int32, len(states))
@@ -173,10 +284,10 @@ func statesView(in *Input, opt Options, states []int32, onlyControl bool) *View 
 				anyHidden = true
 				continue
 			}
-			e := ViewEdge{From: u, To: w, kind: edgeKind(in.Matching, on, u, w)}
+			e := ViewEdge{From: u, To: w, kind: in.edgeKind(u, w)}
 			if e.kind != plainEdge {
 				control = append(control, e)
-			} else if !onlyControl {
+			} else {
 				plain = append(plain, e)
 			}
 		}
@@ -255,7 +366,7 @@ func aroundView(in *Input, opt Options) (*View, error) {
 	}
 	states := append([]int32(nil), queue...)
 	sort.Slice(states, func(a, b int) bool { return states[a] < states[b] })
-	v := statesView(in, opt, states, false)
+	v := statesView(in, opt, states)
 	v.Kind = Around
 	names := ""
 	for i, c := range opt.Centres {
@@ -271,53 +382,6 @@ func aroundView(in *Input, opt Options) (*View, error) {
 	v.Desc = fmt.Sprintf("neighbourhood of %s within %d %s: %d %s", names, hops, plural(hops, "link", "links"), len(states), plural(len(states), "state", "states"))
 	if truncated {
 		v.Desc += fmt.Sprintf(" (cut at the limit of %d, nearest first)", max)
-	}
-	return v, nil
-}
-
-// drivenView shows the states the inputs drive and the stems that start
-// at them, signal by signal, up to MaxNodes states.
-func drivenView(in *Input, opt Options) (*View, error) {
-	if len(in.Inputs) == 0 {
-		return nil, errors.New("render: a view of the driven states needs inputs")
-	}
-	max := opt.maxNodes()
-	seen := map[int32]bool{}
-	var states []int32
-	signals := 0
-	cut := false
-	for _, sig := range in.Inputs {
-		var add []int32
-		for _, d := range sig {
-			for u := d; u >= 0 && !seen[u]; {
-				seen[u] = true
-				add = append(add, u)
-				if in.Matching == nil {
-					break
-				}
-				u = in.Matching.RowMate[u]
-			}
-		}
-		if len(states)+len(add) > max {
-			if signals > 0 {
-				break
-			}
-			add = add[:max] // one stem longer than the limit: its head
-			cut = true
-		}
-		states = append(states, add...)
-		signals++
-		if cut {
-			break
-		}
-	}
-	sort.Slice(states, func(a, b int) bool { return states[a] < states[b] })
-	v := statesView(in, opt, states, true)
-	v.Kind = OnlyDriven
-	kind := in.inputKind()
-	v.Desc = fmt.Sprintf("driven states and their stems: %d %s", len(states), plural(len(states), "state", "states"))
-	if signals < len(in.Inputs) || cut {
-		v.Desc += fmt.Sprintf(", first %d of %d %ss (limit %d states)", signals, len(in.Inputs), kind, max)
 	}
 	return v, nil
 }

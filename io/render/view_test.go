@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/graph/topo"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/analysis"
 )
 
 func TestEscape(t *testing.T) {
@@ -51,14 +52,13 @@ func TestCondensationAgainstGonum(t *testing.T) {
 	for trial := 0; trial < 20; trial++ {
 		n := 200 + rng.IntN(200)
 		g := randomNet(t, rng, n, 0.6+rng.Float64()*0.8)
-		ds := structural.MinimumDrivers(g)
-		in := &Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching}
+		in := review(t, g, analysis.ReviewRequest{}, nil, nil)
 		max := 10 + rng.IntN(100)
-		v, err := Select(in, Options{MaxNodes: max})
+		v, err := Select(in, Options{View: Components, MaxNodes: max})
 		if err != nil {
 			t.Fatal(err)
 		}
-		if v.Kind != Condensation {
+		if v.Kind != Components {
 			t.Fatalf("trial %d: %d states over a limit of %d drew view %d, want a condensation", trial, n, max, v.Kind)
 		}
 
@@ -110,7 +110,7 @@ func TestCondensationAgainstGonum(t *testing.T) {
 		if states != n {
 			t.Errorf("trial %d: nodes hold %d states, want %d", trial, states, n)
 		}
-		if want := len(ds.Drivers) + attached(ds); driven != want {
+		if want := len(in.In.Design.Touched()); driven != want {
 			t.Errorf("trial %d: nodes count %d driven states, want %d", trial, driven, want)
 		}
 		if len(v.Comps) > max {
@@ -155,102 +155,6 @@ func TestCondensationAgainstGonum(t *testing.T) {
 	}
 }
 
-func attached(ds *structural.DriverSet) int {
-	k := 0
-	for _, in := range ds.Inputs {
-		k += len(in) - 1
-	}
-	return k
-}
-
-// TestDesignMatchingMaximum checks that DesignMatching, completed by the
-// inputs, is a maximum matching of [A B]: its size must equal the term rank
-// N - Deficiency that structural.Check finds (Lin's dilation test).
-func TestDesignMatchingMaximum(t *testing.T) {
-	rng := rand.New(rand.NewPCG(9, 1))
-	for trial := 0; trial < 200; trial++ {
-		n := 2 + rng.IntN(14)
-		g := randomNet(t, rng, n, 0.5+rng.Float64()*1.5)
-		k := 1 + rng.IntN(3)
-		inputs := make([][]int32, k)
-		for i := range inputs {
-			seen := map[int32]bool{}
-			for j := 0; j < 1+rng.IntN(3); j++ {
-				s := int32(rng.IntN(n))
-				if !seen[s] {
-					seen[s] = true
-					inputs[i] = append(inputs[i], s)
-				}
-			}
-		}
-		m := DesignMatching(g, inputs)
-		// A valid matching of the network's edges.
-		size := 0
-		for u, v := range m.RowMate {
-			if v < 0 {
-				continue
-			}
-			size++
-			if m.ColMate[v] != int32(u) {
-				t.Fatalf("trial %d: RowMate[%d] = %d but ColMate[%d] = %d", trial, u, v, v, m.ColMate[v])
-			}
-			found := false
-			for _, w := range g.Succ(int32(u)) {
-				found = found || w == v
-			}
-			if !found {
-				t.Fatalf("trial %d: matched %d -> %d is not an edge", trial, u, v)
-			}
-		}
-		if size != m.Size {
-			t.Errorf("trial %d: Size %d, counted %d", trial, m.Size, size)
-		}
-		// The states left free, matched to the inputs by brute force.
-		var free []int32
-		for v := 0; v < n; v++ {
-			if m.ColMate[v] < 0 {
-				free = append(free, int32(v))
-			}
-		}
-		best := bestInputMatch(free, inputs)
-		termRank := n - structural.Check(g, inputs).Deficiency
-		if size+best != termRank {
-			t.Errorf("trial %d: matching %d + inputs %d = %d, want the term rank %d", trial, size, best, size+best, termRank)
-		}
-	}
-}
-
-// bestInputMatch is the largest matching of free states to the inputs that
-// drive them, by exhaustive search.
-func bestInputMatch(free []int32, inputs [][]int32) int {
-	used := make([]bool, len(inputs))
-	var rec func(i int) int
-	rec = func(i int) int {
-		if i == len(free) {
-			return 0
-		}
-		best := rec(i + 1)
-		for k, in := range inputs {
-			if used[k] {
-				continue
-			}
-			for _, s := range in {
-				if s == free[i] {
-					used[k] = true
-					if r := 1 + rec(i+1); r > best {
-						best = r
-					}
-					used[k] = false
-					break
-				}
-			}
-		}
-		return best
-	}
-	return rec(0)
-}
-
-// TestDepth compares depth with the longest path found by enumerating every
 // path of small random DAGs, and checks that back edges are ignored.
 func TestDepth(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
@@ -338,16 +242,22 @@ func TestLargeStemCut(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	ds := structural.MinimumDrivers(g)
-	in := &Input{Net: g, Inputs: ds.Inputs, Matching: ds.Matching}
-	for _, kind := range []Kind{Auto, OnlyDriven, Around} {
+	in := review(t, g, analysis.ReviewRequest{}, nil, nil)
+	for _, kind := range []Kind{Auto, Control, Around} {
 		v, err := Select(in, Options{View: kind, Centres: []int32{n / 2}, Hops: 1000})
 		if err != nil {
 			t.Fatal(err)
 		}
 		drawn := len(v.States) + len(v.Comps)
-		if drawn == 0 || drawn > DefaultMaxNodes {
+		if v.Graph() && (drawn == 0 || drawn > DefaultMaxNodes) {
 			t.Errorf("view %d of a %d-chain draws %d nodes, want 1..%d", kind, n, drawn, DefaultMaxNodes)
+		}
+		if !v.Graph() {
+			sc, _ := controlScene(in, v)
+			if len(sc.items) > 200*DefaultMaxStems {
+				t.Errorf("the control view of a %d-chain has %d shapes", n, len(sc.items))
+			}
+			continue
 		}
 		var dot bytes.Buffer
 		if err := DOT(&dot, in, v, AutoLayout); err != nil {
