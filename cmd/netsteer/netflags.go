@@ -238,7 +238,13 @@ func describe(err error) string {
 	var se *structural.StateError
 	var sd *sweep.SeedError
 	var sz *sweep.SizeError
+	var mx *sweep.MixedSeedsError
 	switch {
+	case errors.As(err, &mx):
+		if mx.FileA == mx.FileB {
+			return fmt.Sprintf("%s holds rows of sweeps with different --seed (%d and %d)", mx.FileA, mx.SeedA, mx.SeedB)
+		}
+		return fmt.Sprintf("%s and %s come from sweeps with different --seed (%d and %d): merge the shards of one sweep", mx.FileA, mx.FileB, mx.SeedA, mx.SeedB)
 	case errors.As(err, &sz):
 		return fmt.Sprintf("the sweep has %.3g rows, more than %d (about %.3g core-hours); sweep fewer values or replicates", sz.Rows, sz.Max, sz.Seconds/3600)
 	case errors.As(err, &sd):

@@ -213,7 +213,7 @@ func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if in := fileout.SameFile(*output, args...); in != "" {
 			return usagef("-o %s would overwrite %s, which this command reads", *output, in)
 		}
-		rows, err := sweepcsv.MergeFiles(args...)
+		rows, err := sweep.MergeFiles(args...)
 		if err != nil {
 			return err
 		}

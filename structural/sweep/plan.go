@@ -306,10 +306,14 @@ func (pl *Plan) Points() []Point {
 // RowSeed derives a row's seed from the sweep seed and the row key alone
 // (FNV-1a of the key, mixed with the seed by SplitMix64).
 func RowSeed(seed uint64, key string) uint64 {
+	s := seed ^ keyHash(key)
+	return gen.SplitMix64(&s)
+}
+
+func keyHash(key string) uint64 {
 	h := fnv.New64a()
 	h.Write([]byte(key))
-	s := seed ^ h.Sum64()
-	return gen.SplitMix64(&s)
+	return h.Sum64()
 }
 
 // Shard selects a share of a plan: point i belongs to shard I of K when
