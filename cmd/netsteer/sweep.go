@@ -82,6 +82,7 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	output := fs.StringP("output", "o", "", "CSV file to write and resume (- for standard output)")
 	plotPath := fs.String("plot", "", "also draw the rows to this .svg or .png file")
 	noTiming := fs.Bool("no-timing", false, "write 0 in the seconds column, so that reruns give byte-identical files")
+	plotLog := fs.String("plot-log", "", "logarithmic plot axes: x, y or xy")
 	return func(args []string) error {
 		switch {
 		case len(args) != 0:
@@ -93,7 +94,7 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		case *replicates < 1:
 			return usagef("--replicates must be at least 1")
 		}
-		if err := checkPlot(*plotPath); err != nil {
+		if err := checkPlot(*plotPath, *plotLog); err != nil {
 			return err
 		}
 		if _, err := cf.transforms(nil); err != nil {
@@ -153,7 +154,7 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			if *base != "" {
 				title = "driver fraction, variants of " + filepath.Base(*base)
 			}
-			if err := plot.WriteFile(*plotPath, res.Rows, title); err != nil {
+			if err := plot.WriteFileWith(*plotPath, res.Rows, plotOptions(title, *plotLog)); err != nil {
 				return err
 			}
 		}
@@ -164,13 +165,20 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	}
 }
 
-func checkPlot(path string) error {
+func checkPlot(path, log string) error {
 	if path != "" {
 		if ext := strings.ToLower(filepath.Ext(path)); ext != ".svg" && ext != ".png" {
 			return usagef("--plot %s: want a .svg or .png file", path)
 		}
 	}
+	if log != "" && log != "x" && log != "y" && log != "xy" {
+		return usagef("--plot-log %q: want x, y or xy", log)
+	}
 	return nil
+}
+
+func plotOptions(title, log string) plot.Options {
+	return plot.Options{Title: title, LogX: strings.Contains(log, "x"), LogY: strings.Contains(log, "y")}
 }
 
 // progressBar returns a progress callback drawing a bar on a terminal, at
@@ -200,6 +208,7 @@ func progressBar(w io.Writer) func(done, total int) {
 func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	output := fs.StringP("output", "o", "", "merged CSV file (- for standard output)")
 	plotPath := fs.String("plot", "", "also draw the merged rows to this .svg or .png file")
+	plotLog := fs.String("plot-log", "", "logarithmic plot axes: x, y or xy")
 	return func(args []string) error {
 		if len(args) == 0 {
 			return usagef("merge wants one or more sweep files")
@@ -207,7 +216,7 @@ func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if *output == "" {
 			return usagef("-o FILE is required")
 		}
-		if err := checkPlot(*plotPath); err != nil {
+		if err := checkPlot(*plotPath, *plotLog); err != nil {
 			return err
 		}
 		if in := fileout.SameFile(*output, args...); in != "" {
@@ -221,7 +230,7 @@ func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return err
 		}
 		if *plotPath != "" {
-			if err := plot.WriteFile(*plotPath, rows, "driver fraction"); err != nil {
+			if err := plot.WriteFileWith(*plotPath, rows, plotOptions("driver fraction", *plotLog)); err != nil {
 				return err
 			}
 		}
