@@ -145,7 +145,7 @@ type DeviceLoss struct {
 	// Replacement is the cheapest set of dedicated devices, on states
 	// other than those of the lost device, that makes the remaining design
 	// work again (first Request.Detail essential devices).
-	Replacement *placement.Placement `json:"replacement,omitempty"`
+	Replacement *Fix `json:"replacement,omitempty"`
 }
 
 // LinkLoss is what losing one edge does.
@@ -165,7 +165,7 @@ type LinkLoss struct {
 	Witness  *structural.Dilation `json:"dilation,omitempty"`
 	// Fix is the cheapest set of dedicated devices that makes the design
 	// work without the edge (first Request.Detail links).
-	Fix *placement.Placement `json:"cheapest_fix,omitempty"`
+	Fix *Fix `json:"cheapest_fix,omitempty"`
 
 	names structural.States
 }
@@ -333,25 +333,8 @@ func (as *Assessment) devices(g *structural.Network, p structural.Property, c *c
 			dl.Witness = witness(g, c, a, a.AltReach([]int32{r}), -1, -1, d)
 			a.Undo(mark)
 		}
-		dl.Replacement = replacement(g, p, d, i, dev)
+		dl.Replacement = c.deviceFix(g, a, i, dev)
 	}
-}
-
-// replacement completes the design without signal i, its states barred.
-func replacement(g *structural.Network, p structural.Property, d structural.Design, i int, dev structural.Devices) *placement.Placement {
-	bar := make([]bool, g.N())
-	if dev.Forbidden != nil {
-		copy(bar, dev.Forbidden)
-	}
-	for _, v := range d.Signal(i) {
-		bar[v] = true
-	}
-	dv := structural.Devices{Cost: dev.Cost, Forbidden: bar}
-	pl, err := placement.Complete(g, p, d.Without(i), dv)
-	if err != nil {
-		return nil
-	}
-	return pl
 }
 
 // uniq returns the distinct states of s (a copy).
@@ -461,47 +444,8 @@ func (as *Assessment) links(g *structural.Network, p structural.Property, c *cor
 			l.Witness = witness(g, c, a, a.AltReachSkip([]int32{v}, v, u), v, u, d)
 			a.Undo(mark)
 		}
-		l.Fix = linkFix(g, p, d, dev, l.From, l.To)
+		l.Fix = c.linkFix(g, a, u, v, l.UnreachedCount > 0, l.Dilation, dev)
 	}
-}
-
-// linkFix completes the design on g without the edge from -> to.
-func linkFix(g *structural.Network, p structural.Property, d structural.Design, dev structural.Devices, from, to int32) *placement.Placement {
-	out := g.Out()
-	src := make([]int32, 0, len(out.Adj))
-	dst := make([]int32, 0, len(out.Adj))
-	for u := int32(0); int(u) < g.N(); u++ {
-		for _, v := range out.Row(u) {
-			if u != from || v != to {
-				src = append(src, u)
-				dst = append(dst, v)
-			}
-		}
-	}
-	h, err := g.WithEdges(src, dst, nil)
-	if err != nil {
-		return nil
-	}
-	dd, err := structural.NewDesign(h, d.Signals(), lines(d))
-	if err != nil {
-		return nil
-	}
-	pl, err := placement.Complete(h, p, dd, dev)
-	if err != nil {
-		return nil
-	}
-	return pl
-}
-
-func lines(d structural.Design) []int {
-	if d.Line(0) == 0 && d.Len() > 0 {
-		return nil
-	}
-	out := make([]int, d.Len())
-	for i := range out {
-		out[i] = d.Line(i)
-	}
-	return out
 }
 
 func (as *Assessment) states(g *structural.Network, c *core, d structural.Design, detail int) {

@@ -151,28 +151,46 @@ func bruteCompletion(m testnet.Masks, p structural.Property, sig []uint32, dev s
 	return best, ok
 }
 
-// checkFix verifies a cheapest completion against the brute-force one.
-func checkFix(t *testing.T, what string, m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32, pl *placement.Placement) {
+// checkFix verifies a cheapest completion (feasibility, the devices
+// added, their cost) against the brute-force one.
+func checkFix(t *testing.T, what string, m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32, feasible bool, added []int32, cost structural.Cost) {
 	t.Helper()
 	want, ok := bruteCompletion(m, p, sig, dev, bar)
-	if pl == nil {
-		t.Fatalf("%s: no completion", what)
-	}
-	if pl.Feasible != ok {
-		t.Fatalf("%s: completion feasible %v, brute force %v", what, pl.Feasible, ok)
+	if feasible != ok {
+		t.Fatalf("%s: completion feasible %v, brute force %v", what, feasible, ok)
 	}
 	if !ok {
 		return
 	}
 	s := append([]uint32(nil), sig...)
-	for _, v := range pl.Added.IDs() {
-		if bar&(1<<v) != 0 {
+	for _, v := range added {
+		if bar&(1<<v) != 0 || !dev.Allowed(v) {
 			t.Fatalf("%s: completion uses barred state %d", what, v)
 		}
 		s = append(s, 1<<v)
 	}
-	if !m.Works(p, s) || pl.Cost != want {
-		t.Fatalf("%s: completion %v costs %v (works %v), brute force %v", what, pl.Added.IDs(), pl.Cost, m.Works(p, s), want)
+	if !m.Works(p, s) || cost != want {
+		t.Fatalf("%s: completion %v costs %v (works %v), brute force %v", what, added, cost, m.Works(p, s), want)
+	}
+}
+
+func checkPlacement(t *testing.T, what string, m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32, pl *placement.Placement) {
+	t.Helper()
+	if pl == nil {
+		t.Fatalf("%s: no placement", what)
+	}
+	checkFix(t, what, m, p, sig, dev, bar, pl.Feasible, pl.Added.IDs(), pl.Cost)
+}
+
+func checkOwnFix(t *testing.T, what string, m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32, f *failure.Fix, ref *placement.Placement) {
+	t.Helper()
+	if f == nil {
+		t.Fatalf("%s: no fix", what)
+	}
+	checkFix(t, what, m, p, sig, dev, bar, f.Feasible, f.Added.IDs(), f.Cost)
+	// placement.Complete on the same remaining design, as a second route.
+	if ref.Feasible != f.Feasible || f.Feasible && ref.Cost != f.Cost {
+		t.Fatalf("%s: fix %v at %v, placement.Complete %v at %v", what, f.Added.IDs(), f.Cost, ref.Added.IDs(), ref.Cost)
 	}
 }
 
@@ -222,7 +240,7 @@ func TestAssessAgainstBruteForce(t *testing.T) {
 			if len(as.Devices) != 0 || len(as.Links) != 0 {
 				t.Fatalf("trial %d: failure lists for a failing design", trial)
 			}
-			checkFix(t, "completion", m, p, ms, dev, 0, as.Completion)
+			checkPlacement(t, "completion", m, p, ms, dev, 0, as.Completion)
 			continue
 		}
 		holding++
@@ -237,7 +255,7 @@ func TestAssessAgainstBruteForce(t *testing.T) {
 				t.Fatalf("trial %d: signal %d with budget 1: %v, unbounded %v", trial, i, dl.Class, full)
 			}
 		}
-		checkLinks(t, trial, g, p, dev, m, ms, as)
+		checkLinks(t, trial, g, p, d, dev, m, ms, as)
 		checkStates(t, trial, p, m, ms, as)
 	}
 	if holding < trials/5 {
@@ -266,7 +284,18 @@ func checkDevices(t *testing.T, trial int, g *structural.Network, p structural.P
 			checkWitness(t, "device", m, p, ms, i, dl.Witness)
 		}
 		if dl.Class == failure.Essential {
-			checkFix(t, "replacement", m, p, rest, dev, ms[i], dl.Replacement)
+			bar := make([]bool, g.N())
+			if dev.Forbidden != nil {
+				copy(bar, dev.Forbidden)
+			}
+			for _, v := range d.Signal(i) {
+				bar[v] = true
+			}
+			ref, err := placement.Complete(g, p, d.Without(i), structural.Devices{Cost: dev.Cost, Forbidden: bar})
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkOwnFix(t, "replacement", m, p, rest, dev, ms[i], dl.Replacement, ref)
 		}
 		if dl.Class == failure.Useful {
 			q := uint32(0)
@@ -281,10 +310,9 @@ func checkDevices(t *testing.T, trial int, g *structural.Network, p structural.P
 	if counts[failure.Essential] != as.EssentialDevices || counts[failure.Useful] != as.UsefulDevices || counts[failure.Useless] != as.UselessDevices || as.UnresolvedDevices != 0 {
 		t.Fatalf("trial %d: counts %+v vs %d/%d/%d/%d", trial, counts, as.EssentialDevices, as.UsefulDevices, as.UselessDevices, as.UnresolvedDevices)
 	}
-	_ = d
 }
 
-func checkLinks(t *testing.T, trial int, g *structural.Network, p structural.Property, dev structural.Devices, m testnet.Masks, ms []uint32, as *failure.Assessment) {
+func checkLinks(t *testing.T, trial int, g *structural.Network, p structural.Property, d structural.Design, dev structural.Devices, m testnet.Masks, ms []uint32, as *failure.Assessment) {
 	type key struct{ u, v int32 }
 	got := map[key]failure.LinkLoss{}
 	for _, l := range as.Links {
@@ -322,7 +350,20 @@ func checkLinks(t *testing.T, trial int, g *structural.Network, p structural.Pro
 			if dil {
 				checkWitness(t, "link", me, p, ms, -1, l.Witness)
 			}
-			checkFix(t, "link fix", me, p, ms, dev, 0, l.Fix)
+			var es []testnet.Edge
+			for x := int32(0); int(x) < g.N(); x++ {
+				for _, y := range g.Succ(x) {
+					if x != u || y != v {
+						es = append(es, testnet.Edge{x, y})
+					}
+				}
+			}
+			ge := testnet.Network(t, g.N(), es)
+			ref, err := placement.Complete(ge, p, testnet.Design(t, ge, d.Signals()), dev)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkOwnFix(t, "link fix", me, p, ms, dev, 0, l.Fix, ref)
 		}
 	}
 	if breaking != len(as.Links) || unreach != as.UnreachingLinks || dilating != as.DilatingLinks || both != as.BothLinks {

@@ -24,6 +24,7 @@ type core struct {
 	rsize    []int32
 	tree     *dom.Tree
 	reached  int // states the signals reach
+	src      *sources
 }
 
 func newCore(h *structural.Network, sig [][]int32) *core {

@@ -1,0 +1,80 @@
+package failure_test
+
+import (
+	"fmt"
+	"testing"
+	"time"
+
+	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/failure"
+	"github.com/netsteer/netsteer/structural/gen/netgen"
+	"github.com/netsteer/netsteer/structural/placement"
+)
+
+// benchNet builds a fixed-seed network from netgen: directed Erdős–Rényi
+// or static-model scale-free (gamma 2.5), mean total degree 10, so n
+// states carry 5n edges.
+func benchNet(b *testing.B, model string, n int) *structural.Network {
+	var e *netgen.Edges
+	if model == "sf" {
+		e = netgen.ScaleFree(n, 10, 2.5, 1)
+	} else {
+		e = netgen.ER(n, 10, 1)
+	}
+	bl := structural.NewIntBuilder(e.N, 0)
+	bl.Grow(len(e.Src))
+	for i := range e.Src {
+		bl.AddEdge(e.Src[i], e.Dst[i])
+	}
+	g, err := bl.Build(structural.BuildOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return g
+}
+
+// benchDesign is the cheapest dedicated placement (unit costs): a design
+// that holds, with every device essential or close to it.
+func benchDesign(b *testing.B, g *structural.Network, p structural.Property) structural.Design {
+	pl, err := placement.Place(g, p, structural.Devices{})
+	if err != nil || !pl.Feasible {
+		b.Fatal("no placement", err)
+	}
+	d, err := structural.Dedicated(g, pl.Devices.IDs())
+	if err != nil {
+		b.Fatal(err)
+	}
+	return d
+}
+
+// BenchmarkAssess times every single-device and single-link loss of the
+// cheapest dedicated actuator placement, against one structural.Check of
+// the same design in the same run; ratio is Assess time over Check time
+// (the target is at most 10). Networks of 10^5 and 10^6 edges.
+func BenchmarkAssess(b *testing.B) {
+	for _, model := range []string{"er", "sf"} {
+		for _, n := range []int{20_000, 200_000} {
+			g := benchNet(b, model, n)
+			d := benchDesign(b, g, structural.Controllability)
+			b.Run(fmt.Sprintf("%s/edges=%d", model, g.Edges()), func(b *testing.B) {
+				var tc, ta time.Duration
+				for i := 0; i < b.N; i++ {
+					t0 := time.Now()
+					if _, err := structural.Check(g, structural.Controllability, d); err != nil {
+						b.Fatal(err)
+					}
+					t1 := time.Now()
+					as, err := failure.Assess(g, failure.Request{Design: d})
+					if err != nil || !as.Intact.Holds {
+						b.Fatal(err)
+					}
+					ta += time.Since(t1)
+					tc += t1.Sub(t0)
+				}
+				b.ReportMetric(float64(tc.Nanoseconds())/float64(b.N)/1e6, "check-ms")
+				b.ReportMetric(float64(ta.Nanoseconds())/float64(b.N)/1e6, "assess-ms")
+				b.ReportMetric(float64(ta)/float64(tc), "ratio")
+			})
+		}
+	}
+}
