@@ -121,10 +121,10 @@ func checkWitness(t *testing.T, what string, m testnet.Masks, p structural.Prope
 }
 
 // bruteCompletion returns the least cost (structural.Cost units) of
-// dedicated devices on allowed states that make sig work on m, and whether
-// there is one.
-func bruteCompletion(m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32) (structural.Cost, bool) {
-	best, ok := structural.Cost(0), false
+// dedicated devices on allowed states that make sig work on m, the fewest
+// devices at that cost, and whether there is one.
+func bruteCompletion(m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32) (structural.Cost, int, bool) {
+	best, fewest, ok := structural.Cost(0), 0, false
 	for a := uint32(0); a < 1<<m.N; a++ {
 		if a&bar != 0 || a&^m.Alive != 0 {
 			continue
@@ -141,21 +141,22 @@ func bruteCompletion(m testnet.Masks, p structural.Property, sig []uint32, dev s
 				s = append(s, 1<<v)
 			}
 		}
-		if c < 0 || ok && c >= best {
+		k := bits.OnesCount32(a)
+		if c < 0 || ok && (c > best || c == best && k >= fewest) {
 			continue
 		}
 		if m.Works(p, s) {
-			best, ok = c, true
+			best, fewest, ok = c, k, true
 		}
 	}
-	return best, ok
+	return best, fewest, ok
 }
 
 // checkFix verifies a cheapest completion (feasibility, the devices
 // added, their cost) against the brute-force one.
 func checkFix(t *testing.T, what string, m testnet.Masks, p structural.Property, sig []uint32, dev structural.Devices, bar uint32, feasible bool, added []int32, cost structural.Cost) {
 	t.Helper()
-	want, ok := bruteCompletion(m, p, sig, dev, bar)
+	want, fewest, ok := bruteCompletion(m, p, sig, dev, bar)
 	if feasible != ok {
 		t.Fatalf("%s: completion feasible %v, brute force %v", what, feasible, ok)
 	}
@@ -169,8 +170,8 @@ func checkFix(t *testing.T, what string, m testnet.Masks, p structural.Property,
 		}
 		s = append(s, 1<<v)
 	}
-	if !m.Works(p, s) || cost != want {
-		t.Fatalf("%s: completion %v costs %v (works %v), brute force %v", what, added, cost, m.Works(p, s), want)
+	if !m.Works(p, s) || cost != want || len(added) != fewest {
+		t.Fatalf("%s: completion %v costs %v (works %v), brute force %v with %d devices", what, added, cost, m.Works(p, s), want, fewest)
 	}
 }
 

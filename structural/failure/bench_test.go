@@ -14,7 +14,7 @@ import (
 // benchNet builds a fixed-seed network from netgen: directed Erdős–Rényi
 // or static-model scale-free (gamma 2.5), mean total degree 10, so n
 // states carry 5n edges.
-func benchNet(b *testing.B, model string, n int) *structural.Network {
+func benchNet(b testing.TB, model string, n int) *structural.Network {
 	var e *netgen.Edges
 	if model == "sf" {
 		e = netgen.ScaleFree(n, 10, 2.5, 1)
@@ -35,7 +35,7 @@ func benchNet(b *testing.B, model string, n int) *structural.Network {
 
 // benchDesign is the cheapest dedicated placement (unit costs): a design
 // that holds, with every device essential or close to it.
-func benchDesign(b *testing.B, g *structural.Network, p structural.Property) structural.Design {
+func benchDesign(b testing.TB, g *structural.Network, p structural.Property) structural.Design {
 	pl, err := placement.Place(g, p, structural.Devices{})
 	if err != nil || !pl.Feasible {
 		b.Fatal("no placement", err)
@@ -74,6 +74,50 @@ func BenchmarkAssess(b *testing.B) {
 				b.ReportMetric(float64(tc.Nanoseconds())/float64(b.N)/1e6, "check-ms")
 				b.ReportMetric(float64(ta.Nanoseconds())/float64(b.N)/1e6, "assess-ms")
 				b.ReportMetric(float64(ta)/float64(tc), "ratio")
+			})
+		}
+	}
+}
+
+// smallNet is a fixed-seed directed Erdős–Rényi network G(n, m) with
+// m = 2n (mean total degree 4), the size the exact search is for.
+func smallNet(b testing.TB, n int, seed uint64) *structural.Network {
+	e := netgen.ER(n, 4, seed)
+	bl := structural.NewIntBuilder(e.N, 0)
+	for i := range e.Src {
+		bl.AddEdge(e.Src[i], e.Dst[i])
+	}
+	g, err := bl.Build(structural.BuildOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return g
+}
+
+// BenchmarkRobustExact times the exact search (spares allowed, so every
+// network is feasible) on ER networks of 12 to 24 states, and reports the
+// nodes searched and whether the search completed within its default
+// limit.
+func BenchmarkRobustExact(b *testing.B) {
+	for _, threat := range []failure.Threat{failure.AnyDevice, failure.AnyLink} {
+		for _, n := range []int{12, 16, 20, 24} {
+			g := smallNet(b, n, 3)
+			b.Run(fmt.Sprintf("%s/states=%d", map[failure.Threat]string{failure.AnyDevice: "device", failure.AnyLink: "link"}[threat], n), func(b *testing.B) {
+				var rp *failure.RobustPlacement
+				for i := 0; i < b.N; i++ {
+					var err error
+					rp, err = failure.Robust(g, failure.RobustRequest{Survive: threat, Spares: true})
+					if err != nil || !rp.Feasible {
+						b.Fatal(err)
+					}
+				}
+				b.ReportMetric(float64(rp.SearchNodes), "nodes")
+				opt := 0.0
+				if rp.Optimal {
+					opt = 1
+				}
+				b.ReportMetric(opt, "optimal")
+				b.ReportMetric(float64(rp.Gap)/float64(structural.Unit), "gap")
 			})
 		}
 	}

@@ -204,19 +204,7 @@ func (c *core) deviceFix(g *structural.Network, a *bip.Aug, i int, dev structura
 func (c *core) linkFix(g *structural.Network, a *bip.Aug, u, v int32, unreached, dilation bool, dev structural.Devices) *Fix {
 	var groups [][]int32
 	if unreached {
-		in := c.h.In()
-		seen := map[int32]bool{v: true}
-		q := []int32{v}
-		for h := 0; h < len(q); h++ {
-			y := q[h]
-			for _, w := range in.Row(y) {
-				if y == v && w == u || seen[w] {
-					continue
-				}
-				seen[w] = true
-				q = append(q, w)
-			}
-		}
+		q, _ := c.reachersWithout(u, v, 0)
 		groups = append(groups, q)
 	}
 	var alt []int32

@@ -244,15 +244,23 @@ func (a *Aug) FreeRows() []int32 {
 // paths over the columns that are on (a row, then any column on adjacent to
 // it, then that column's mate), start included. The slice is reused by the
 // next call; InReach tells whether a row is in it until then.
-func (a *Aug) AltReach(start []int32) []int32 { return a.altReach(start, -1, -1) }
+func (a *Aug) AltReach(start []int32) []int32 { r, _ := a.altReach(start, -1, -1, 0); return r }
 
 // AltReachSkip is AltReach with the adjacency between row skipRow and column
 // skipCol ignored (a lost link).
 func (a *Aug) AltReachSkip(start []int32, skipRow, skipCol int32) []int32 {
-	return a.altReach(start, skipRow, skipCol)
+	r, _ := a.altReach(start, skipRow, skipCol, 0)
+	return r
 }
 
-func (a *Aug) altReach(start []int32, skipRow, skipCol int32) []int32 {
+// AltReachLimit is AltReachSkip stopping once limit rows are reached
+// (nearest first, in breadth-first order); it reports whether it stopped
+// early.
+func (a *Aug) AltReachLimit(start []int32, skipRow, skipCol int32, limit int) ([]int32, bool) {
+	return a.altReach(start, skipRow, skipCol, limit)
+}
+
+func (a *Aug) altReach(start []int32, skipRow, skipCol int32, limit int) ([]int32, bool) {
 	st := a.next()
 	q := a.reached[:0]
 	for _, r := range start {
@@ -271,13 +279,17 @@ func (a *Aug) altReach(start []int32, skipRow, skipCol int32) []int32 {
 				continue
 			}
 			if x := a.ColMate[c]; x >= 0 && a.seen[x] != st {
+				if limit > 0 && len(q) >= limit {
+					a.reached = q
+					return q, true
+				}
 				a.seen[x] = st
 				q = append(q, x)
 			}
 		}
 	}
 	a.reached = q
-	return q
+	return q, false
 }
 
 // InReach reports whether row r was reached by the last AltReach.
