@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"slices"
 
+	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/failure/internal/bip"
 	"github.com/netsteer/netsteer/structural/placement"
@@ -453,12 +454,67 @@ func (as *Assessment) states(g *structural.Network, c *core, d structural.Design
 	seen := make([]int32, c.n)
 	stamp := int32(0)
 	var queue []int32
+	// Depth of each component of the row digraph in its condensation (the
+	// longest path from a source component): an arc between components
+	// always deepens, so only shallower rows can reach a row.
+	comp := c.rscc.Of
+	depth := make([]int32, c.rscc.Count)
+	byComp := make([]int32, c.n)
+	for v := range byComp {
+		byComp[v] = int32(v)
+	}
+	// Arcs go from higher component numbers to lower ones.
+	slices.SortFunc(byComp, func(a, b int32) int { return cmp.Compare(comp[b], comp[a]) })
+	for _, y := range byComp {
+		for _, z := range c.rd.Row(y) {
+			if comp[z] != comp[y] {
+				depth[comp[z]] = max(depth[comp[z]], depth[comp[y]]+1)
+			}
+		}
+	}
+	// The largest component settles every path through it at once: the
+	// rows that reach it and the rows it reaches, one search each way.
+	size := make([]int32, c.rscc.Count)
+	for _, y := range comp {
+		size[y]++
+	}
+	big := int32(0)
+	for y := range size {
+		if size[y] > size[big] {
+			big = int32(y)
+		}
+	}
+	flood := func(adj *matching.CSR) []bool {
+		mark := make([]bool, c.n)
+		q := make([]int32, 0, size[big])
+		for v := range comp {
+			if comp[v] == big {
+				mark[v] = true
+				q = append(q, int32(v))
+			}
+		}
+		for h := 0; h < len(q); h++ {
+			for _, z := range adj.Row(q[h]) {
+				if !mark[z] {
+					mark[z] = true
+					q = append(q, z)
+				}
+			}
+		}
+		return mark
+	}
+	fromBig, toBig := flood(c.rd), flood(matching.Transpose(c.rd))
 	// reaches reports whether row r reaches row x in the alternating row
-	// digraph; components are numbered so that arcs never go to a higher
-	// number, which prunes the search.
+	// digraph: at once through the largest component, else by a search
+	// that avoids it and keeps to rows shallower than x or in its
+	// component.
 	reaches := func(r, x int32) bool {
-		cx := c.rscc.Of[x]
-		if c.rscc.Of[r] < cx {
+		cx, dx := comp[x], depth[comp[x]]
+		if comp[r] == cx || toBig[r] && fromBig[x] {
+			return true
+		}
+		ok := func(y int32) bool { return comp[y] == cx || comp[y] != big && depth[comp[y]] < dx }
+		if !ok(r) {
 			return false
 		}
 		stamp++
@@ -466,11 +522,11 @@ func (as *Assessment) states(g *structural.Network, c *core, d structural.Design
 		queue = append(queue[:0], r)
 		for h := 0; h < len(queue); h++ {
 			y := queue[h]
-			if c.rscc.Of[y] == cx {
+			if comp[y] == cx {
 				return true // same component as x: x is reached
 			}
 			for _, z := range c.rd.Row(y) {
-				if seen[z] != stamp && c.rscc.Of[z] >= cx {
+				if seen[z] != stamp && ok(z) {
 					seen[z] = stamp
 					queue = append(queue, z)
 				}

@@ -257,6 +257,46 @@ func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural
 			}
 		}
 		markZ := a.Mark()
+		// One shared choice R first: a signal for each open component not
+		// yet settled. Every s outside cl(Z0 + R) (and not chosen) is
+		// useful by (B) at once: the components it touches need no
+		// choice, and dropping choices only shrinks the closure.
+		chosen := make([]bool, k)
+		for _, x := range open {
+			settled := false
+			for _, t := range touchers(x) {
+				if col := int32(n) + t; !a.Off[col] || !a.CanAugmentCol(col) {
+					settled = true
+					break
+				}
+			}
+			if !settled {
+				t := touchers(x)[0]
+				chosen[t] = true
+				a.Enable(int32(n) + t)
+				a.AugmentCol(int32(n) + t)
+			}
+		}
+		a.AltReach(a.FreeRows())
+		outside := make([]bool, k)
+		for i := 0; i < k; i++ {
+			outside[i] = !chosen[i] && touchesReach(c, a, i)
+		}
+		for s := 0; s < k; s++ {
+			if state[s] != 0 || loop[s] || inCl0[s] || !outside[s] {
+				continue
+			}
+			var partners []int32
+			if useful < detail {
+				w, m := a.Work, a.Mark()
+				partners = hyperplaneRest(a, n, k, s)
+				a.Undo(m)
+				a.Work = w
+			}
+			setUseful(s, partners)
+		}
+		a.Undo(markZ)
+		// The others, one search each.
 		for s := 0; s < k && !over(); s++ {
 			if state[s] != 0 || loop[s] {
 				continue
@@ -279,7 +319,9 @@ func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural
 			} else {
 				var partners []int32
 				if useful < detail {
+					w := a.Work // the witness is not part of the split's budget
 					partners = hyperplaneRest(a, n, k, s)
+					a.Work = w
 				}
 				setUseful(s, partners)
 			}
@@ -378,23 +420,39 @@ func searchB(a *bip.Aug, n, s int, blocks []int32, touchers func(int32) []int32,
 	}
 }
 
-// hyperplaneRest extends the signals switched on, keeping s outside their
-// closure, to a hyperplane H of M', and returns the signals outside H + s:
-// losing them with s breaks the design, losing them alone does not.
+// hyperplaneRest extends the signals switched on, X with s outside its
+// closure, to a hyperplane H of M' avoiding s, and returns the signals
+// outside H + s: losing them with s breaks the design, losing them alone
+// does not. It matches s, then every other signal that an augmenting path
+// reaches (each raises the rank by one, so s stays a coloop of the set
+// T on), and takes H as the closure of T - s: the signals touching no row
+// that an alternating path reaches from the row s leaves free. Cost: one
+// augmentation pass and one alternating search.
 func hyperplaneRest(a *bip.Aug, n, k, s int) []int32 {
 	sc := int32(n + s)
-	var rest []int32
+	a.Enable(sc)
+	a.AugmentCol(sc)
+	var off []int32
 	for t := 0; t < k; t++ {
-		col := int32(n + t)
-		if t == s || !a.Off[col] {
-			continue
+		if col := int32(n + t); t != s && a.Off[col] {
+			a.Enable(col)
+			off = append(off, int32(t))
 		}
-		m := a.Mark()
-		a.Enable(col)
-		a.AugmentCol(col)
-		if !a.CanAugmentCol(sc) {
-			a.Undo(m)
-			rest = append(rest, int32(t))
+	}
+	a.AugmentRows(a.FreeRows())
+	r := a.Disable(sc)
+	a.AltReach([]int32{r})
+	var rest []int32
+	for _, t := range off {
+		col := int32(n) + t
+		if a.ColMate[col] >= 0 {
+			continue // in T
+		}
+		for _, x := range a.Rows(col) {
+			if a.InReach(x) {
+				rest = append(rest, t)
+				break
+			}
 		}
 	}
 	return rest

@@ -302,3 +302,6 @@ func (a *Aug) Unmatch(r int32) {
 		a.setRow(r, -1)
 	}
 }
+
+// Rows returns the rows adjacent to column c.
+func (a *Aug) Rows(c int32) []int32 { return a.g.Cols.Row(c) }
