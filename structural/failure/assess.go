@@ -70,9 +70,9 @@ type Request struct {
 	// the cost.
 	States bool
 	// Detail is how many entries of each list get the costlier details: a
-	// dilation witness, the unreached states of a link, the partners of a
-	// useful device, the cheapest replacement or fix. 0 means 10; a
-	// negative value means all.
+	// dilation witness, the unreached states of a link or state, the
+	// partners of a useful device, the cheapest replacement or fix. 0 means
+	// 10; a negative value means all.
 	Detail int
 	// Budget bounds, in adjacency entries scanned, the search that splits
 	// the non-essential devices into useful and useless; devices left
@@ -134,8 +134,9 @@ type DeviceLoss struct {
 	// alone reaches (empty unless Reach is Essential).
 	Unreached structural.States `json:"unreached"`
 	// Dilation reports that the loss opens a dilation (Matching is
-	// Essential); Witness is one, given for the first Request.Detail
-	// essential devices.
+	// Essential); Witness is one. Witness and Replacement are given for the
+	// Request.Detail essential devices that leave the most states
+	// unreached (ties in design order).
 	Dilation bool                 `json:"opens_dilation"`
 	Witness  *structural.Dilation `json:"dilation,omitempty"`
 	// With, for a useful device (first Request.Detail of them), lists the
@@ -145,7 +146,7 @@ type DeviceLoss struct {
 	WithSignals []int `json:"-"`
 	// Replacement is the cheapest set of dedicated devices, on states
 	// other than those of the lost device, that makes the remaining design
-	// work again (first Request.Detail essential devices).
+	// work again.
 	Replacement *Fix `json:"replacement,omitempty"`
 }
 
@@ -183,6 +184,19 @@ func (l LinkLoss) MarshalJSON() ([]byte, error) {
 
 // StateLoss is what losing one state (held constant: its row and column
 // removed, and with it the signals' action on it) does to the others.
+// UnreachedCount states are no longer reached (those the state dominates,
+// listed in Unreached for the first Request.Detail entries); Dilation
+// reports that the remaining states cannot all be matched, Witness being
+// one dilation of the reduced system.
+//
+// Whether a dilation opens is decided per state: the loss keeps the term
+// rank exactly when the column of the state can be left free by a maximum
+// matching of the graph without its row, which holds at once when the
+// column is free or can be freed already, or the state is matched to
+// itself, and otherwise when the row matched to the column reaches the
+// state's own row in the alternating row digraph; that last question is one
+// search per state (pruned by the condensation's depth, and settled at
+// once for paths through its largest component), O(N E) in the worst case.
 type StateLoss struct {
 	State          int32                `json:"-"`
 	UnreachedCount int                  `json:"unreached_count"`
@@ -221,12 +235,15 @@ func (s StateLoss) MarshalJSON() ([]byte, error) {
 //     cannot be freed once its row is gone, a reachability question in the
 //     alternating row digraph answered by one search per state.
 //
-// Time: one matching of [A B] plus O((N + E) log N) for devices and links;
-// the useful/useless split adds local augmenting-path searches bounded by
-// req.Budget; the loss of states adds one pruned search per state whose
-// answer is not immediate, O(N E) in the worst case; the details cost one
-// alternating search (witness) or one placement.Complete (replacement,
-// fix) each.
+// Time: one structural.Check of the intact design, one matching of [A B]
+// and O((N + E) log N) for every device and link loss; the useful/useless
+// split adds augmenting-path searches bounded by req.Budget (one shared
+// pass for most devices, a search for each of the rest) and one
+// augmentation pass per listed partner set; the loss of states adds one
+// pruned search per state not settled at once (through its own component
+// or the largest one), O(N E) in the worst case and near-linear on the
+// benchmark networks; each witness, replacement and fix costs one
+// alternating search. Memory O(N + E).
 func Assess(g *structural.Network, req Request) (*Assessment, error) {
 	d := req.Design
 	if !d.Of(g) {

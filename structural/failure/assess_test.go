@@ -13,10 +13,20 @@ import (
 )
 
 // randomDesign draws k signals on n states: dedicated ones, or touching
-// one to three states.
+// one to three states, now and then one touching nothing or repeating a
+// state.
 func randomDesign(rng *rand.Rand, n, k int, pDedicated float64) [][]int32 {
 	sig := make([][]int32, k)
 	for i := range sig {
+		switch rng.IntN(40) {
+		case 0:
+			sig[i] = []int32{}
+			continue
+		case 1:
+			v := int32(rng.IntN(n))
+			sig[i] = []int32{v, v}
+			continue
+		}
 		if rng.Float64() < pDedicated {
 			sig[i] = []int32{int32(rng.IntN(n))}
 			continue
