@@ -158,8 +158,8 @@ type LinkLoss struct {
 	// UnreachedCount is the number of states no signal reaches without
 	// the edge (those whose every path from the signals uses it);
 	// Unreached lists them for the first Request.Detail links.
-	UnreachedCount int               `json:"unreached_count"`
-	Unreached      structural.States `json:"unreached,omitempty"`
+	UnreachedCount int                `json:"unreached_count"`
+	Unreached      *structural.States `json:"unreached,omitempty"`
 	// Dilation reports that the edge is in every maximum matching of
 	// [A B], so its loss opens a dilation; Witness is one (first
 	// Request.Detail links).
@@ -200,7 +200,7 @@ func (l LinkLoss) MarshalJSON() ([]byte, error) {
 type StateLoss struct {
 	State          int32                `json:"-"`
 	UnreachedCount int                  `json:"unreached_count"`
-	Unreached      structural.States    `json:"unreached,omitempty"`
+	Unreached      *structural.States   `json:"unreached,omitempty"`
 	Dilation       bool                 `json:"opens_dilation"`
 	Witness        *structural.Dilation `json:"dilation,omitempty"`
 
@@ -454,7 +454,8 @@ func (as *Assessment) links(g *structural.Network, p structural.Property, c *cor
 		if l.UnreachedCount > 0 {
 			s := c.subtreeStates(v)
 			slices.Sort(s)
-			l.Unreached = g.States(s)
+			st := g.States(s)
+			l.Unreached = &st
 		}
 		if l.Dilation {
 			mark := a.Mark()
@@ -582,7 +583,8 @@ func (as *Assessment) states(g *structural.Network, c *core, d structural.Design
 		if sl.UnreachedCount > 0 {
 			s := c.subtreeStates(x)[1:]
 			slices.Sort(s)
-			sl.Unreached = g.States(s)
+			st := g.States(s)
+			sl.Unreached = &st
 		}
 		if sl.Dilation {
 			mark := a.Mark()

@@ -92,7 +92,7 @@ type RobustPlacement struct {
 	// device.
 	// When even every allowed device fails with no failure at all,
 	// Unplaceable is that design's verdict.
-	BlockingDevices structural.States   `json:"blocking_devices,omitempty"`
+	BlockingDevices structural.States   `json:"blocking_devices"`
 	BlockingLinks   []LinkLoss          `json:"blocking_links,omitempty"`
 	Unplaceable     *structural.Verdict `json:"unplaceable,omitempty"`
 }
