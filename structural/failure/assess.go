@@ -71,9 +71,13 @@ type Request struct {
 	States bool
 	// Detail is how many entries of each list get the costlier details: a
 	// dilation witness, the unreached states of a link or state, the
-	// partners of a useful device, the cheapest replacement or fix. 0 means
-	// 10; a negative value means all.
+	// cheapest replacement or fix. 0 means 10; a negative value means all.
 	Detail int
+	// Partners is how many useful devices (in design order) get the list
+	// of devices whose joint loss with them breaks the design; each list
+	// costs about one augmentation pass over the network. 0 means 3; a
+	// negative value means all.
+	Partners int
 	// Budget bounds, in adjacency entries scanned, the search that splits
 	// the non-essential devices into useful and useless; devices left
 	// unsettled are Unresolved. 0 means 16 (N + E + signal entries) +
@@ -139,7 +143,7 @@ type DeviceLoss struct {
 	// unreached (ties in design order).
 	Dilation bool                 `json:"opens_dilation"`
 	Witness  *structural.Dilation `json:"dilation,omitempty"`
-	// With, for a useful device (first Request.Detail of them), lists the
+	// With, for a useful device (first Request.Partners of them), lists the
 	// signal numbers of other devices whose loss, together with this one,
 	// breaks the design, although their loss alone does not.
 	With        []int `json:"useful_with,omitempty"`
@@ -290,7 +294,14 @@ func Assess(g *structural.Network, req Request) (*Assessment, error) {
 		}
 		budget = 16*int64(g.N()+g.Edges()+entries) + 1<<16
 	}
-	as.devices(g, p, c, d, dev, detail, budget)
+	partners := req.Partners
+	if partners == 0 {
+		partners = 3
+	}
+	if partners < 0 {
+		partners = int(^uint(0) >> 1)
+	}
+	as.devices(g, p, c, d, dev, detail, partners, budget)
 	as.links(g, p, c, d, dev, detail)
 	if req.States {
 		as.states(g, c, d, detail)
@@ -299,7 +310,7 @@ func Assess(g *structural.Network, req Request) (*Assessment, error) {
 	return as, nil
 }
 
-func (as *Assessment) devices(g *structural.Network, p structural.Property, c *core, d structural.Design, dev structural.Devices, detail int, budget int64) {
+func (as *Assessment) devices(g *structural.Network, p structural.Property, c *core, d structural.Design, dev structural.Devices, detail, partners int, budget int64) {
 	k := c.k
 	as.Devices = make([]DeviceLoss, k)
 	for i := 0; i < k; i++ {
@@ -320,7 +331,7 @@ func (as *Assessment) devices(g *structural.Network, p structural.Property, c *c
 			dl.Class = Essential
 		}
 	}
-	classify(c, as.Devices, budget, detail, d)
+	classify(c, as.Devices, budget, partners, d)
 	// Details for the essential devices that cut off the most states.
 	var ess []int
 	for i := range as.Devices {

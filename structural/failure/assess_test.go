@@ -233,7 +233,7 @@ func TestAssessAgainstBruteForce(t *testing.T) {
 		if rng.IntN(2) == 0 {
 			dev = testnet.RandomDevices(rng, n, 5, 0.2, 0)
 		}
-		as, err := failure.Assess(g, failure.Request{Property: p, Design: d, Devices: dev, States: true, Detail: -1, Budget: -1})
+		as, err := failure.Assess(g, failure.Request{Property: p, Design: d, Devices: dev, States: true, Detail: -1, Partners: -1, Budget: -1})
 		if err != nil {
 			t.Fatalf("trial %d: %v", trial, err)
 		}

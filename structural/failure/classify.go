@@ -31,7 +31,7 @@ import (
 // by the closure of Z0, each step an augmenting-path search from one
 // column. Both are bounded by budget (adjacency entries scanned); devices
 // not settled within it are Unresolved.
-func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural.Design) {
+func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d structural.Design) {
 	n, k := c.n, c.k
 	comps := c.h.Components()
 	// Source components touched by each signal, and the signals touching
@@ -146,7 +146,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural
 	setUseful := func(s int, partners []int32) {
 		state[s] = 1
 		devs[s].Class = Useful
-		if useful < detail && partners != nil {
+		if useful < maxPartners && partners != nil {
 			for _, t := range partners {
 				if int(t) != s {
 					devs[s].WithSignals = append(devs[s].WithSignals, int(t))
@@ -287,7 +287,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural
 				continue
 			}
 			var partners []int32
-			if useful < detail {
+			if useful < maxPartners {
 				w, m := a.Work, a.Mark()
 				partners = hyperplaneRest(a, n, k, s)
 				a.Undo(m)
@@ -318,7 +318,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, detail int, d structural
 				settleUseless(s)
 			} else {
 				var partners []int32
-				if useful < detail {
+				if useful < maxPartners {
 					w := a.Work // the witness is not part of the split's budget
 					partners = hyperplaneRest(a, n, k, s)
 					a.Work = w

@@ -78,7 +78,7 @@ func TestAssessGnutella(t *testing.T) {
 			sig = append(sig, []int32{int32(rng.IntN(g.N()))})
 		}
 		d, _ := structural.NewDesign(g, sig, nil)
-		as, err := failure.Assess(g, failure.Request{Property: p, Design: d, Detail: 20})
+		as, err := failure.Assess(g, failure.Request{Property: p, Design: d, Detail: 20, Partners: 20})
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -410,7 +410,7 @@ func lowerBound(g, h *structural.Network, p structural.Property, t Threat, dev s
 	if cmin > 0 {
 		lb += cmin
 	}
-	return max(lb, sourceBound(h, dev, nil, maxMult)), nil
+	return max(lb, sourceBound(h, dev, nil, maxMult)+leafBound(h, dev, nil, maxMult)), nil
 }
 
 // sourceBound is the least cost of two device units in every source
@@ -472,6 +472,106 @@ func sourceBound(h *structural.Network, dev structural.Devices, decided []int8, 
 		if need == 2 {
 			total += o.c2
 		}
+	}
+	return total
+}
+
+// leafBound is a lower bound, for the device threat, on the cost of the
+// units on the leaves of each state u: the states whose only in-neighbour
+// is u (no self-loop). They compete for u, so at most one of them can be
+// without a device; after the loss of any one unit that must still hold,
+// so either every leaf has a device, or one has none and all the others
+// have two. Leaf sets are disjoint; those meeting a source component are
+// left out, so that the bound adds to sourceBound. decided as there.
+func leafBound(h *structural.Network, dev structural.Devices, decided []int8, maxMult uint8) structural.Cost {
+	in := h.In()
+	comps := h.Components()
+	n := h.N()
+	parent := make([]int32, n) // the one in-neighbour, or -1
+	count := make([]int32, n)
+	skip := make([]bool, n)
+	for v := 0; v < n; v++ {
+		parent[v] = -1
+		row := in.Row(int32(v))
+		if len(row) == 1 && row[0] != int32(v) {
+			parent[v] = row[0]
+			count[row[0]]++
+			if comps.Source[comps.Of[v]] {
+				skip[row[0]] = true
+			}
+		}
+	}
+	// Per leaf set: the cost of one unit on every leaf (option 1), and of
+	// two units on every leaf but one left bare (option 2), minimised over
+	// the bare one.
+	const inf = structural.Cost(1) << 60
+	type acc struct {
+		all1, all2 structural.Cost // sums over the leaves (finite parts)
+		bad1, bad2 int             // leaves that cannot take 1, 2 units
+		bare2      structural.Cost // best c0(w) - c2(w) among finite c2(w)
+		bareBad    structural.Cost // c0 of the leaf that cannot take 2
+		hasBare    bool
+	}
+	sets := map[int32]*acc{}
+	for v := int32(0); int(v) < n; v++ {
+		u := parent[v]
+		if u < 0 || count[u] < 2 || skip[u] {
+			continue
+		}
+		a := sets[u]
+		if a == nil {
+			a = &acc{bareBad: inf}
+			sets[u] = a
+		}
+		c, ex := dev.CostOf(v), dev.Has(v)
+		// cost of k units on v beyond what is paid or fixed already.
+		costK := func(k uint8) structural.Cost {
+			if decided != nil && decided[v] >= 0 {
+				if uint8(decided[v]) == k {
+					return 0
+				}
+				return inf
+			}
+			switch {
+			case k > maxMult || k > 0 && !dev.Allowed(v) || k == 0 && ex:
+				return inf
+			case ex:
+				return structural.Cost(k-1) * c
+			}
+			return structural.Cost(k) * c
+		}
+		c0, c1, c2 := costK(0), costK(1), costK(2)
+		if c1 == inf {
+			a.bad1++
+		} else {
+			a.all1 += c1
+		}
+		if c2 == inf {
+			a.bad2++
+			a.bareBad = c0
+		} else {
+			a.all2 += c2
+			if c0 < inf && (!a.hasBare || c0-c2 < a.bare2) {
+				a.bare2, a.hasBare = c0-c2, true
+			}
+		}
+	}
+	var total structural.Cost
+	for _, a := range sets {
+		best := inf
+		if a.bad1 == 0 {
+			best = a.all1
+		}
+		switch {
+		case a.bad2 == 0 && a.hasBare:
+			best = min(best, a.all2+a.bare2)
+		case a.bad2 == 1 && a.bareBad < inf:
+			best = min(best, a.all2+a.bareBad)
+		}
+		if best >= inf {
+			return total // infeasible here: the survival test cuts the branch
+		}
+		total += best
 	}
 	return total
 }
@@ -718,7 +818,7 @@ func exact(g, h *structural.Network, p structural.Property, t Threat, dev struct
 			if cmin > 0 {
 				bound += cmin
 			}
-			bound = max(bound, sourceBound(h, dev, decided, maxMult))
+			bound = max(bound, sourceBound(h, dev, decided, maxMult)+leafBound(h, dev, decided, maxMult))
 		}
 		lbNode := spent + bound
 		if lbNode >= bestCost {

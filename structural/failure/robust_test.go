@@ -223,3 +223,25 @@ func TestRobustAgainstBruteForce(t *testing.T) {
 	}
 	t.Logf("%d feasible, %d two-step answers with a gap", feasible, gaps)
 }
+
+// A hub acting on four leaves that act on nothing (common practice: the
+// leaves compete for the hub, so all but one need an actuator, and the
+// hub, acted on by nothing, needs its own). Surviving the loss of any one
+// actuator takes a spare on the hub and an actuator on every leaf: six.
+// The two-step method finds it, and its lower bound (two units in the
+// hub's source component, one on each leaf) proves it without search.
+func TestRobustStar(t *testing.T) {
+	var es []testnet.Edge
+	for v := int32(1); v <= 4; v++ {
+		es = append(es, testnet.Edge{0, v})
+	}
+	g := testnet.Network(t, 5, es)
+	rp, err := failure.Robust(g, failure.RobustRequest{Survive: failure.AnyDevice, Spares: true, ExactStates: -1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	opt, _ := bruteRobust(testnet.MasksOf(g), g, structural.Controllability, failure.AnyDevice, structural.Devices{}, 2, nil)
+	if rp.Cost != 6*structural.Unit || opt != rp.Cost || rp.LowerBound != rp.Cost || !rp.Optimal || rp.Spares.Len() != 1 {
+		t.Fatalf("star: %s cost %v bound %v optimal %v spares %v; brute force %v", rp.Method, rp.Cost, rp.LowerBound, rp.Optimal, rp.Spares.IDs(), opt)
+	}
+}
