@@ -121,25 +121,33 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 	}
 
 	// Matching class: loops of M' are the signals inside the closure of
-	// the state columns alone.
-	a := bip.NewAug(c.bg, c.m)
-	mark0 := a.Mark()
-	var freed []int32
-	for i := 0; i < k; i++ {
-		if r := a.Disable(int32(n + i)); r >= 0 {
-			freed = append(freed, r)
-		}
+	// the state columns alone, read from a maximum matching of A (the
+	// network's own, computed once and kept): b works from it with every
+	// signal off, a from the matching of [A B].
+	hm := c.h.Matching()
+	rowMate := make([]int32, n)
+	colMate := make([]int32, n+k)
+	off := make([]bool, n+k)
+	for v := 0; v < n; v++ {
+		rowMate[v] = hm.ColMate[v] // row v is matched to the state acting on it
+		colMate[v] = hm.RowMate[v]
 	}
-	a.AugmentRows(freed)
-	a.AltReach(a.FreeRows())
+	for i := 0; i < k; i++ {
+		colMate[n+i] = -1
+		off[n+i] = true
+	}
+	b := bip.NewAugOff(c.bg, rowMate, colMate, off)
+	markB := b.Mark()
+	b.AltReach(b.FreeRows())
 	loop := make([]bool, k)
 	for i := 0; i < k; i++ {
-		loop[i] = !touchesReach(c, a, i)
+		loop[i] = !touchesReach(c, b, i)
 		if devs[i].Matching != Essential && !loop[i] {
 			devs[i].Matching = Useful
 		}
 	}
-	a.Undo(mark0)
+	a := bip.NewAug(c.bg, c.m)
+	work := func() int64 { return a.Work + b.Work }
 
 	state := make([]uint8, k) // 0 pending, 1 useful, 2 settled useless, 3 unresolved
 	useful := 0
@@ -164,7 +172,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 			devs[i].Class = Useless
 		}
 	}
-	over := func() bool { return budget >= 0 && a.Work > budget }
+	over := func() bool { return budget >= 0 && work() > budget }
 
 	// (A): one re-augmentation per component, without its touchers.
 	aDone := true
@@ -187,7 +195,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 			continue
 		}
 		m := a.Mark()
-		freed = freed[:0]
+		var freed []int32
 		for _, t := range touchers(x) {
 			if r := a.Disable(int32(n) + t); r >= 0 {
 				freed = append(freed, r)
@@ -224,19 +232,16 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 		}
 	}
 	if needB && aDone && !over() {
-		freed = freed[:0]
 		for i := 0; i < k; i++ {
-			if devs[i].Reach != Essential {
-				if r := a.Disable(int32(n + i)); r >= 0 {
-					freed = append(freed, r)
-				}
+			if devs[i].Reach == Essential {
+				b.Enable(int32(n + i))
 			}
 		}
-		a.AugmentRows(freed)
-		a.AltReach(a.FreeRows())
+		b.AugmentRows(b.FreeRows())
+		b.AltReach(b.FreeRows())
 		inCl0 := make([]bool, k)
 		for i := 0; i < k; i++ {
-			inCl0[i] = devs[i].Reach == Essential || !touchesReach(c, a, i)
+			inCl0[i] = devs[i].Reach == Essential || !touchesReach(c, b, i)
 		}
 		// Components no signal of cl(Z0) touches.
 		var open []int32
@@ -256,7 +261,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 				open = append(open, x)
 			}
 		}
-		markZ := a.Mark()
+		markZ := b.Mark()
 		// One shared choice R first: a signal for each open component not
 		// yet settled. Every s outside cl(Z0 + R) (and not chosen) is
 		// useful by (B) at once: the components it touches need no
@@ -265,7 +270,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 		for _, x := range open {
 			settled := false
 			for _, t := range touchers(x) {
-				if col := int32(n) + t; !a.Off[col] || !a.CanAugmentCol(col) {
+				if col := int32(n) + t; !b.Off[col] || !b.CanAugmentCol(col) {
 					settled = true
 					break
 				}
@@ -273,14 +278,14 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 			if !settled {
 				t := touchers(x)[0]
 				chosen[t] = true
-				a.Enable(int32(n) + t)
-				a.AugmentCol(int32(n) + t)
+				b.Enable(int32(n) + t)
+				b.AugmentCol(int32(n) + t)
 			}
 		}
-		a.AltReach(a.FreeRows())
+		b.AltReach(b.FreeRows())
 		outside := make([]bool, k)
 		for i := 0; i < k; i++ {
-			outside[i] = !chosen[i] && touchesReach(c, a, i)
+			outside[i] = !chosen[i] && touchesReach(c, b, i)
 		}
 		for s := 0; s < k; s++ {
 			if state[s] != 0 || loop[s] || inCl0[s] || !outside[s] {
@@ -288,14 +293,14 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 			}
 			var partners []int32
 			if useful < maxPartners {
-				w, m := a.Work, a.Mark()
-				partners = hyperplaneRest(a, n, k, s)
-				a.Undo(m)
-				a.Work = w
+				w, m := b.Work, b.Mark()
+				partners = hyperplaneRest(b, n, k, s)
+				b.Undo(m)
+				b.Work = w
 			}
 			setUseful(s, partners)
 		}
-		a.Undo(markZ)
+		b.Undo(markZ)
 		// The others, one search each.
 		for s := 0; s < k && !over(); s++ {
 			if state[s] != 0 || loop[s] {
@@ -311,7 +316,7 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 					blocks = append(blocks, x)
 				}
 			}
-			ok, done := searchB(a, n, s, blocks, touchers, over)
+			ok, done := searchB(b, n, s, blocks, touchers, over)
 			if !done {
 				state[s] = 3
 			} else if !ok {
@@ -319,15 +324,15 @@ func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d struc
 			} else {
 				var partners []int32
 				if useful < maxPartners {
-					w := a.Work // the witness is not part of the split's budget
-					partners = hyperplaneRest(a, n, k, s)
-					a.Work = w
+					w := b.Work // the witness is not part of the split's budget
+					partners = hyperplaneRest(b, n, k, s)
+					b.Work = w
 				}
 				setUseful(s, partners)
 			}
-			a.Undo(markZ)
+			b.Undo(markZ)
 		}
-		a.Undo(mark0)
+		b.Undo(markB)
 	}
 	for i := 0; i < k; i++ {
 		if state[i] == 0 || state[i] == 3 {

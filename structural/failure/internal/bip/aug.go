@@ -305,3 +305,10 @@ func (a *Aug) Unmatch(r int32) {
 
 // Rows returns the rows adjacent to column c.
 func (a *Aug) Rows(c int32) []int32 { return a.g.Cols.Row(c) }
+
+// NewAugOff starts from the matching rowMate/colMate (copied) with the
+// columns marked in off switched off; they must be unmatched.
+func NewAugOff(g *Graph, rowMate, colMate []int32, off []bool) *Aug {
+	return &Aug{g: g, RowMate: append([]int32(nil), rowMate...), ColMate: append([]int32(nil), colMate...),
+		Off: append([]bool(nil), off...), seen: make([]int32, g.N), dead: make([]int32, g.N), from: make([]int32, g.N)}
+}
