@@ -25,6 +25,8 @@ type core struct {
 	tree     *dom.Tree
 	reached  int // states the signals reach
 	src      *sources
+	mark     []int32 // search stamps, see reachersWithout
+	stamp    int32
 }
 
 func newCore(h *structural.Network, sig [][]int32) *core {

@@ -181,7 +181,8 @@ func survives(h *structural.Network, u units, t Threat) bool {
 // cheapest remaining device for the device threat (removing any new device
 // of a surviving design leaves a controllable one), or the cost of two
 // device units in every source component (one of them alone is a single
-// point of failure), whichever is larger. For the link threat every state
+// point of failure) plus the leaf bound below, whichever is larger. For the
+// link threat every state
 // with at most one incoming edge from another state must have a device
 // (its one edge lost, nothing else reaches it), so those are fixed first. A search that completes proves
 // optimality; one cut short by req.Nodes reports the least bound among the
@@ -607,7 +608,7 @@ func twoStep(g, h *structural.Network, p structural.Property, t Threat, dev stru
 	var inst cover.Instance
 	// Each requirement keeps at most setCap candidate states, the nearest
 	// first, from a search of at most searchCap states.
-	const setCap, searchCap = 256, 4096
+	const setCap, searchCap = 256, 512
 	addSet := func(states []int32, cut bool) int {
 		var s []int32
 		for _, v := range states {
@@ -699,18 +700,23 @@ func twoStep(g, h *structural.Network, p structural.Property, t Threat, dev stru
 // limit); it reports whether it stopped early.
 func (c *core) reachersWithout(u, v int32, limit int) ([]int32, bool) {
 	in := c.h.In()
-	seen := map[int32]bool{v: true}
+	if c.mark == nil {
+		c.mark = make([]int32, c.n)
+	}
+	c.stamp++
+	st := c.stamp
+	c.mark[v] = st
 	q := []int32{v}
 	for k := 0; k < len(q); k++ {
 		y := q[k]
 		for _, w := range in.Row(y) {
-			if y == v && w == u || seen[w] {
+			if y == v && w == u || c.mark[w] == st {
 				continue
 			}
 			if limit > 0 && len(q) >= limit {
 				return q, true
 			}
-			seen[w] = true
+			c.mark[w] = st
 			q = append(q, w)
 		}
 	}
