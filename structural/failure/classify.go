@@ -33,48 +33,16 @@ import (
 // not settled within it are Unresolved.
 func classify(c *core, devs []DeviceLoss, budget int64, maxPartners int, d structural.Design) {
 	n, k := c.n, c.k
-	comps := c.h.Components()
-	// Source components touched by each signal, and the signals touching
-	// each source component, as compressed rows.
+	src := c.sources()
+	comps := src.comps
+	sccsOf, touchers, touch := src.sccsOf, src.touchers, src.touch
 	stamp := make([]int32, comps.Count)
-	sigPtr := make([]int32, k+1)
-	var sigAdj []int32
-	for i := 0; i < k; i++ {
-		for _, v := range c.sig[i] {
-			x := comps.Of[v]
-			if comps.Source[x] && stamp[x] != int32(i+1) {
-				stamp[x] = int32(i + 1)
-				sigAdj = append(sigAdj, x)
-			}
-		}
-		sigPtr[i+1] = int32(len(sigAdj))
-	}
-	sccsOf := func(i int) []int32 { return sigAdj[sigPtr[i]:sigPtr[i+1]] }
-	touch := make([]int32, comps.Count+1)
-	for _, x := range sigAdj {
-		touch[x+1]++
-	}
-	for x := 0; x < comps.Count; x++ {
-		touch[x+1] += touch[x]
-	}
-	compAdj := make([]int32, len(sigAdj))
-	fill := append([]int32(nil), touch[:comps.Count]...)
-	for i := 0; i < k; i++ {
-		for _, x := range sccsOf(i) {
-			compAdj[fill[x]] = int32(i)
-			fill[x]++
-		}
-	}
-	touchers := func(x int32) []int32 { return compAdj[touch[x]:touch[x+1]] }
 
 	// Reach class. For a source component C touched twice or more, lost
 	// lists the components left untouched when every signal touching C is
 	// lost; s qualifies through C when it touches all of them.
 	viaA := map[int32][]int32{} // component -> devices qualifying for (A) through it
 	cnt := make([]int32, comps.Count)
-	for x := range stamp {
-		stamp[x] = 0
-	}
 	mark := make([]int32, comps.Count)
 	st, st2 := int32(0), int32(0)
 	var lost []int32

@@ -172,39 +172,46 @@ func survives(h *structural.Network, u units, t Threat) bool {
 //
 // The problem is NP-hard (Liu, Mo, Pequito, Sinopoli, Kar & Aguiar,
 // "Minimum sensor placement for robust observability of structured complex
-// networks", IEEE TCNS 4(4), 2017). Networks of up to req.ExactStates
-// states are solved by branch and bound over each state's number of
-// devices: a branch is cut when even every remaining device cannot
+// networks", IEEE TCNS, 2017; arXiv:1507.07205). Networks of up to
+// req.ExactStates states are solved by branch and bound over each state's
+// number of devices: a branch is cut when even every remaining device cannot
 // survive (survival only improves with more devices), or when its cost
 // plus a lower bound reaches the best known; the bound is the cheapest
 // plain placement of the remaining states (placement.Place), plus the
 // cheapest remaining device for the device threat (removing any new device
 // of a surviving design leaves a controllable one), or the cost of two
 // device units in every source component (one of them alone is a single
-// point of failure) plus the leaf bound below, whichever is larger. For the
-// link threat every state
-// with at most one incoming edge from another state must have a device
-// (its one edge lost, nothing else reaches it), so those are fixed first. A search that completes proves
-// optimality; one cut short by req.Nodes reports the least bound among the
-// branches left open.
+// point of failure) plus the leaf bound (the states whose only
+// in-neighbour is one same state compete for it, so after any single loss
+// at most one of them may lack a device), whichever is larger. For the
+// link threat every state with at most one incoming edge from another
+// state must have a device (its one edge lost, nothing else reaches it),
+// so those are fixed first.
+// A search that completes proves optimality; one cut short by req.Nodes
+// reports the least bound among the branches left open.
 //
 // Beyond that size, or as the search's first incumbent, the two-step
 // method of Liu et al.: a cheapest plain placement (placement.Place, step
 // 1; for the link threat, the cheapest one containing the states that
-// must have a device); then every failure it does not survive, as found by Assess, is a
-// requirement that the additions hit a set of states (the source component
-// cut off, by the component of v that still reaches v for a lost edge
-// u -> v; and the states reached by alternating paths from the row left
-// unmatched, for a dilation), so the fewest-cost additions are a weighted
-// set cover (step 2), solved greedily within H(d) of its optimum and
-// exactly by branch and bound when small. The lower bound reported is the
-// larger of the cheapest plain placement (plus the cheapest new device for
-// the device threat) and the two-units-per-source-component bound; for the
-// link threat, the forced states plus the cheapest placement around them.
+// must have a device); then every failure it does not survive, found as
+// Assess finds them, is a requirement that the additions hit a set of
+// states (the source component cut off; for a lost edge u -> v, the states
+// that still reach v; and, for a dilation, the states reached by
+// alternating paths from the row left unmatched), so the fewest-cost
+// additions are a weighted set cover (step 2), solved greedily within H(d)
+// of its optimum and exactly by branch and bound when small. Each
+// requirement keeps at most 256 candidate states, the nearest first
+// (TwoStep.Restricted says when some were cut; the cover bounds then hold
+// for the cut instance). When no addition can cover some requirement, the
+// design with every allowed device is pruned instead, most expensive
+// first. The lower bound reported is, for the device threat, the larger of
+// the cheapest plain placement plus the cheapest new device, and two units
+// in every source component plus the leaf bound; for the link threat, the
+// forced states plus the cheapest placement around them.
 //
-// Time: one placement and one assessment, plus the cover (O(I log C) for I
-// candidate entries); the exact search costs a placement and two core
-// analyses per node.
+// Time: two placements and two core analyses, plus the cover (O(I log C)
+// for I candidate entries); the exact search costs a placement and up to
+// two core analyses per node.
 func Robust(g *structural.Network, req RobustRequest) (*RobustPlacement, error) {
 	dev := req.Devices
 	if err := dev.Check(g); err != nil {
