@@ -10,6 +10,7 @@ import (
 	"github.com/netsteer/netsteer/io/textout"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
+	"github.com/netsteer/netsteer/structural/failure"
 	"github.com/netsteer/netsteer/structural/numeric"
 )
 
@@ -37,6 +38,17 @@ a search with bounds on small networks (always up to 18 allowed states,
 by default up to 64 states) and otherwise is a fast placement with a lower
 bound and the gap between them.
 
+--survive device (link) places the cheapest devices that keep the network
+structurally %[3]s after the loss of any one of them (of any one
+edge), honouring existing devices and costs; --spares allows a second
+device on a state (the only protection for a state nothing acts on). This
+is NP-hard (Liu, Mo, Pequito, Sinopoli, Kar & Aguiar, IEEE TCNS 2017): exact
+by branch and bound up to --exact-states states (default 40), beyond by the
+two-step method of that paper (a cheapest placement, then the fewest
+additions as a weighted set cover), always with a proven lower bound and
+the gap. To judge a given design under failures, see "netsteer help
+failures".
+
 --targets FILE places for the listed states only: the cheapest dedicated
 %[2]s that make them steerable, with a lower bound and the saving against
 full control (see "netsteer help drivers").
@@ -48,6 +60,7 @@ Example:
   netsteer %[1]s testdata/plant/heating.edges
   netsteer %[1]s --node-table testdata/plant/heating-nodes.csv --roles testdata/plant/heating.edges
   netsteer %[1]s --rank-effort --seed 3 testdata/plant/heating.edges
+  netsteer %[1]s --survive device --spares testdata/plant/heating.edges
 `
 
 func placeCommand(name string, p structural.Property, devices, adjective, column string) *command {
@@ -65,10 +78,12 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 			timings := fs.Bool("timings", false, "print stage times on standard error")
 			var sf strongFlags
 			sf.register(fs, "place for strong structural "+map[bool]string{true: "observability", false: "controllability"}[p == structural.Observability]+": for every value of the couplings")
-			exact := fs.Int("exact-states", 0, "with --strong, search exactly on networks of at most this many states (default 64, at most 512)")
-			nodes := fs.Int64("search-nodes", 0, "with --strong, node budget of the exact search (default 200000)")
+			exact := fs.Int("exact-states", 0, "with --strong or --survive, search exactly on networks of at most this many states (defaults 64 and 40)")
+			nodes := fs.Int64("search-nodes", 0, "with --strong or --survive, node budget of the exact search (defaults 200000 and 20000)")
 			var tf targetsFlag
 			tf.register(fs)
+			survive := fs.String("survive", "", "place devices that keep the property after the loss of any one device, or of any one link: device or link")
+			spares := fs.Bool("spares", false, "with --survive, allow a second device on a state that already has one")
 			rank := fs.Bool("rank-effort", false, "rank the equally cheap placements --roles lists by control effort on numbers (implies --roles)")
 			weights := fs.Bool("weights", false, "with --rank-effort, use the model's own numbers (edge weights) instead of samples")
 			trials := fs.Int("trials", numeric.DefaultTrials, "with --rank-effort, random samples averaged")
@@ -89,6 +104,21 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 				if err := sf.check(); err != nil {
 					return err
 				}
+				var threat *failure.Threat
+				switch *survive {
+				case "":
+				case "device", "link":
+					th := failure.AnyDevice
+					if *survive == "link" {
+						th = failure.AnyLink
+					}
+					threat = &th
+				default:
+					return usagef("--survive %q: want device or link", *survive)
+				}
+				if *spares && threat == nil {
+					return usagef("--spares goes with --survive")
+				}
 				start := time.Now()
 				in, err := nf.load(path, of.output, *weights, sf.mayBeZero, tf.file)
 				if err != nil {
@@ -98,7 +128,7 @@ func placeCommand(name string, p structural.Property, devices, adjective, column
 				if err != nil {
 					return err
 				}
-				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts, ExactStates: *exact, SearchNodes: *nodes, Targets: targets, Seed: *seed}
+				req := analysis.PlaceRequest{Property: p, Devices: in.devices(p), Roles: *roles, Alternatives: *alts, ExactStates: *exact, SearchNodes: *nodes, Targets: targets, Seed: *seed, Survive: threat, Spares: *spares}
 				if req.Strong, err = sf.class(in); err != nil {
 					return err
 				}

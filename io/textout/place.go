@@ -40,6 +40,11 @@ func (p Place) Text(w io.Writer, o Options) error {
 	pw := placeDuals[r.Property]
 	dev, devs := r.Device, r.Device+"s"
 	nd := pl.Devices.Len()
+	if r.Robust != nil {
+		t.robustPlacement(r.File, dev, r.Property, r.Robust)
+		t.blank()
+		t.p("  ", "Without the loss of a device or link:")
+	}
 	if r.Targets != nil {
 		t.selection(r.File, dev, r.Targets, false)
 		t.blank()

@@ -4,6 +4,7 @@ import (
 	"time"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/failure"
 	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/placement"
 	"github.com/netsteer/netsteer/structural/strong"
@@ -274,6 +275,12 @@ type PlaceRequest struct {
 	Targets []int32
 	// Seed makes the samples of a target search reproducible.
 	Seed uint64
+	// Survive, when not nil, also places the cheapest devices that keep
+	// the property after the loss of any one device or any one link
+	// (failure.Robust); Spares allows a second device on a state.
+	// ExactStates and SearchNodes tune its exact search too.
+	Survive *failure.Threat
+	Spares  bool
 }
 
 // PlaceResult is the answer to "where do the cheapest devices go?".
@@ -299,12 +306,18 @@ type PlaceResult struct {
 	// Targets, with PlaceRequest.Targets: the cheapest devices for the
 	// targets alone, with bounds and the saving against full control.
 	Targets *target.Selection `json:"targets,omitempty"`
-	Timings Timings           `json:"timings"`
+	// Robust, with PlaceRequest.Survive: the placement that survives one
+	// failure, with its lower bound and gap.
+	Robust  *failure.RobustPlacement `json:"robust,omitempty"`
+	Timings Timings                  `json:"timings"`
 }
 
 // Succeeds reports whether the placement asked is feasible: the strong one
 // when it was asked.
 func (r *PlaceResult) Succeeds() bool {
+	if r.Robust != nil {
+		return r.Robust.Feasible
+	}
 	if r.Targets != nil {
 		return r.Targets.Feasible
 	}
@@ -367,6 +380,16 @@ func Place(g *structural.Network, req PlaceRequest) (*PlaceResult, error) {
 		}
 		r.Targets = sel
 		r.Timings.Add("targets", t)
+	}
+	if req.Survive != nil {
+		t0 := time.Now()
+		rp, err := failure.Robust(g, failure.RobustRequest{Property: req.Property, Survive: *req.Survive, Devices: req.Devices,
+			Spares: req.Spares, ExactStates: req.ExactStates, Nodes: int(req.SearchNodes)})
+		if err != nil {
+			return nil, err
+		}
+		r.Robust = rp
+		r.Timings.Add("robust", t0)
 	}
 	return r, nil
 }

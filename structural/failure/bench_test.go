@@ -8,26 +8,19 @@ import (
 
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/failure"
-	"github.com/netsteer/netsteer/structural/gen/netgen"
+	"github.com/netsteer/netsteer/structural/gen"
 	"github.com/netsteer/netsteer/structural/placement"
 )
 
-// benchNet builds a fixed-seed network from netgen: directed Erdős–Rényi
-// or static-model scale-free (gamma 2.5), mean total degree 10, so n
-// states carry 5n edges.
+// benchNet builds a fixed-seed network with the users' generators:
+// directed Erdős–Rényi or static-model scale-free (gamma 2.5), mean total
+// degree 10, so n states carry 5n edges.
 func benchNet(b testing.TB, model string, n int) *structural.Network {
-	var e *netgen.Edges
+	p := gen.Params{Model: "er", Nodes: n, MeanDegree: 10}
 	if model == "sf" {
-		e = netgen.ScaleFree(n, 10, 2.5, 1)
-	} else {
-		e = netgen.ER(n, 10, 1)
+		p = gen.Params{Model: "scale-free", Nodes: n, MeanDegree: 10, GammaOut: 2.5, GammaIn: 2.5}
 	}
-	bl := structural.NewIntBuilder(e.N, 0)
-	bl.Grow(len(e.Src))
-	for i := range e.Src {
-		bl.AddEdge(e.Src[i], e.Dst[i])
-	}
-	g, err := bl.Build(structural.BuildOptions{})
+	g, err := p.Network(gen.NewRand(1))
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -163,12 +156,7 @@ func BenchmarkRobustTwoStep(b *testing.B) {
 // smallNet is a fixed-seed directed Erdős–Rényi network G(n, m) with
 // m = 2n (mean total degree 4), the size the exact search is for.
 func smallNet(b testing.TB, n int, seed uint64) *structural.Network {
-	e := netgen.ER(n, 4, seed)
-	bl := structural.NewIntBuilder(e.N, 0)
-	for i := range e.Src {
-		bl.AddEdge(e.Src[i], e.Dst[i])
-	}
-	g, err := bl.Build(structural.BuildOptions{})
+	g, err := gen.Params{Model: "er", Nodes: n, MeanDegree: 4}.Network(gen.NewRand(seed))
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -2,13 +2,12 @@ package failure_test
 
 import (
 	"math/rand/v2"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"github.com/netsteer/netsteer/io/netread"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/failure"
+	"github.com/netsteer/netsteer/structural/internal/testnet"
 	"github.com/netsteer/netsteer/structural/placement"
 )
 
@@ -54,14 +53,12 @@ func TestAssessGnutella(t *testing.T) {
 	if testing.Short() {
 		t.Skip("dataset test")
 	}
-	path := filepath.Join("..", "..", "..", "shared", "datasets", "p2p-gnutella04.edges.gz")
-	if _, err := os.Stat(path); err != nil {
-		t.Skip("shared dataset absent:", path)
-	}
-	g, err := netread.ReadFile(path, netread.Options{})
+	path := testnet.Dataset(t, "p2p-gnutella04.edges.gz")
+	in, err := netread.ReadFile(path, netread.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
+	g := in.Network
 	rng := rand.New(rand.NewPCG(4, 8))
 	for _, p := range []structural.Property{structural.Controllability, structural.Observability} {
 		pl, err := placement.Place(g, p, structural.Devices{})
