@@ -12,6 +12,7 @@ import (
 	"github.com/netsteer/netsteer/io/render"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // What render and report share: the flags that choose what is analysed
@@ -143,8 +144,8 @@ type loaded struct {
 // loadAll reads the network, the node table and the designs once each
 // (their SHA-256 taken from the bytes as they were read, standard input
 // and FIFOs too).
-func loadAll(e *env, nf *netFlags, pf *pictureFlags, path, out string) (*loaded, error) {
-	in, err := nf.load(path, out, false, pf.inputs, pf.outputs)
+func loadAll(e *env, nf *netFlags, pf *pictureFlags, path, out string, extra ...string) (*loaded, error) {
+	in, err := nf.load(path, out, false, append([]string{pf.inputs, pf.outputs}, extra...)...)
 	if err != nil {
 		return nil, err
 	}
@@ -171,8 +172,8 @@ func displayName(path string) string {
 }
 
 // review runs the analysis render and report draw.
-func (l *loaded) review(e *env, sh showSet, roles, complete bool, alternatives int) (*analysis.Review, error) {
-	req := analysis.ReviewRequest{
+func (l *loaded) review(e *env, sh showSet, roles, complete bool, alternatives int, class *strong.Class) (*analysis.Review, error) {
+	req := analysis.ReviewRequest{Strong: class,
 		Inputs: l.inputs, Outputs: l.outputs,
 		PlaceActuators: sh.actuators && l.inputs == nil, PlaceSensors: sh.sensors && l.outputs == nil,
 		Actuators: l.devices(structural.Controllability), Sensors: l.devices(structural.Observability),

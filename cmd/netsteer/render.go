@@ -118,7 +118,7 @@ Example:
 					return describeView(err)
 				}
 			}
-			rv, err := l.review(e, sh, pf.roles, true, 0)
+			rv, err := l.review(e, sh, pf.roles, true, 0, nil)
 			if err != nil {
 				return err
 			}

@@ -70,6 +70,8 @@ Example:
 		pdf := fs.String("pdf", "", "also print the page to this PDF file (needs a headless Chromium)")
 		verify := fs.Bool("verify", false, "add the numeric check on sampled parameters (as netsteer verify)")
 		seed := fs.Uint64("seed", 0, "seed of the numeric check's samples (default: a fresh one, printed)")
+		var sf strongFlags
+		sf.register(fs, "add the strong structural verdict of each design (every value of the couplings)")
 		title := fs.String("title", "", "what the page reviews (default: the network file's name)")
 		return func(args []string) error {
 			path, err := oneArg(args)
@@ -102,7 +104,17 @@ Example:
 				*seed = rand.Uint64N(1_000_000_000)
 			}
 			start := time.Now()
-			l, err := loadAll(e, &nf, &pf, path, *output)
+			if err := sf.check(); err != nil {
+				return err
+			}
+			if sf.on && pf.inputs == "" && pf.outputs == "" {
+				return usagef("--strong judges a design: give --inputs or --outputs")
+			}
+			l, err := loadAll(e, &nf, &pf, path, *output, sf.mayBeZero)
+			if err != nil {
+				return err
+			}
+			class, err := sf.class(l.input)
 			if err != nil {
 				return err
 			}
@@ -111,7 +123,7 @@ Example:
 					return usagef("--pdf %s would overwrite %s, which this command reads", *pdf, in)
 				}
 			}
-			rv, err := l.review(e, sh, true, true, 5)
+			rv, err := l.review(e, sh, true, true, 5, class)
 			if err != nil {
 				return err
 			}

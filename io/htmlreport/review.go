@@ -12,6 +12,7 @@ import (
 	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/placement"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // maxTableRows bounds the rows of one table on the page.
@@ -175,6 +176,13 @@ func FromReview(rv *analysis.Review, c Context) *Review {
 		if pr := cr.Observability; pr != nil {
 			q := fmt.Sprintf("Is %s structurally observable from the outputs in %s?", net, words.Escape(c.OutputsFile))
 			r.Answers = append(r.Answers, p.verdictCard(q, pr, c.Outputs))
+		}
+	}
+	if cr := rv.Check; cr != nil {
+		for _, pr := range cr.Properties() {
+			if pr.Strong != nil {
+				r.Answers = append(r.Answers, p.strongCard(net, pr))
+			}
 		}
 	}
 	for _, x := range []struct {
@@ -620,4 +628,40 @@ func FillNumeric(n *Numeric, res *numeric.Result) {
 		}
 		n.Rows = append(n.Rows, NumericRow{Property: p.Property.String(), Signals: p.Signals, Structural: p.Dimension, Sampled: p.SampledDimension, Margin: margin})
 	}
+}
+
+// strongCard answers "does the design work for every value of the
+// couplings of the stated class?".
+func (p *builder) strongCard(net string, pr *analysis.PropertyResult) Answer {
+	s := pr.Strong
+	adj := "controllable"
+	if pr.Property == structural.Observability {
+		adj = "observable"
+	}
+	class := fmt.Sprintf("%s self-dynamics, %s", s.Diagonal, words.Count(s.MayBeZero, "coupling may be zero", "couplings may be zero"))
+	a := Answer{Topic: fmt.Sprintf("Is %s strongly structurally %s: for every value of the couplings (%s)?", net, adj, class)}
+	if s.Holds {
+		a.OK, a.Word = Yes(), "Yes"
+		a.Headline = fmt.Sprintf("Strongly %s: no value of the couplings in this class breaks the design.", adj)
+		return a
+	}
+	a.OK, a.Word = No(), "No"
+	a.Headline = fmt.Sprintf("Not strongly %s: %s can host a mode the design never moves.", adj, words.Count(s.Unforced.Len(), "state", "states"))
+	var names []string
+	for i := 0; i < s.Unforced.Len() && i < 12; i++ {
+		names = append(names, words.Escape(s.Unforced.Name(i)))
+	}
+	if s.Unforced.Len() > 12 {
+		names = append(names, fmt.Sprintf("%d more", s.Unforced.Len()-12))
+	}
+	a.Facts = append(a.Facts, Fact{"States not forced", strings.Join(names, ", ")})
+	for _, t := range []struct {
+		name string
+		w    *strong.Witness
+	}{{"at eigenvalue 0", s.AtZero.Witness}, {"at other eigenvalues", s.AtNonzero.Witness}} {
+		if t.w != nil && t.w.Confirmed {
+			a.Facts = append(a.Facts, Fact{"Witness " + t.name, fmt.Sprintf("%s entries of A, eigenvalue %d, confirmed in exact integer arithmetic (netsteer check --strong prints them)", num(len(t.w.Entries)), t.w.Eigenvalue)})
+		}
+	}
+	return a
 }

@@ -4,6 +4,7 @@ import (
 	"time"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // ReviewRequest says what a picture or a review page shows. Every part is
@@ -24,6 +25,9 @@ type ReviewRequest struct {
 	Alternatives int
 	// Complete adds the cheapest completion of a failing design.
 	Complete bool
+	// Strong adds the strong structural verdict of each given design, for
+	// this class of systems (see CheckRequest.Strong).
+	Strong *strong.Class
 }
 
 // Review is everything a design-review picture or page shows.
@@ -53,7 +57,7 @@ func Analyse(g *structural.Network, req ReviewRequest) (*Review, error) {
 	}
 	t = r.Timings.Add("drivers", t)
 	if req.Inputs != nil || req.Outputs != nil {
-		cr := CheckRequest{Inputs: req.Inputs, Outputs: req.Outputs, Actuators: req.Actuators, Sensors: req.Sensors, SkipCompletion: !req.Complete}
+		cr := CheckRequest{Inputs: req.Inputs, Outputs: req.Outputs, Actuators: req.Actuators, Sensors: req.Sensors, SkipCompletion: !req.Complete, Strong: req.Strong}
 		if r.Check, err = Check(g, cr); err != nil {
 			return nil, err
 		}
