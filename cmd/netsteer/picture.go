@@ -12,7 +12,6 @@ import (
 	"github.com/netsteer/netsteer/io/render"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
-	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // What render and report share: the flags that choose what is analysed
@@ -172,13 +171,18 @@ func displayName(path string) string {
 }
 
 // review runs the analysis render and report draw.
-func (l *loaded) review(e *env, sh showSet, roles, complete bool, alternatives int, class *strong.Class) (*analysis.Review, error) {
-	req := analysis.ReviewRequest{Strong: class,
+func (l *loaded) review(sh showSet, roles, complete bool, alternatives int) analysis.ReviewRequest {
+	return analysis.ReviewRequest{
 		Inputs: l.inputs, Outputs: l.outputs,
 		PlaceActuators: sh.actuators && l.inputs == nil, PlaceSensors: sh.sensors && l.outputs == nil,
 		Actuators: l.devices(structural.Controllability), Sensors: l.devices(structural.Observability),
 		Roles: roles, Alternatives: alternatives, Complete: complete,
 	}
+}
+
+// analyse answers the review's questions, with a status line on a
+// terminal.
+func (l *loaded) analyse(e *env, req analysis.ReviewRequest) (*analysis.Review, error) {
 	e.status("analysing (%d states, %d edges)", l.g.N(), l.g.Edges())
 	defer e.status("")
 	return analysis.Analyse(l.g, req)
@@ -263,18 +267,4 @@ func progress(e *env, nodes int) context.Context {
 	return render.WithProgress(context.Background(), func(elapsed, est time.Duration) {
 		e.status("laying out %d nodes: %s of about %s", nodes, render.Duration(elapsed), render.Duration(est))
 	})
-}
-
-// holds reports whether every design the review judges holds and every
-// placement it makes is feasible.
-func holds(rv *analysis.Review) bool {
-	if rv.Check != nil && !rv.Check.Holds() {
-		return false
-	}
-	for _, p := range []*analysis.PlaceResult{rv.Actuators, rv.Sensors} {
-		if p != nil && !p.Feasible {
-			return false
-		}
-	}
-	return true
 }

@@ -118,7 +118,7 @@ Example:
 					return describeView(err)
 				}
 			}
-			rv, err := l.review(e, sh, pf.roles, true, 0, nil)
+			rv, err := l.analyse(e, l.review(sh, pf.roles, true, 0))
 			if err != nil {
 				return err
 			}
@@ -148,7 +148,7 @@ Example:
 					return err
 				}
 			}
-			if !holds(rv) {
+			if !rv.Holds() {
 				return errNo
 			}
 			return nil

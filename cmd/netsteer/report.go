@@ -17,8 +17,6 @@ import (
 
 	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/htmlreport"
-	"github.com/netsteer/netsteer/io/render"
-	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/numeric"
 )
@@ -123,7 +121,12 @@ Example:
 					return usagef("--pdf %s would overwrite %s, which this command reads", *pdf, in)
 				}
 			}
-			rv, err := l.review(e, sh, true, true, 5, class)
+			req := l.review(sh, true, true, 5)
+			req.Strong = class
+			if *verify {
+				req.Verify = &numeric.Request{Seed: *seed}
+			}
+			rv, err := l.analyse(e, req)
 			if err != nil {
 				return err
 			}
@@ -146,9 +149,19 @@ Example:
 			if in.Label != nil {
 				c.Label = in.Label
 			}
-			pictures(e, &c, in, &pf, l.g)
+			if opt, err := pf.options(l.g); err != nil {
+				c.PictureError = "The picture could not be drawn: " + err.Error()
+			} else {
+				htmlreport.DrawPictures(&c, in, htmlreport.Drawing{Options: opt, Layout: pf.layout,
+					Progress: func(n int) context.Context { return progress(e, n) },
+					Warn:     func(msg string) { e.warn("%s", msg) }, Explain: describeView})
+			}
 			if *verify {
-				c.Numeric = numericCheck(e, rv, l, *seed)
+				c.Numeric = htmlreport.NumericFrom(rv)
+				if rv.NumericError != nil && !errors.Is(rv.NumericError, analysis.ErrNothingToVerify) {
+					c.Numeric.NotRun = numericRefusal(rv.NumericError)
+					e.warn("the numeric check was not run: %s", c.Numeric.NotRun)
+				}
 			}
 			page := htmlreport.FromReview(rv, c)
 			var html bytes.Buffer
@@ -179,7 +192,7 @@ Example:
 				}
 				fmt.Fprintf(e.Stdout, "%s: the page printed to PDF.\n", *pdf)
 			}
-			if !holds(rv) {
+			if !rv.Holds() {
 				return errNo
 			}
 			return nil
@@ -216,111 +229,13 @@ func generated(now time.Time) string {
 	return now.UTC().Format("2006-01-02 15:04:05 UTC")
 }
 
-// pictures draws the page's views: the one --view chooses (the control
-// structure when the layout program is missing), then the control
-// structure, the groups and the distributions, and for a network above
-// --max-nodes its components.
-func pictures(e *env, c *htmlreport.Context, in *render.Input, pf *pictureFlags, g *structural.Network) {
-	opt, err := pf.options(g)
-	if err != nil {
-		c.PictureError = "The picture could not be drawn: " + err.Error()
-		return
+// numericRefusal words why the page's numeric check did not run, with the
+// options that would make it run.
+func numericRefusal(err error) string {
+	var se *numeric.SizeError
+	if errors.As(err, &se) {
+		return fmt.Sprintf("%d states exceed the limit of %d for the exact check, which would take up to about %s and %s of memory; run netsteer verify with --max-states, --around or --sample.",
+			se.States, se.Limit, numeric.FormatSeconds(se.Estimate.Seconds), numeric.FormatBytes(se.Estimate.Bytes))
 	}
-	draw := func(opt render.Options) (*render.View, []byte, error) {
-		v, err := render.Select(in, opt)
-		if err != nil {
-			return nil, nil, describeView(err)
-		}
-		var b bytes.Buffer
-		if err := render.DrawView(progress(e, v.Nodes()), in, v, pf.layout, render.FormatSVG, &b); err != nil {
-			return v, nil, err
-		}
-		return v, b.Bytes(), nil
-	}
-	v, svg, err := draw(opt)
-	main := render.Auto
-	if v != nil {
-		main = v.Kind
-	}
-	if err != nil && v != nil && v.Graph() && in.In != nil {
-		why := strings.TrimPrefix(err.Error(), "render: ")
-		e.warn("the %s view could not be drawn (%s); the page shows the control structure instead", v.Kind, why)
-		opt.View = render.Control
-		c.PictureError = "The " + v.Kind.String() + " view could not be drawn: " + why + ". The control structure is shown instead."
-		v, svg, err = draw(opt)
-		main = render.Control
-	}
-	if err != nil {
-		msg := strings.TrimPrefix(err.Error(), "render: ")
-		c.PictureError = "The picture could not be drawn: " + msg
-		e.warn("the page has no picture: %s", msg)
-	} else {
-		c.Pictures = append(c.Pictures, htmlreport.Picture{SVG: svg, Note: "View: " + v.Desc + ". Hover over a node for its full name and findings."})
-	}
-	extra := []render.Kind{render.Control, render.Groups, render.Degrees}
-	if g.N() > pf.maxNodes {
-		// A large network's components, labelled by what they are.
-		extra = append(extra, render.Components)
-	}
-	for _, k := range extra {
-		if k == main || (k == render.Groups && in.Group == nil) || (k == render.Control && in.In == nil) {
-			continue
-		}
-		o := opt
-		o.View = k
-		v, svg, err := draw(o)
-		if err != nil {
-			e.warn("the %s view could not be drawn: %s", k, strings.TrimPrefix(err.Error(), "render: "))
-			continue
-		}
-		title := map[render.Kind]string{render.Control: "Control structure", render.Groups: "By group of the node table",
-			render.Degrees: "Distributions", render.Components: "Strongly connected components"}[k]
-		c.Pictures = append(c.Pictures, htmlreport.Picture{Title: title, SVG: svg, Note: "View: " + v.Desc + "."})
-	}
-}
-
-// numericCheck runs the numeric check on the designs the page answers
-// for (the given ones, else the cheapest devices). A refusal is shown on
-// the page and said on the terminal.
-func numericCheck(e *env, rv *analysis.Review, l *loaded, seed uint64) *htmlreport.Numeric {
-	var ins, outs structural.Design
-	var what []string
-	n := &htmlreport.Numeric{}
-	switch {
-	case l.inputs != nil:
-		ins = *l.inputs
-		what = append(what, "the given inputs")
-	case rv.Actuators != nil:
-		ins, _ = structural.Dedicated(l.g, rv.Actuators.Devices.IDs())
-		what = append(what, "the cheapest actuators")
-	}
-	switch {
-	case l.outputs != nil:
-		outs = *l.outputs
-		what = append(what, "the given outputs")
-	case rv.Sensors != nil:
-		outs, _ = structural.Dedicated(l.g, rv.Sensors.Devices.IDs())
-		what = append(what, "the cheapest sensors")
-	}
-	n.What = strings.Join(what, " and ")
-	if ins.Len() == 0 && outs.Len() == 0 {
-		n.NotRun = "nothing to check: no inputs or outputs."
-		return n
-	}
-	e.status("numeric check (%d states)", l.g.N())
-	res, err := numeric.Verify(l.g, numeric.Request{Inputs: &ins, Outputs: &outs, Seed: seed})
-	e.status("")
-	if err != nil {
-		var se *numeric.SizeError
-		if errors.As(err, &se) {
-			n.NotRun = fmt.Sprintf("%d states exceed the limit of %d for the exact check, which would take up to about %s and %s of memory; run netsteer verify with --max-states, --around or --sample.",
-				se.States, se.Limit, numeric.FormatSeconds(se.Estimate.Seconds), numeric.FormatBytes(se.Estimate.Bytes))
-		} else {
-			n.NotRun = describe(err)
-		}
-		e.warn("the numeric check was not run: %s", n.NotRun)
-		return n
-	}
-	htmlreport.FillNumeric(n, res)
-	return n
+	return describe(err)
 }

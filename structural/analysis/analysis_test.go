@@ -10,6 +10,7 @@ import (
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
 	"github.com/netsteer/netsteer/structural/internal/testnet"
+	"github.com/netsteer/netsteer/structural/numeric"
 )
 
 // Each question's answer against the exhaustive Lin oracle (every subset
@@ -116,5 +117,47 @@ func TestJSONShape(t *testing.T) {
 		if !strings.HasSuffix(k, "_s") {
 			t.Errorf("timing key %q", k)
 		}
+	}
+}
+
+// The review's numeric check against the exhaustive Lin oracle
+// (testnet.Oracle): the cheapest devices placed are structurally
+// controllable and observable, so the sampled systems are too (a failure
+// has probability at most n/p over GF(p), Schwartz–Zippel); a given
+// design that fails Lin's test can never be controllable for any values.
+func TestReviewVerify(t *testing.T) {
+	rng := rand.New(rand.NewPCG(4, 11))
+	failing := 0
+	for i := 0; i < 100; i++ {
+		n := 1 + rng.IntN(7)
+		g := testnet.Random(t, rng, n, 0.25)
+		rv, err := analysis.Analyse(g, analysis.ReviewRequest{PlaceActuators: true, PlaceSensors: true,
+			Verify: &numeric.Request{Seed: uint64(i)}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if rv.NumericError != nil || rv.Numeric == nil || !rv.Numeric.Holds() ||
+			strings.Join(rv.NumericChecked, ",") != "the cheapest actuators,the cheapest sensors" {
+			t.Fatalf("trial %d: numeric %+v checked %v error %v", i, rv.Numeric, rv.NumericChecked, rv.NumericError)
+		}
+		d, _ := structural.Dedicated(g, []int32{int32(rng.IntN(n))})
+		rv, err = analysis.Analyse(g, analysis.ReviewRequest{Inputs: &d, Verify: &numeric.Request{Seed: uint64(i)}})
+		if err != nil || rv.NumericError != nil {
+			t.Fatal(err, rv.NumericError)
+		}
+		o := testnet.NewOracle(g)
+		if lin := o.Controllable(1 << d.Signals()[0][0]); !lin {
+			failing++
+			if rv.Numeric.Holds() {
+				t.Fatalf("trial %d: fails Lin's test but sampled controllable", i)
+			}
+		}
+	}
+	if failing < 10 {
+		t.Fatalf("only %d failing designs tried", failing)
+	}
+	rv, err := analysis.Analyse(testnet.Random(t, rng, 3, 0.5), analysis.ReviewRequest{Verify: &numeric.Request{}})
+	if err != nil || !errors.Is(rv.NumericError, analysis.ErrNothingToVerify) || rv.Numeric != nil {
+		t.Fatalf("nothing to verify: %v %v", err, rv.NumericError)
 	}
 }

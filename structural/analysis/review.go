@@ -4,6 +4,7 @@ import (
 	"time"
 
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/numeric"
 	"github.com/netsteer/netsteer/structural/strong"
 )
 
@@ -28,6 +29,10 @@ type ReviewRequest struct {
 	// Strong adds the strong structural verdict of each given design, for
 	// this class of systems (see CheckRequest.Strong).
 	Strong *strong.Class
+	// Verify, when not nil, adds the numeric check (numeric.Verify with
+	// this request) of the designs the review answers for: the given
+	// ones, else the cheapest devices placed. Its designs are filled in.
+	Verify *numeric.Request
 }
 
 // Review is everything a design-review picture or page shows.
@@ -44,7 +49,29 @@ type Review struct {
 	// SensorRoles are node roles for sensors: across all minimum output
 	// sets, on the transposed network (Drivers.NodeRoles are for inputs).
 	SensorRoles *structural.NodeRoles `json:"sensor_roles,omitempty"`
-	Timings     Timings               `json:"timings"`
+	// Numeric is the numeric check (ReviewRequest.Verify) and
+	// NumericChecked names the designs it checked ("the given inputs",
+	// "the cheapest sensors", ...). NumericError says why it did not run
+	// (a *numeric.SizeError for a network too large), nil when it ran or
+	// was not asked.
+	Numeric        *numeric.Result `json:"numeric,omitempty"`
+	NumericChecked []string        `json:"numeric_checked,omitempty"`
+	NumericError   error           `json:"-"`
+	Timings        Timings         `json:"timings"`
+}
+
+// Holds reports whether every design the review judges holds and every
+// placement it makes is feasible.
+func (r *Review) Holds() bool {
+	if r.Check != nil && !r.Check.Holds() {
+		return false
+	}
+	for _, p := range []*PlaceResult{r.Actuators, r.Sensors} {
+		if p != nil && !p.Feasible {
+			return false
+		}
+	}
+	return true
 }
 
 // Analyse answers every question of req on g: what a review shows.
@@ -82,7 +109,43 @@ func Analyse(g *structural.Network, req ReviewRequest) (*Review, error) {
 	}
 	if req.Roles {
 		r.SensorRoles = structural.StateRoles(g.Transpose())
-		r.Timings.Add("sensor_roles", t)
+		t = r.Timings.Add("sensor_roles", t)
+	}
+	if req.Verify != nil {
+		r.verify(g, req)
+		r.Timings.Add("numeric", t)
 	}
 	return r, nil
 }
+
+// verify runs the numeric check on the designs the review answers for.
+func (r *Review) verify(g *structural.Network, req ReviewRequest) {
+	var ins, outs structural.Design
+	switch {
+	case req.Inputs != nil:
+		ins = *req.Inputs
+		r.NumericChecked = append(r.NumericChecked, "the given inputs")
+	case r.Actuators != nil:
+		ins, _ = structural.Dedicated(g, r.Actuators.Devices.IDs())
+		r.NumericChecked = append(r.NumericChecked, "the cheapest actuators")
+	}
+	switch {
+	case req.Outputs != nil:
+		outs = *req.Outputs
+		r.NumericChecked = append(r.NumericChecked, "the given outputs")
+	case r.Sensors != nil:
+		outs, _ = structural.Dedicated(g, r.Sensors.Devices.IDs())
+		r.NumericChecked = append(r.NumericChecked, "the cheapest sensors")
+	}
+	if ins.Len() == 0 && outs.Len() == 0 {
+		r.NumericError = ErrNothingToVerify
+		return
+	}
+	vr := *req.Verify
+	vr.Inputs, vr.Outputs = &ins, &outs
+	r.Numeric, r.NumericError = numeric.Verify(g, vr)
+}
+
+// ErrNothingToVerify is the NumericError of a review with no design to
+// check numerically.
+var ErrNothingToVerify = errorString("analysis: nothing to check: no inputs or outputs")
