@@ -115,7 +115,7 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	}
 	vd.Unreached = g.States(unreached)
 	b := inNeighbourCSR(h, inputs)
-	m := matching.Maximum(b, nil)
+	m := matching.Maximum(b, inNeighbourCSRT(h, inputs))
 	vd.TermRank = m.Size
 	if m.Size < n {
 		vd.Dilation = dilationWitness(g, b, m, n, d)
@@ -195,6 +195,32 @@ func inNeighbourCSR(g *Network, inputs [][]int32) *matching.CSR {
 		}
 	}
 	return b
+}
+
+// inNeighbourCSRT returns the transpose of inNeighbourCSR(g, inputs), as
+// matching.Transpose would build it, by copying the out-rows (row u lists
+// the states u acts on) and adding one row per input (the states it
+// drives, in increasing order, each once): sequential copies instead of a
+// scatter over every edge.
+func inNeighbourCSRT(g *Network, inputs [][]int32) *matching.CSR {
+	n := g.N()
+	t := &matching.CSR{Rows: n + len(inputs), Cols: n, Ptr: make([]int64, n+len(inputs)+1)}
+	copy(t.Ptr, g.out.Ptr)
+	rows := make([][]int32, len(inputs))
+	extra := 0
+	for i, in := range inputs {
+		r := slices.Clone(in)
+		slices.Sort(r)
+		rows[i] = slices.Compact(r)
+		extra += len(rows[i])
+		t.Ptr[n+i+1] = t.Ptr[n+i] + int64(len(rows[i]))
+	}
+	t.Adj = make([]int32, 0, len(g.out.Adj)+extra)
+	t.Adj = append(t.Adj, g.out.Adj...)
+	for _, r := range rows {
+		t.Adj = append(t.Adj, r...)
+	}
+	return t
 }
 
 // dilationWitness grows the alternating tree of the first unmatched row of

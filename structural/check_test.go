@@ -1,6 +1,7 @@
 package structural_test
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"slices"
 	"testing"
@@ -322,5 +323,29 @@ func TestTransposeWeights(t *testing.T) {
 	}
 	if tg.Name(0) != "1" || tg.N() != 3 {
 		t.Errorf("names not shared: %q", tg.Name(0))
+	}
+}
+
+// The transpose of the [A B] graph built from the out-rows is the one
+// matching.Transpose builds (same rows in the same order), so the matching
+// and the witnesses of Check do not depend on which is used.
+func TestInNeighbourTranspose(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 9))
+	for trial := 0; trial < 200; trial++ {
+		n := 1 + rng.IntN(30)
+		g := testnet.Random(t, rng, n, 0.1+0.3*rng.Float64())
+		var inputs [][]int32
+		for i := rng.IntN(4); i > 0; i-- {
+			var in []int32
+			for j := rng.IntN(4); j >= 0; j-- {
+				in = append(in, int32(rng.IntN(n))) // repeats allowed
+			}
+			inputs = append(inputs, in)
+		}
+		want := matching.Transpose(structural.InNeighbourCSR(g, inputs))
+		got := structural.InNeighbourCSRT(g, inputs)
+		if fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Fatalf("trial %d: transpose\n%v\nwant\n%v", trial, got, want)
+		}
 	}
 }

@@ -4,6 +4,7 @@ package structural
 // reference cover flow (dimension_ref_test.go) differs from
 // ControllableDimension only in the flow, not in these.
 var (
-	Reach          = reach
-	InNeighbourCSR = inNeighbourCSR
+	Reach           = reach
+	InNeighbourCSR  = inNeighbourCSR
+	InNeighbourCSRT = inNeighbourCSRT
 )
