@@ -124,7 +124,7 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	if vd.Holds {
 		vd.Dimension = n
 	} else {
-		dim, err := dimension(h, inputs, reached, nR, m)
+		dim, err := dimension(h, inputs, reached, nR, b, m)
 		if err != nil {
 			return nil, err
 		}
