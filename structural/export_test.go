@@ -7,4 +7,5 @@ var (
 	Reach           = reach
 	InNeighbourCSR  = inNeighbourCSR
 	InNeighbourCSRT = inNeighbourCSRT
+	SCCThrough      = sccThrough
 )

@@ -30,6 +30,8 @@ type Network struct {
 	match     *matching.Matching
 	compOnce  sync.Once
 	comps     *Components
+	altOnce   sync.Once
+	alt       *alternating
 	tOnce     sync.Once
 	t         *Network
 	// of is the network this one is the transpose of, nil otherwise.
@@ -141,7 +143,7 @@ func (g *Network) Matching() *matching.Matching {
 // Components returns the strongly connected components, computed once.
 // They are shared and must not be modified.
 func (g *Network) Components() *Components {
-	g.compOnce.Do(func() { g.comps = scc(&g.out) })
+	g.compOnce.Do(func() { g.comps = scc(&g.out, nil) })
 	return g.comps
 }
 

@@ -1,7 +1,5 @@
 package structural
 
-import "github.com/netsteer/netsteer/matching"
-
 // Role classifies a state across all minimum driver sets, or an edge
 // across all maximum matchings.
 type Role uint8
@@ -38,8 +36,9 @@ func (r Role) String() string {
 	return "unknown"
 }
 
-// alternating holds the alternating-path structure of a maximum matching
-// (the Dulmage–Mendelsohn decomposition of the bipartite graph).
+// alternating holds the alternating-path structure of the network's
+// maximum matching (the Dulmage–Mendelsohn decomposition of its bipartite
+// graph), computed once and kept on the network.
 type alternating struct {
 	freeColReach []bool // column can be unmatched in some maximum matching
 	freeRowReach []bool // row can be unmatched in some maximum matching
@@ -47,108 +46,77 @@ type alternating struct {
 	hSize        []int32 // members per component of h
 }
 
-// decompose computes, from a maximum matching m of g: the columns reached
-// by even alternating paths from unmatched columns, the rows reached
-// likewise from unmatched rows, and the strongly connected components of
-// the digraph on columns with an arc v -> RowMate[u] for every edge u -> v
-// outside m (its cycles are the alternating cycles of m).
-func decompose(g *Network, m *matching.Matching) *alternating {
-	n := g.N()
-	a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
-	queue := make([]int32, 0, 64)
-	for v := 0; v < n; v++ {
-		if m.ColMate[v] < 0 {
-			a.freeColReach[v] = true
-			queue = append(queue, int32(v))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, u := range g.in.Row(queue[h]) {
-			if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
-				a.freeColReach[x] = true
-				queue = append(queue, x)
+// alternating returns the decomposition of g's maximum matching m: the
+// columns reached by even alternating paths from unmatched columns (the
+// states some maximum matching leaves unmatched), the rows reached likewise
+// from unmatched rows, and the strongly connected components of the
+// digraph on columns with an arc v -> RowMate[u] for every edge u -> v
+// outside m (its cycles are the alternating cycles of m). Time O(N + E):
+// two breadth-first searches and one components pass over that digraph,
+// which is read through the matching and never built.
+func (g *Network) alternating() *alternating {
+	g.altOnce.Do(func() {
+		m := g.Matching()
+		n := g.N()
+		a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
+		queue := make([]int32, 0, 64)
+		for v := 0; v < n; v++ {
+			if m.ColMate[v] < 0 {
+				a.freeColReach[v] = true
+				queue = append(queue, int32(v))
 			}
 		}
-	}
-	queue = queue[:0]
-	for u := 0; u < n; u++ {
-		if m.RowMate[u] < 0 {
-			a.freeRowReach[u] = true
-			queue = append(queue, int32(u))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, v := range g.out.Row(queue[h]) {
-			if r := m.ColMate[v]; r >= 0 && !a.freeRowReach[r] {
-				a.freeRowReach[r] = true
-				queue = append(queue, r)
+		for h := 0; h < len(queue); h++ {
+			for _, u := range g.in.Row(queue[h]) {
+				if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
+					a.freeColReach[x] = true
+					queue = append(queue, x)
+				}
 			}
 		}
-	}
-	// The column digraph of alternating cycles.
-	hg := matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
-	for v := 0; v < n; v++ {
-		for _, u := range g.in.Row(int32(v)) {
-			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
-				hg.Ptr[v+1]++
+		queue = queue[:0]
+		for u := 0; u < n; u++ {
+			if m.RowMate[u] < 0 {
+				a.freeRowReach[u] = true
+				queue = append(queue, int32(u))
 			}
 		}
-	}
-	for v := 0; v < n; v++ {
-		hg.Ptr[v+1] += hg.Ptr[v]
-	}
-	hg.Adj = make([]int32, hg.Ptr[n])
-	k := 0
-	for v := 0; v < n; v++ {
-		for _, u := range g.in.Row(int32(v)) {
-			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
-				hg.Adj[k] = x
-				k++
+		for h := 0; h < len(queue); h++ {
+			for _, v := range g.out.Row(queue[h]) {
+				if r := m.ColMate[v]; r >= 0 && !a.freeRowReach[r] {
+					a.freeRowReach[r] = true
+					queue = append(queue, r)
+				}
 			}
 		}
-	}
-	a.h = SCC(&hg)
-	a.hSize = make([]int32, a.h.Count)
-	for _, c := range a.h.Of {
-		a.hSize[c]++
-	}
-	return a
+		a.h = sccThrough(&g.in, m.RowMate)
+		a.hSize = make([]int32, a.h.Count)
+		for _, c := range a.h.Of {
+			a.hSize[c]++
+		}
+		g.alt = a
+	})
+	return g.alt
 }
 
 // nodeRoles returns the role of every state across all minimum driver
-// sets, given a maximum matching m of g (matching.Maximum(&g.Out, &g.In)).
-// A state can be left unmatched by some maximum matching exactly when an
-// even alternating path leads to it from a state left unmatched by m; it is
-// unmatched by all of them exactly when no edge enters it. Time O(N + E).
+// sets, from the network's maximum matching. A state can be left unmatched
+// by some maximum matching exactly when an even alternating path leads to
+// it from a state left unmatched by the matching; it is unmatched by all
+// of them exactly when no edge enters it. Time O(N + E).
 //
 // The roles follow the driver sets of maximum matchings (N - |M*| states);
-// when m is perfect every state is Redundant, although one signal is still
-// needed (N_D = 1).
+// when the matching is perfect every state is Redundant, although one
+// signal is still needed (N_D = 1).
 func nodeRoles(g *Network) []Role {
-	m := g.Matching()
+	a := g.alternating()
 	n := g.N()
 	roles := make([]Role, n)
-	reach := make([]bool, n)
-	queue := make([]int32, 0, 64)
-	for v := 0; v < n; v++ {
-		if m.ColMate[v] < 0 {
-			reach[v] = true
-			queue = append(queue, int32(v))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, u := range g.in.Row(queue[h]) {
-			if x := m.RowMate[u]; x >= 0 && !reach[x] {
-				reach[x] = true
-				queue = append(queue, x)
-			}
-		}
-	}
 	for v := 0; v < n; v++ {
 		switch {
 		case g.in.Degree(int32(v)) == 0:
 			roles[v] = Critical
-		case reach[v]:
+		case a.freeColReach[v]:
 			roles[v] = Intermittent
 		}
 	}
@@ -165,7 +133,7 @@ func nodeRoles(g *Network) []Role {
 // connected components pass.
 func linkRoles(g *Network) []Role {
 	m := g.Matching()
-	a := decompose(g, m)
+	a := g.alternating()
 	roles := make([]Role, len(g.out.Adj))
 	n := g.N()
 	for u := 0; u < n; u++ {
@@ -209,12 +177,13 @@ type LinkRoles struct {
 
 // StateRoles returns the role of every state across all minimum driver
 // sets (see nodeRoles for the method). Time O(N + E) after the network's
-// maximum matching.
+// maximum matching; the alternating structure it needs is kept on the
+// network for EdgeRoles.
 func StateRoles(g *Network) *NodeRoles { return &NodeRoles{Of: nodeRoles(g), g: g} }
 
 // EdgeRoles returns the role of every edge across all maximum matchings
 // (see linkRoles for the method). Time O(N + E) after the network's
-// maximum matching.
+// maximum matching; the alternating structure is shared with StateRoles.
 func EdgeRoles(g *Network) *LinkRoles { return &LinkRoles{Of: linkRoles(g), g: g} }
 
 // NodeRoleOrder and LinkRoleOrder list the roles from the most to the

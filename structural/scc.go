@@ -35,9 +35,15 @@ type sccFrame struct {
 // completed component is an edge between components, so the source
 // components are found on the way. O(V + E) time; about 4 bytes per state
 // plus the stacks.
-func SCC(g *matching.CSR) *Components { return scc(g) }
+func SCC(g *matching.CSR) *Components { return scc(g, nil) }
 
-func scc(g *matching.CSR) *Components {
+// sccThrough returns the components of the digraph read from g through
+// mate: state v has an arc to mate[u] for every u in row v of g, except
+// where mate[u] is negative or v itself. They are those SCC gives for that
+// digraph built row by row, without building it.
+func sccThrough(g *matching.CSR, mate []int32) *Components { return scc(g, mate) }
+
+func scc(g *matching.CSR, mate []int32) *Components {
 	n := g.Rows
 	// rindex[v]: 0 unvisited; 1..index-1 while v's component is open (the
 	// smallest index v reaches); once complete, c: N, N-1, ... in
@@ -70,6 +76,11 @@ func scc(g *matching.CSR) *Components {
 			for f.pos < end {
 				w := adj[f.pos]
 				f.pos++
+				if mate != nil {
+					if w = mate[w]; w < 0 || w == v {
+						continue
+					}
+				}
 				rw := rindex[w]
 				if rw == 0 {
 					rindex[w] = index
