@@ -50,13 +50,23 @@ func timed(name string, f func()) part {
 	return part{name, time.Since(t).Seconds()}
 }
 
-// randomCosts is the device table of the place-costs stage: every state
-// costs a whole number drawn uniformly from 1..1000 (seed 3).
-func randomCosts(n int) structural.Devices {
-	rng := gen.NewRand(3)
-	c := make([]structural.Cost, n)
+// costOf is the device cost of the place-costs stage for the state named
+// by integer i: a whole number from 1..1000, a hash of i (SplitMix64 with
+// seed 3), so that the node table written for the command line gives the
+// same costs whatever order the states are read in.
+func costOf(i int64) int64 {
+	s := uint64(i) ^ 3
+	return 1 + int64(gen.SplitMix64(&s)%1000)
+}
+
+// randomCosts is the device table of the place-costs stage.
+func randomCosts(g *structural.Network) structural.Devices {
+	c := make([]structural.Cost, g.N())
+	var name []byte
 	for v := range c {
-		c[v] = structural.Cost(1+rng.Int64N(1000)) * structural.Unit
+		name = g.AppendName(name[:0], int32(v))
+		i, _ := strconv.ParseInt(string(name), 10, 64)
+		c[v] = structural.Cost(costOf(i)) * structural.Unit
 	}
 	return structural.Devices{Cost: c}
 }
@@ -66,7 +76,7 @@ var stages = []stage{
 		run: func(g *structural.Network, _ structural.Design) (string, []part, func() error) {
 			var ds *structural.DriverSet
 			p := timed("drivers", func() { ds = structural.Drivers(g) })
-			return fmt.Sprintf("n_d=%d", ds.Count()), []part{p}, nil
+			return fmt.Sprintf("n_d=%d matching=%d", ds.Count(), ds.MatchingSize), []part{p}, nil
 		}},
 	{name: "roles", help: "drivers, then state and link roles (netsteer drivers --roles)",
 		run: func(g *structural.Network, _ structural.Design) (string, []part, func() error) {
@@ -84,7 +94,7 @@ var stages = []stage{
 				}
 				return k
 			}
-			ans := fmt.Sprintf("n_d=%d critical=%d intermittent=%d links critical=%d redundant=%d", ds.Count(),
+			ans := fmt.Sprintf("n_d=%d matching=%d critical=%d intermittent=%d links critical=%d redundant=%d", ds.Count(), ds.MatchingSize,
 				count(nr.Of, structural.Critical), count(nr.Of, structural.Intermittent),
 				count(lr.Of, structural.Critical), count(lr.Of, structural.Redundant))
 			return ans, []part{p1, p2}, func() error {
@@ -158,7 +168,7 @@ var stages = []stage{
 		}},
 	{name: "place-costs", help: "cheapest dedicated actuators, random costs 1..1000 (netsteer actuators --node-table)",
 		run: func(g *structural.Network, _ structural.Design) (string, []part, func() error) {
-			return placeStage(g, structural.Controllability, randomCosts(g.N()))
+			return placeStage(g, structural.Controllability, randomCosts(g))
 		}},
 	{name: "sensors", help: "fewest dedicated sensors, unit costs (netsteer sensors)",
 		run: func(g *structural.Network, _ structural.Design) (string, []part, func() error) {
@@ -305,6 +315,7 @@ func scaleMain(args []string) {
 	dir := fs.String("dir", filepath.Join(os.TempDir(), "netsteer-bench"), "directory for the generated files")
 	jsonOut := fs.String("json", "", "also write every result to this JSON file")
 	verify := fs.Bool("verify", true, "check each answer by an independent route (untimed)")
+	bin := fs.Bool("bin", false, "also write each network as int32 pairs (FILE.i32) for the Python peers")
 	fs.Parse(args)
 	var ns []int
 	for _, s := range strings.Split(*sizes, ",") {
@@ -347,7 +358,7 @@ func scaleMain(args []string) {
 	fmt.Printf("machine: %d cores, GOMAXPROCS %d, %s; load average at start %s\n", runtime.NumCPU(), runtime.GOMAXPROCS(0), runtime.Version(), strings.Join(strings.Fields(string(load))[:3], " "))
 	results := map[string][]stageResult{} // stage -> one per size
 	for _, n := range ns {
-		file, full, half, err := prepare(*dir, n, *k, *seed)
+		file, full, half, err := prepare(*dir, n, *k, *seed, *bin)
 		if err != nil {
 			fmt.Fprintln(os.Stderr, "scale:", err)
 			os.Exit(1)
@@ -407,10 +418,12 @@ func stageNames() string {
 // and the designs: a minimum one from Drivers (one signal per line) and
 // its every other signal (half of it, the failing design of the check
 // benchmarks).
-func prepare(dir string, n int, k float64, seed uint64) (file, full, half string, err error) {
+func prepare(dir string, n int, k float64, seed uint64, bin bool) (file, full, half string, err error) {
 	base := filepath.Join(dir, fmt.Sprintf("er-%d-%g-%d", n, k, seed))
 	file, full, half = base+".edges", base+".full.design", base+".half.design"
-	if _, err := os.Stat(half); err == nil {
+	_, err1 := os.Stat(half)
+	_, err2 := os.Stat(base + ".i32")
+	if err1 == nil && (!bin || err2 == nil) {
 		return file, full, half, nil
 	}
 	p, err := workload("er", n, k, 0)
@@ -424,9 +437,26 @@ func prepare(dir string, n int, k float64, seed uint64) (file, full, half string
 	if err = writeText(file, e); err != nil {
 		return
 	}
+	if bin {
+		if err = writeBin(base+".i32", e); err != nil {
+			return
+		}
+	}
 	e = nil
 	g, err := netread.ReadFile(file, netread.Options{})
 	if err != nil {
+		return
+	}
+	// The costs of place-costs as a node table, for the command line
+	// (states absent from the edge list are not in the network).
+	var tb bytes.Buffer
+	tb.WriteString("node,actuator_cost\n")
+	for v := 0; v < g.N(); v++ {
+		name := g.Name(int32(v))
+		i, _ := strconv.ParseInt(name, 10, 64)
+		fmt.Fprintf(&tb, "%s,%d\n", name, costOf(i))
+	}
+	if err = os.WriteFile(base+".costs.csv", tb.Bytes(), 0o644); err != nil {
 		return
 	}
 	ds := structural.Drivers(g)
