@@ -94,7 +94,8 @@ type Dilation struct {
 // reached by alternating paths from one unmatched row: every column those
 // rows touch is matched (else the matching would not be maximum) to another
 // reached row, so the neighbour set has exactly one member fewer. Time is
-// that of one matching, plus Dimension when the design fails.
+// that of one matching (the search for the reached states runs beside it
+// on another goroutine), plus Dimension when the design fails.
 func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	if !d.Of(g) {
 		return nil, ErrForeignDesign
@@ -103,7 +104,18 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	inputs := d.signals
 	n := h.N()
 	vd := &Verdict{Property: p, Signals: len(inputs), n: n}
-	reached, nR := reach(h, inputs)
+	// Reachability and the matching of [A B] are independent: the search
+	// runs on another goroutine meanwhile.
+	var reached []bool
+	var nR int
+	reachDone := make(chan struct{})
+	go func() {
+		defer close(reachDone)
+		reached, nR = reach(h, inputs)
+	}()
+	b := inNeighbourCSR(h, inputs)
+	m := matching.Maximum(b, inNeighbourCSRT(h, inputs))
+	<-reachDone
 	var unreached []int32
 	if nR < n {
 		unreached = make([]int32, 0, n-nR)
@@ -114,8 +126,6 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 		}
 	}
 	vd.Unreached = g.States(unreached)
-	b := inNeighbourCSR(h, inputs)
-	m := matching.Maximum(b, inNeighbourCSRT(h, inputs))
 	vd.TermRank = m.Size
 	if m.Size < n {
 		vd.Dilation = dilationWitness(g, b, m, n, d)

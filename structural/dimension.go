@@ -61,9 +61,16 @@ func Dimension(g *Network, p Property, d Design) (int, error) {
 	}
 	h := g.on(p)
 	n := h.N()
-	reached, nR := reach(h, d.signals)
+	var reached []bool
+	var nR int
+	reachDone := make(chan struct{})
+	go func() {
+		defer close(reachDone)
+		reached, nR = reach(h, d.signals)
+	}()
 	b := inNeighbourCSR(h, d.signals)
 	m := matching.Maximum(b, inNeighbourCSRT(h, d.signals))
+	<-reachDone
 	if nR == n && m.Size == n {
 		return n, nil
 	}

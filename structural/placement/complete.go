@@ -2,6 +2,7 @@ package placement
 
 import (
 	"errors"
+	"slices"
 
 	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
@@ -80,7 +81,14 @@ func Complete(g *structural.Network, p structural.Property, d structural.Design,
 	if p == structural.Observability {
 		h = g.Transpose()
 	}
-	pr.comps = extendComponents(h.Components(), ext, n)
+	// The network's components (kept on it) and the matching of the
+	// extended network are independent: both at once.
+	comps := make(chan *structural.Components, 1)
+	go func() { comps <- h.Components() }()
+	if dev.Forbidden == nil || !slices.Contains(dev.Forbidden, true) {
+		pr.match = matching.Maximum(&ext.Out, &ext.In)
+	}
+	pr.comps = extendComponents(<-comps, ext, n)
 	return pr.solve().wrap(g, p, dev, n), nil
 }
 

@@ -128,7 +128,7 @@ func Place(g *structural.Network, p structural.Property, d structural.Devices) (
 	if p == structural.Observability {
 		h = g.Transpose()
 	}
-	pr.comps, pr.match = h.Components(), h.Matching()
+	pr.match, pr.comps = h.MatchingAndComponents()
 	return pr.solve().wrap(g, p, d, g.N()), nil
 }
 
