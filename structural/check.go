@@ -114,7 +114,7 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 		reached, nR = reach(h, inputs)
 	}()
 	b := inNeighbourCSR(h, inputs)
-	m := matching.Maximum(b, inNeighbourCSRT(h, inputs))
+	m := h.designMatching(inputs, b)
 	<-reachDone
 	var unreached []int32
 	if nR < n {

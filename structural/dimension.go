@@ -70,7 +70,7 @@ func Dimension(g *Network, p Property, d Design) (int, error) {
 		reached, nR = reach(h, d.signals)
 	}()
 	b := inNeighbourCSR(h, d.signals)
-	m := matching.Maximum(b, inNeighbourCSRT(h, d.signals))
+	m := h.designMatching(d.signals, b)
 	<-reachDone
 	if nR == n && m.Size == n {
 		return n, nil

@@ -33,6 +33,7 @@ type Network struct {
 	comps     *Components
 	altOnce   sync.Once
 	alt       *alternating
+	dm        designMatch
 	tOnce     sync.Once
 	t         *Network
 	// of is the network this one is the transpose of, nil otherwise.

@@ -86,7 +86,19 @@ func Complete(g *structural.Network, p structural.Property, d structural.Design,
 	comps := make(chan *structural.Components, 1)
 	go func() { comps <- h.Components() }()
 	if dev.Forbidden == nil || !slices.Contains(dev.Forbidden, true) {
-		pr.match = matching.Maximum(&ext.Out, &ext.In)
+		// The matching of [A B] is one of the extended network, whose
+		// in-rows are the rows of [A B]; Check of the same design left it
+		// on the network.
+		m, err := structural.DesignMatching(g, p, d)
+		if err != nil {
+			return nil, err
+		}
+		colMate := make([]int32, n+k)
+		copy(colMate, m.RowMate)
+		for i := n; i < n+k; i++ {
+			colMate[i] = -1
+		}
+		pr.match = &matching.Matching{RowMate: m.ColMate, ColMate: colMate, Size: m.Size}
 	}
 	pr.comps = extendComponents(<-comps, ext, n)
 	return pr.solve().wrap(g, p, dev, n), nil
