@@ -13,6 +13,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"runtime"
+	"runtime/pprof"
 	"slices"
 	"strconv"
 	"strings"
@@ -259,6 +260,7 @@ func runStageMain(args []string) {
 	name := fs.String("stage", "drivers", "stage to run")
 	designFile := fs.String("design", "", "design file")
 	verify := fs.Bool("verify", true, "check the answer by an independent route after timing")
+	profile := fs.String("cpuprofile", "", "write a CPU profile of the stage to this file")
 	fs.Parse(args)
 	st := stageByName(*name)
 	if st == nil || fs.NArg() != 1 {
@@ -286,9 +288,20 @@ func runStageMain(args []string) {
 	}
 	res.ReadWall, res.ReadCPU = time.Since(w0).Seconds(), processCPU()-c0
 	res.Nodes, res.Edges = g.N(), g.Edges()
+	if *profile != "" {
+		f, err := os.Create(*profile)
+		if err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(2)
+		}
+		pprof.StartCPUProfile(f)
+	}
 	c0, w0 = processCPU(), time.Now()
 	answer, parts, check := st.run(g, d)
 	res.Wall, res.CPU = time.Since(w0).Seconds(), processCPU()-c0
+	if *profile != "" {
+		pprof.StopCPUProfile()
+	}
 	res.Peak = peakRSS()
 	res.Answer, res.Parts, res.Verified = answer, parts, "-"
 	if check != nil && *verify {
