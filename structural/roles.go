@@ -1,5 +1,10 @@
 package structural
 
+import (
+	"runtime"
+	"sort"
+)
+
 // Role classifies a state across all minimum driver sets, or an edge
 // across all maximum matchings.
 type Role uint8
@@ -59,6 +64,13 @@ func (g *Network) alternating() *alternating {
 		m := g.Matching()
 		n := g.N()
 		a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
+		// The components need only the matching: on another goroutine
+		// while the two searches run.
+		hDone := make(chan struct{})
+		go func() {
+			defer close(hDone)
+			a.h = sccThrough(&g.in, m.RowMate)
+		}()
 		queue := make([]int32, 0, 64)
 		for v := 0; v < n; v++ {
 			if m.ColMate[v] < 0 {
@@ -89,7 +101,7 @@ func (g *Network) alternating() *alternating {
 				}
 			}
 		}
-		a.h = sccThrough(&g.in, m.RowMate)
+		<-hDone
 		a.hSize = make([]int32, a.h.Count)
 		for _, c := range a.h.Of {
 			a.hSize[c]++
@@ -136,27 +148,44 @@ func linkRoles(g *Network) []Role {
 	a := g.alternating()
 	roles := make([]Role, len(g.out.Adj))
 	n := g.N()
-	for u := 0; u < n; u++ {
-		lo := g.out.Ptr[u]
-		for i, v := range g.out.Row(int32(u)) {
-			var r Role
-			if m.RowMate[u] == v {
-				if a.freeColReach[v] || a.freeRowReach[u] || a.hSize[a.h.Of[v]] > 1 {
-					r = Ordinary
+	// Rows are independent: two halves by edges, on two goroutines for
+	// large networks.
+	fill := func(from, to int) {
+		for u := from; u < to; u++ {
+			lo := g.out.Ptr[u]
+			for i, v := range g.out.Row(int32(u)) {
+				var r Role
+				if m.RowMate[u] == v {
+					if a.freeColReach[v] || a.freeRowReach[u] || a.hSize[a.h.Of[v]] > 1 {
+						r = Ordinary
+					} else {
+						r = Critical
+					}
 				} else {
-					r = Critical
+					w := m.RowMate[u]
+					if a.freeColReach[v] || a.freeRowReach[u] || w >= 0 && a.h.Of[v] == a.h.Of[w] {
+						r = Ordinary
+					} else {
+						r = Redundant
+					}
 				}
-			} else {
-				w := m.RowMate[u]
-				if a.freeColReach[v] || a.freeRowReach[u] || w >= 0 && a.h.Of[v] == a.h.Of[w] {
-					r = Ordinary
-				} else {
-					r = Redundant
-				}
+				roles[lo+int64(i)] = r
 			}
-			roles[lo+int64(i)] = r
 		}
 	}
+	if g.Edges() < parallelEdges || runtime.GOMAXPROCS(0) < 2 {
+		fill(0, n)
+		return roles
+	}
+	half := int64(len(g.out.Adj)) / 2
+	mid := sort.Search(n, func(u int) bool { return g.out.Ptr[u] >= half })
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		fill(mid, n)
+	}()
+	fill(0, mid)
+	<-done
 	return roles
 }
 
