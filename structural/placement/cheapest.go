@@ -2,6 +2,7 @@ package placement
 
 import (
 	"cmp"
+	"math/bits"
 	"slices"
 
 	"github.com/netsteer/netsteer/matching"
@@ -66,13 +67,8 @@ func (p *placer) cheapestFree(m *matching.Matching) {
 			}
 		}
 	}
+	sortByCost(reach, inReach, p.w)
 	inReach = nil
-	slices.SortFunc(reach, func(a, b int32) int {
-		if c := cmp.Compare(p.w[a], p.w[b]); c != 0 {
-			return c
-		}
-		return cmp.Compare(a, b)
-	})
 	parent := make([]int32, n)
 	queue := make([]int32, 0, 1024)
 	for _, s := range reach {
@@ -127,5 +123,57 @@ func (p *placer) cheapestFree(m *matching.Matching) {
 		colMate[s] = -1
 		mark[s] = added
 		tokens--
+	}
+}
+
+// sortByCost puts the states marked in mark, listed in list, in order of
+// increasing w, ties by increasing index. When a cost and an index fit in
+// 64 bits together, the pairs are packed into keys and radix-sorted
+// (16-bit digits), which on 10^7 states takes a fraction of a comparison
+// sort's time.
+func sortByCost(list []int32, mark []bool, w []int64) {
+	n := len(mark)
+	var maxW int64
+	for _, v := range list {
+		maxW = max(maxW, w[v])
+	}
+	shift := bits.Len(uint(n))
+	if bits.Len64(uint64(maxW))+shift > 64 {
+		slices.SortFunc(list, func(a, b int32) int {
+			if c := cmp.Compare(w[a], w[b]); c != 0 {
+				return c
+			}
+			return cmp.Compare(a, b)
+		})
+		return
+	}
+	keys := make([]uint64, 0, len(list))
+	for v := 0; v < n; v++ {
+		if mark[v] {
+			keys = append(keys, uint64(w[v])<<shift|uint64(v))
+		}
+	}
+	buf := make([]uint64, len(keys))
+	var count [1 << 16]int
+	for d := 0; d < bits.Len64(uint64(maxW)<<shift|uint64(n)); d += 16 {
+		clear(count[:])
+		for _, k := range keys {
+			count[k>>d&0xffff]++
+		}
+		sum := 0
+		for i, c := range count {
+			count[i] = sum
+			sum += c
+		}
+		for _, k := range keys {
+			x := k >> d & 0xffff
+			buf[count[x]] = k
+			count[x]++
+		}
+		keys, buf = buf, keys
+	}
+	mask := uint64(1)<<shift - 1
+	for i, k := range keys {
+		list[i] = int32(k & mask)
 	}
 }

@@ -1,8 +1,10 @@
 package placement
 
 import (
+	"cmp"
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"github.com/netsteer/netsteer/structural"
@@ -67,6 +69,45 @@ func TestCheapestFreeMatchesClassGreedy(t *testing.T) {
 				t.Errorf("%s %s: feasible %v cost %v with %d added; class by class: %v, %v with %d",
 					label, c.what, c.got.Feasible, c.got.Cost, c.got.Added.Len(), c.ref.Feasible, c.ref.Cost, c.ref.Added.Len())
 			}
+		}
+	}
+}
+
+// sortByCost orders by cost, then index, as a comparison sort does
+// (slices.SortFunc, the standard library, is the reference), with small
+// costs (packed radix keys) and costs too large to pack.
+func TestSortByCost(t *testing.T) {
+	rng := rand.New(rand.NewPCG(2, 2))
+	for trial := 0; trial < 100; trial++ {
+		n := 1 + rng.IntN(3000)
+		w := make([]int64, n)
+		big := trial%4 == 0
+		for v := range w {
+			if big {
+				w[v] = rng.Int64N(1 << 60)
+			} else {
+				w[v] = rng.Int64N(50)
+			}
+		}
+		mark := make([]bool, n)
+		var list []int32
+		for v := range mark {
+			if rng.IntN(3) > 0 {
+				mark[v] = true
+				list = append(list, int32(v))
+			}
+		}
+		rng.Shuffle(len(list), func(i, j int) { list[i], list[j] = list[j], list[i] })
+		want := slices.Clone(list)
+		slices.SortFunc(want, func(a, b int32) int {
+			if c := cmp.Compare(w[a], w[b]); c != 0 {
+				return c
+			}
+			return cmp.Compare(a, b)
+		})
+		sortByCost(list, mark, w)
+		if !slices.Equal(list, want) {
+			t.Fatalf("trial %d: %v, want %v", trial, list, want)
 		}
 	}
 }

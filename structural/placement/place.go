@@ -93,7 +93,7 @@ func (pl *Placement) IsAdded(v int32) bool {
 //     found unable to move are never searched again.
 //  2. Node potentials for this optimal flow come from one pass over the
 //     alternating paths (the cost of the most expensive uncovered state
-//     that reaches each state).
+//     that reaches each state), when step 3 or Roles needs them.
 //  3. Each source component k then sends one mandatory unit through an
 //     arc of cost c(v) into one of its allowed states v. Components already
 //     holding an uncovered allowed state take it at no cost; the others are
@@ -301,7 +301,6 @@ func (p *placer) actuated(v int32) bool {
 func (p *placer) solve() *raw {
 	p.components()
 	p.greedy()
-	p.potentials()
 	p.route()
 	return p.result()
 }
@@ -470,6 +469,9 @@ func (p *placer) greedy() {
 // alternating paths (0 if none), a row's the largest potential among the
 // columns it could take instead of its mate.
 func (p *placer) potentials() {
+	if p.pot != nil {
+		return
+	}
 	g, n := p.g, p.n
 	p.pot = make([]int64, 2*n+1+p.nsrc)
 	roots := make([]int32, 0)
