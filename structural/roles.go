@@ -2,6 +2,7 @@ package structural
 
 import (
 	"runtime"
+	"slices"
 	"sort"
 )
 
@@ -55,38 +56,38 @@ type alternating struct {
 // columns reached by even alternating paths from unmatched columns (the
 // states some maximum matching leaves unmatched), the rows reached likewise
 // from unmatched rows, and the strongly connected components of the
-// digraph on columns with an arc v -> RowMate[u] for every edge u -> v
-// outside m (its cycles are the alternating cycles of m). Time O(N + E):
-// two breadth-first searches and one components pass over that digraph,
-// which is read through the matching and never built.
+// digraph on the other columns (neither reached from a free column nor
+// matched to a row reached from a free row) with an arc v -> RowMate[u]
+// for every edge u -> v outside m (its cycles are the alternating cycles
+// of m; the columns left out are components of their own). Time O(N + E):
+// two breadth-first searches, at the same time, and one components pass
+// over that digraph, which is read through the matching and never built.
 func (g *Network) alternating() *alternating {
 	g.altOnce.Do(func() {
 		m := g.Matching()
 		n := g.N()
 		a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
-		// The components need only the matching: on another goroutine
-		// while the two searches run.
-		hDone := make(chan struct{})
+		// The two searches are independent: one on another goroutine.
+		colDone := make(chan struct{})
 		go func() {
-			defer close(hDone)
-			a.h = sccThrough(&g.in, m.RowMate)
-		}()
-		queue := make([]int32, 0, 64)
-		for v := 0; v < n; v++ {
-			if m.ColMate[v] < 0 {
-				a.freeColReach[v] = true
-				queue = append(queue, int32(v))
-			}
-		}
-		for h := 0; h < len(queue); h++ {
-			for _, u := range g.in.Row(queue[h]) {
-				if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
-					a.freeColReach[x] = true
-					queue = append(queue, x)
+			defer close(colDone)
+			queue := make([]int32, 0, 64)
+			for v := 0; v < n; v++ {
+				if m.ColMate[v] < 0 {
+					a.freeColReach[v] = true
+					queue = append(queue, int32(v))
 				}
 			}
-		}
-		queue = queue[:0]
+			for h := 0; h < len(queue); h++ {
+				for _, u := range g.in.Row(queue[h]) {
+					if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
+						a.freeColReach[x] = true
+						queue = append(queue, x)
+					}
+				}
+			}
+		}()
+		queue := make([]int32, 0, 64)
 		for u := 0; u < n; u++ {
 			if m.RowMate[u] < 0 {
 				a.freeRowReach[u] = true
@@ -101,7 +102,25 @@ func (g *Network) alternating() *alternating {
 				}
 			}
 		}
-		<-hDone
+		<-colDone
+		// The components are needed only for edges u -> v with neither v
+		// reached from a free column nor u from a free row. The columns
+		// reached from free columns are closed under the digraph's arcs,
+		// and the mates of rows reached from free rows under its reversed
+		// arcs, so no cycle joins either set to the other columns: the
+		// components are taken among the remaining columns only (the
+		// square part of the Dulmage–Mendelsohn decomposition), each
+		// skipped column left a component of its own.
+		skip := a.freeColReach
+		if len(queue) > 0 {
+			skip = slices.Clone(a.freeColReach)
+			for u, r := range a.freeRowReach {
+				if x := m.RowMate[u]; r && x >= 0 {
+					skip[x] = true
+				}
+			}
+		}
+		a.h = sccThrough(&g.in, m.RowMate, skip)
 		a.hSize = make([]int32, a.h.Count)
 		for _, c := range a.h.Of {
 			a.hSize[c]++
