@@ -43,6 +43,21 @@ func Maximum(g, gt *CSR) *Matching {
 	return m
 }
 
+// Augment grows m, a matching of g, to a maximum matching of g by the
+// augmenting searches of Maximum (without its Karp–Sipser start), updates
+// m.Size and returns the number of pairs added. Pairs of m stay matched
+// rows and columns: an augmentation never leaves a matched vertex free. gt
+// must be the transpose of g or nil. It suits a matching that is nearly
+// maximum already, such as a maximum matching of a subgraph.
+func Augment(g, gt *CSR, m *Matching) int {
+	if gt == nil {
+		gt = Transpose(g)
+	}
+	k := augment(g, gt, m)
+	m.Size += k
+	return k
+}
+
 // karpSipser fills m with a greedy matching: a vertex with exactly one free
 // neighbour is matched to it (an optimal choice), and when none is left the
 // next free row takes the free column with the fewest free neighbours.

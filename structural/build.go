@@ -2,6 +2,7 @@ package structural
 
 import (
 	"errors"
+	"runtime"
 	"slices"
 
 	"github.com/netsteer/netsteer/matching"
@@ -82,6 +83,10 @@ func (b *Builder) Grow(n int) {
 		b.newSegment(n)
 	}
 }
+
+// releaseEdges is the number of added edges from which Build collects them
+// as soon as the rows are built (about 32 MiB of them).
+const releaseEdges = 1 << 22
 
 // segment is a run of edges.
 type segment struct {
@@ -247,6 +252,13 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	outPtr, outAdj, outW := sortBySource(n, m, src, dst, w)
 	<-inDone
 	src, dst, w, segs = nil, nil, nil, nil
+	if m >= releaseEdges {
+		// The edges as added (8 bytes each, 16 with weights) are garbage
+		// now. Collecting them at once lets the arrays of the matching and
+		// components that follow reuse their memory instead of growing
+		// the process by as much before the next collection would come.
+		runtime.GC()
+	}
 	// Merge repeats in place.
 	merged, loops := 0, 0
 	var q int64

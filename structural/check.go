@@ -104,7 +104,8 @@ type Dilation struct {
 // reached by alternating paths from one unmatched row: every column those
 // rows touch is matched (else the matching would not be maximum) to another
 // reached row, so the neighbour set has exactly one member fewer. Time is
-// that of one matching, plus Dimension when the design fails.
+// that of one matching (the search for the reached states runs beside it
+// on another goroutine), plus Dimension when the design fails.
 func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	if !d.Of(g) {
 		return nil, ErrForeignDesign
@@ -113,7 +114,18 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	inputs := d.signals
 	n := h.N()
 	vd := &Verdict{Property: p, Signals: len(inputs), n: n}
-	reached, nR := reach(h, inputs)
+	// Reachability and the matching of [A B] are independent: the search
+	// runs on another goroutine meanwhile.
+	var reached []bool
+	var nR int
+	reachDone := make(chan struct{})
+	go func() {
+		defer close(reachDone)
+		reached, nR = reach(h, inputs)
+	}()
+	b := inNeighbourCSR(h, inputs)
+	m := h.designMatching(inputs, b)
+	<-reachDone
 	var unreached []int32
 	if nR < n {
 		unreached = make([]int32, 0, n-nR)
@@ -124,8 +136,6 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 		}
 	}
 	vd.Unreached = g.States(unreached)
-	b := inNeighbourCSR(h, inputs)
-	m := matching.Maximum(b, nil)
 	vd.TermRank = m.Size
 	vd.from = m.RowMate
 	if m.Size < n {
@@ -135,7 +145,7 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	if vd.Holds {
 		vd.Dimension = n
 	} else {
-		dim, err := dimension(h, inputs, reached, nR, m)
+		dim, err := dimension(h, inputs, reached, nR, b, m)
 		if err != nil {
 			return nil, err
 		}
@@ -206,6 +216,32 @@ func inNeighbourCSR(g *Network, inputs [][]int32) *matching.CSR {
 		}
 	}
 	return b
+}
+
+// inNeighbourCSRT returns the transpose of inNeighbourCSR(g, inputs), as
+// matching.Transpose would build it, by copying the out-rows (row u lists
+// the states u acts on) and adding one row per input (the states it
+// drives, in increasing order, each once): sequential copies instead of a
+// scatter over every edge.
+func inNeighbourCSRT(g *Network, inputs [][]int32) *matching.CSR {
+	n := g.N()
+	t := &matching.CSR{Rows: n + len(inputs), Cols: n, Ptr: make([]int64, n+len(inputs)+1)}
+	copy(t.Ptr, g.out.Ptr)
+	rows := make([][]int32, len(inputs))
+	extra := 0
+	for i, in := range inputs {
+		r := slices.Clone(in)
+		slices.Sort(r)
+		rows[i] = slices.Compact(r)
+		extra += len(rows[i])
+		t.Ptr[n+i+1] = t.Ptr[n+i] + int64(len(rows[i]))
+	}
+	t.Adj = make([]int32, 0, len(g.out.Adj)+extra)
+	t.Adj = append(t.Adj, g.out.Adj...)
+	for _, r := range rows {
+		t.Adj = append(t.Adj, r...)
+	}
+	return t
 }
 
 // dilationWitness grows the alternating tree of the first unmatched row of

@@ -1,6 +1,7 @@
 package structural_test
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"slices"
 	"testing"
@@ -323,4 +324,92 @@ func TestTransposeWeights(t *testing.T) {
 	if tg.Name(0) != "1" || tg.N() != 3 {
 		t.Errorf("names not shared: %q", tg.Name(0))
 	}
+}
+
+// The transpose of the [A B] graph built from the out-rows is the one
+// matching.Transpose builds (same rows in the same order), so the matching
+// and the witnesses of Check do not depend on which is used.
+func TestInNeighbourTranspose(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 9))
+	for trial := 0; trial < 200; trial++ {
+		n := 1 + rng.IntN(30)
+		g := testnet.Random(t, rng, n, 0.1+0.3*rng.Float64())
+		var inputs [][]int32
+		for i := rng.IntN(4); i > 0; i-- {
+			var in []int32
+			for j := rng.IntN(4); j >= 0; j-- {
+				in = append(in, int32(rng.IntN(n))) // repeats allowed
+			}
+			inputs = append(inputs, in)
+		}
+		want := matching.Transpose(structural.InNeighbourCSR(g, inputs))
+		got := structural.InNeighbourCSRT(g, inputs)
+		if fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Fatalf("trial %d: transpose\n%v\nwant\n%v", trial, got, want)
+		}
+	}
+}
+
+// The matching of [A B] is kept for the design last asked: Check and
+// DesignMatching of the same design share it, another design gets its
+// own, and its size is the term rank (a maximum matching; plain Kuhn
+// augmentation on the same graph is the independent route).
+func TestDesignMatchingKept(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 2))
+	for trial := 0; trial < 50; trial++ {
+		n := 2 + rng.IntN(40)
+		g := testnet.Random(t, rng, n, 2/float64(n))
+		a := testnet.Design(t, g, [][]int32{{int32(rng.IntN(n))}, {int32(rng.IntN(n)), int32(rng.IntN(n))}})
+		b := testnet.Design(t, g, [][]int32{{int32(rng.IntN(n))}})
+		for _, p := range []structural.Property{structural.Controllability, structural.Observability} {
+			v, err := structural.Check(g, p, a)
+			if err != nil {
+				t.Fatal(err)
+			}
+			m1, _ := structural.DesignMatching(g, p, a)
+			m2, _ := structural.DesignMatching(g, p, a)
+			mb, _ := structural.DesignMatching(g, p, b)
+			m3, _ := structural.DesignMatching(g, p, a)
+			if m1 != m2 || m1 == mb || m3 == m1 || m1.Size != v.TermRank || m3.Size != v.TermRank {
+				t.Fatalf("trial %d %v: kept %p %p, other design %p, again %p; sizes %d %d, term rank %d", trial, p, m1, m2, mb, m3, m1.Size, m3.Size, v.TermRank)
+			}
+			h := g
+			if p == structural.Observability {
+				h = g.Transpose()
+			}
+			if k := kuhnSize(structural.InNeighbourCSR(h, a.Signals())); k != m1.Size {
+				t.Fatalf("trial %d %v: matching %d, Kuhn %d", trial, p, m1.Size, k)
+			}
+		}
+	}
+}
+
+// kuhnSize is the size of a maximum matching of b by plain augmenting
+// paths (Kuhn 1955), from memory.
+func kuhnSize(b *matching.CSR) int {
+	colMate := make([]int32, b.Cols)
+	for i := range colMate {
+		colMate[i] = -1
+	}
+	var try func(r int32, seen []bool) bool
+	try = func(r int32, seen []bool) bool {
+		for _, c := range b.Row(r) {
+			if seen[c] {
+				continue
+			}
+			seen[c] = true
+			if colMate[c] < 0 || try(colMate[c], seen) {
+				colMate[c] = r
+				return true
+			}
+		}
+		return false
+	}
+	size := 0
+	for r := 0; r < b.Rows; r++ {
+		if try(int32(r), make([]bool, b.Cols)) {
+			size++
+		}
+	}
+	return size
 }

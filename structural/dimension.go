@@ -2,6 +2,7 @@ package structural
 
 import (
 	"math"
+	"slices"
 
 	"github.com/netsteer/netsteer/matching"
 )
@@ -21,235 +22,169 @@ import (
 // that start at an uncovered state: u -> x1, x1 -> x2, x1 -> x3,
 // x2 -> x4, x3 -> x5 has term rank 4 but dimension 3.
 //
-// The largest cover is a minimum-cost flow. Every state v in R is split
-// into v_out (supply 1) and v_in (demand 1), joined by an arc of cost 1
-// ("v uncovered"); an edge v -> w inside R is an arc v_out -> w_in; a hub
-// T takes arcs v_out -> T (a stem ends at v) and gives T -> i (capacity 1)
-// for each input i, with i -> w_in for each state w that input i drives.
-// All other arcs cost 0. In an integral flow every covered state has one
-// predecessor (a covered state or an input) and one successor (a covered
-// state or the hub), and the hub balances stem ends against used inputs,
-// so the flow is a family of cycles and stems, and its cost is the number
-// of uncovered states: dimension = |R| - minimum cost.
+// The largest cover is a minimum-cost assignment. Rows are the states of
+// R, each needing one feeder; columns are the states of R and the inputs,
+// each feeding at most one row. Row w may take column v for an edge
+// v -> w inside R and column i for an input i driving w, at cost 0, or its
+// own column at cost 1: w is then uncovered, and its own column feeds
+// nobody else. In an assignment of every row, the covered states each
+// have one feeder (a covered state or an input) and at most one successor
+// (a covered state), so they form cycles and paths; a path cannot start at
+// a state, whose column would then be its own, so every path starts at an
+// input: the covered states are a family of cycles and stems, and the cost
+// counts the uncovered states, so dimension = |R| - minimum cost. (The
+// columns left free are the stem ends and the unused inputs.)
 //
-// The flow starts from a maximum matching (all zero-cost arcs) and is
-// completed by successive shortest paths in phases: Dial's buckets on
-// reduced costs give the next distance, then depth-first passes with
-// lookahead augment vertex-disjoint paths along zero-reduced-cost arcs.
-// Before every pass a backward search from the deficits (dimension_live.go)
-// marks the nodes that can still reach one; the pass never enters the
-// others, skips those that reach one only through the hub once the hub is
-// on the path or used up, and the phase ends when no source is live. Costs
-// are 0 or 1 and the optimum is at most |R|, so the path cost rises at
-// every phase and there are O(sqrt |R|) phases; each pass, each backward
-// search and each Dial sweep is O(N + E + the input entries). A v_in has a
-// single residual arc out, so it is contracted away; the residual network
-// is implicit in a few int32 arrays over states and inputs, and every
-// traversal is iterative. On a random network of 10^6 states and 2*10^6
-// edges judged with half of a minimum design, the flow takes 7 phases; the
-// passes, which used to sweep the whole zero-cost region about 26 times,
-// now visit about 2.5*10^6 nodes in all.
+// The assignment starts from a maximum matching of [A B] restricted to R
+// (all cost-0 choices) and is completed by successive shortest augmenting
+// paths from the rows still without a feeder, in levels: a multi-source
+// Dial search on reduced costs gives the next distance and raises the
+// potentials so that the shortest paths become admissible (reduced cost
+// 0); then every row still without a feeder is searched once,
+// breadth-first along admissible arcs, and augmented at once when the
+// search finds a free column. A search that fails proves that every row it
+// visited can reach no free column admissibly, and augmenting elsewhere
+// never changes that while the potentials stay (the arcs that change lie
+// on augmenting paths, whose rows could reach one): those rows are marked
+// dead and never entered again in the level, so the failing searches of a
+// level together scan each arc once. Costs are 0 and 1 and the optimum is
+// at most |R|, so the distance rises at every level and there are
+// O(sqrt |R|) levels (in practice a handful: on directed Erdős–Rényi
+// networks with <k> = 10 judged with half of a minimum design, 3 or 4);
+// each Dial search is O(N + E + the input entries), and so are the failing
+// searches of a level. Each column has a single residual arc (to the row
+// it feeds, or out when free), so it is contracted away: the residual
+// network is implicit in a few int32 arrays over the states and inputs,
+// and every traversal is iterative.
 func Dimension(g *Network, p Property, d Design) (int, error) {
 	if !d.Of(g) {
 		return 0, ErrForeignDesign
 	}
 	h := g.on(p)
 	n := h.N()
-	reached, nR := reach(h, d.signals)
+	var reached []bool
+	var nR int
+	reachDone := make(chan struct{})
+	go func() {
+		defer close(reachDone)
+		reached, nR = reach(h, d.signals)
+	}()
 	b := inNeighbourCSR(h, d.signals)
-	m := matching.Maximum(b, nil)
+	m := h.designMatching(d.signals, b)
+	<-reachDone
 	if nR == n && m.Size == n {
 		return n, nil
 	}
-	return dimension(h, d.signals, reached, nR, m)
+	return dimension(h, d.signals, reached, nR, b, m)
 }
 
-// Flow records. For a state v, succ is where v_out sends its unit and pred
-// where v_in gets its unit from: a state (>= 0), nothing yet (flowNone: a
-// source for succ, a deficit for pred), the hub (succ only), v itself
-// through the "uncovered" arc (flowSelf), or input i (pred = predInput-i).
-// For input i, succ is the state it feeds, or flowNone.
+// Assignment records. For the row of state w, pred is the column feeding
+// it: state v (0 <= v < n), input i (n+i), coverSelf (w is uncovered) or
+// coverNone (a row still without a feeder). For the column of state v,
+// succ is the row it feeds, coverSelf (v is uncovered) or coverNone (free);
+// for input i, inSucc[i] likewise (never coverSelf).
 const (
-	flowNone   = -1
-	flowHub    = -2
-	flowSelf   = -3
-	predInput  = -4
+	coverNone  = -1
+	coverSelf  = -2
 	infinity32 = math.MaxInt32
 )
 
-// Kinds of residual arcs.
+// coverNode is what a search reads for every arc into a row, kept together
+// so that following an arc touches one cache line: the row's potential and
+// visit stamp, and the column of the same state (whose mate the arcs
+// through it lead to).
+type coverNode struct {
+	pred  int32 // the row's feeder (see the records)
+	succ  int32 // the row the state's column feeds
+	q     int32 // potential: the reduced cost c + q[x] - q[y] is >= 0
+	stamp int32 // search of the last visit, or -level when dead
+}
+
+// cover is the residual network of the assignment, contracted to the rows.
+// An arc from row x leads through a column c that x may take to the row c
+// feeds now (which must then find another feeder), or out of the network
+// when c is free. Free columns keep potential 0 throughout.
+type cover struct {
+	g        *Network
+	n        int32
+	inR      []bool
+	node     []coverNode
+	inSucc   []int32 // per input: the row it feeds, or coverNone
+	inPtr    []int64 // inputs driving each state w: inputsOf[inPtr[w]:inPtr[w+1]]
+	inputsOf []int32
+	inputs   [][]int32
+	dist     []int32 // Dial distances, infinity32 outside a search
+	parent   []int32 // the row a search came from
+	via      []int32 // the column the parent takes (state, n+i, or viaSelf)
+	level    int32   // potentials' generation; stamp -level marks dead rows
+	search   int32
+	visited  []int32
+	queue    []int32
+	hot      []int32
+	touched  []int32
+	buckets  [][]int32
+}
+
+// viaSelf marks the arc by which a row takes its own column at cost 1.
+const viaSelf = -1
+
+// arcEnd is where an arc of the contracted network leads: a row (>= 0),
+// out through a free column (arcOut), or nowhere (arcNone: the arc is not
+// residual, or leads back to its tail).
 const (
-	arcNone = iota // no residual capacity
-	arcNode        // to a node
-	arcSink        // into a deficit v_in
+	arcOut  = -1
+	arcNone = -2
 )
 
-// flowNode holds what is read for every arc into a node, kept together so
-// that following an arc touches one cache line.
-type flowNode struct {
-	pred  int32 // states: who feeds v_in (see the flow records)
-	q     int32 // potential: the reduced cost c + q[x] - q[y] is >= 0
-	stamp int32 // search of the last visit, or -phase when dead
-	dist  int32 // tentative distance in the current phase, or infinity32
-}
-
-// coverFlow is the residual network of the cover flow, contracted: a v_in
-// has exactly one residual arc out (back to whoever feeds it, or to the
-// sink when it is a deficit), so an arc into v_in is followed through at
-// once. Nodes are v_out = v (0..n-1), input i = n+i, and the hub T = n+m.
-// Deficits keep potential 0 throughout, as in the uncontracted network.
-type coverFlow struct {
-	g      *Network
-	inputs [][]int32
-	n, hub int32
-	node   []flowNode
-	succ   []int32 // where each v_out (and each input) sends its unit
-	cur    []int32 // descent cursor of each node in the current pass
-	look   []int32 // lookahead cursor of each node for the current potentials
-	hubs   []int32 // states that may have succ == flowHub (stale ones skipped)
-	inR    []bool  // the reached states
-	// hubOnly marks the live nodes that reach a deficit only through the
-	// hub; a pass skips them once the hub is on the path or used up.
-	hubOnly []bool
-	plain   bool // a pass without that shortcut
-	// inputsOf lists the inputs driving each state w at
-	// inputsOf[inPtr[w]:inPtr[w+1]].
-	inPtr    []int64
-	inputsOf []int32
-	// The hub is the one node that several paths of a pass may share: its
-	// cursor lives here and is reset every pass.
-	hubCur    int64
-	hubOnPath bool
-	pass      int32
-	search    int32 // number of the current search (stamps)
-	passStart int32 // number of the first search of the current pass
-	phase     int32 // potentials' generation; stamp -phase marks dead nodes
-	hubFirst  int32 // search that first entered the hub in this pass, or 0
-	hubDead   int32 // phase in which the hub was found dead
-	unknown   bool  // the current search met a node of an earlier search
-	visited   []int32
-	touched   []int32
-	buckets   [][]int32
-	stack     []int32
-	pos       []int64
-}
-
-// rangeLen returns the number of arc positions of node x.
-func (f *coverFlow) rangeLen(x int32) int64 {
-	switch {
-	case x < f.n:
-		return f.g.out.Ptr[x+1] - f.g.out.Ptr[x] + 2
-	case x < f.hub:
-		return int64(len(f.inputs[x-f.n])) + 1
+// throughState follows the arc of row x through the column of state c:
+// where it leads and its cost. The column must be one x may take (c acts
+// on x inside R).
+func (f *cover) throughState(x, c int32) (int32, int32) {
+	if f.node[x].pred == c {
+		return arcNone, 0
 	}
-	return int64(len(f.inputs)) + int64(len(f.hubs))
-}
-
-// through follows an arc of cost c into w_in on along w_in's only residual
-// arc.
-func (f *coverFlow) through(w, c int32) (int32, int32, int) {
-	switch p := f.node[w].pred; {
-	case p >= 0:
-		return p, c, arcNode
-	case p == flowNone:
-		return -1, c, arcSink
-	case p == flowSelf:
-		return w, c - 1, arcNode
+	switch s := f.node[c].succ; s {
+	case coverNone:
+		return arcOut, 0
+	case coverSelf:
+		if c == x {
+			return arcNone, 0
+		}
+		return c, -1 // c's row loses its own column: c is covered again
 	default:
-		return f.n + (predInput - p), c, arcNode
+		return s, 0
 	}
 }
 
-// arc returns the head, the original cost and the kind of the residual arc
-// at position pos of node x.
-func (f *coverFlow) arc(x int32, pos int64) (int32, int32, int) {
-	switch {
-	case x < f.n: // v_out: its edges, then "uncovered", then the hub
-		lo, hi := f.g.out.Ptr[x], f.g.out.Ptr[x+1]
-		s := f.succ[x]
-		switch {
-		case pos < hi-lo:
-			w := f.g.out.Adj[lo+pos]
-			if s == w {
-				return 0, 0, arcNone
-			}
-			return f.through(w, 0)
-		case pos == hi-lo:
-			if s == flowSelf {
-				return 0, 0, arcNone
-			}
-			return f.through(x, 1)
-		}
-		if s == flowHub {
-			return 0, 0, arcNone
-		}
-		return f.hub, 0, arcNode
-	case x < f.hub: // input: the states it drives, then back to the hub
-		in := f.inputs[x-f.n]
-		s := f.succ[x]
-		if pos < int64(len(in)) {
-			w := in[pos]
-			if s == w {
-				return 0, 0, arcNone
-			}
-			return f.through(w, 0)
-		}
-		if s == flowNone {
-			return 0, 0, arcNone
-		}
-		return f.hub, 0, arcNode
+// throughInput follows the arc of row x through input column n+i.
+func (f *cover) throughInput(x, i int32) (int32, int32) {
+	if f.node[x].pred == f.n+i {
+		return arcNone, 0
 	}
-	// The hub: unused inputs, then back to the stem ends.
-	m := int64(len(f.inputs))
-	if pos < m {
-		y := f.n + int32(pos)
-		if f.succ[y] != flowNone {
-			return 0, 0, arcNone
-		}
-		return y, 0, arcNode
+	if s := f.inSucc[i]; s != coverNone {
+		return s, 0
 	}
-	v := f.hubs[pos-m]
-	if f.succ[v] != flowHub {
-		return 0, 0, arcNone
-	}
-	return v, 0, arcNode
+	return arcOut, 0
 }
 
-// apply records that the augmenting path leaves node x by its arc at pos.
-// Entering a node cancels its old flow implicitly: the leaving arc
-// overwrites the record, and the v_in passed through gets its new feeder.
-func (f *coverFlow) apply(x int32, pos int64) {
-	switch {
-	case x < f.n:
-		lo, hi := f.g.out.Ptr[x], f.g.out.Ptr[x+1]
-		switch {
-		case pos < hi-lo:
-			w := f.g.out.Adj[lo+pos]
-			f.succ[x] = w
-			f.node[w].pred = x
-		case pos == hi-lo:
-			f.succ[x] = flowSelf
-			f.node[x].pred = flowSelf
-		default:
-			f.succ[x] = flowHub
-			f.hubs = append(f.hubs, x)
-		}
-	case x < f.hub:
-		i := x - f.n
-		in := f.inputs[i]
-		if pos < int64(len(in)) {
-			w := in[pos]
-			f.succ[x] = w
-			f.node[w].pred = predInput - i
-		} else {
-			f.succ[x] = flowNone
-		}
+// throughOwn follows the arc by which row x takes its own column (cost 1).
+func (f *cover) throughOwn(x int32) (int32, int32) {
+	if f.node[x].pred == coverSelf {
+		return arcNone, 0
+	}
+	switch s := f.node[x].succ; {
+	case s == coverNone:
+		return arcOut, 1
+	case s == x:
+		return arcNone, 0 // covered by its own loop already
+	default:
+		return s, 1
 	}
 }
 
 // dimension computes the largest stem-cycle cover on the reached states,
-// starting from m, a maximum matching of inNeighbourCSR(g, inputs).
-func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Matching) (int, error) {
+// starting from m, a maximum matching of b = inNeighbourCSR(g, inputs).
+func dimension(g *Network, inputs [][]int32, inR []bool, nR int, b *matching.CSR, m *matching.Matching) (int, error) {
 	n := g.N()
 	if nR == 0 {
 		return 0, nil
@@ -257,14 +192,12 @@ func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Mat
 	if int64(n)+1+int64(len(inputs)) > math.MaxInt32/2 || nR > math.MaxInt32/4 {
 		return 0, &TooLargeError{What: "the controllable dimension", States: n, Limit: math.MaxInt32 / 4}
 	}
-	size := n + len(inputs) + 1
-	f := &coverFlow{g: g, inputs: inputs, n: int32(n), hub: int32(n + len(inputs)), phase: 1}
-	f.node = make([]flowNode, size)
-	f.succ = make([]int32, size)
-	f.cur = make([]int32, size)
-	f.look = make([]int32, size)
-	f.inR = inR
-	f.hubOnly = make([]bool, size)
+	f := &cover{g: g, n: int32(n), inR: inR, inputs: inputs, level: 1}
+	f.node = make([]coverNode, n)
+	f.inSucc = make([]int32, len(inputs))
+	f.dist = make([]int32, n)
+	f.parent = make([]int32, n)
+	f.via = make([]int32, n)
 	f.inPtr = make([]int64, n+1)
 	for _, in := range inputs {
 		for _, w := range in {
@@ -285,316 +218,442 @@ func dimension(g *Network, inputs [][]int32, inR []bool, nR int, m *matching.Mat
 	}
 	next = nil
 	for i := range f.node {
-		f.node[i] = flowNode{pred: flowNone, dist: infinity32}
-		f.succ[i] = flowNone
+		f.node[i] = coverNode{pred: coverNone, succ: coverNone}
+		f.dist[i] = infinity32
 	}
-	// Zero-cost start: the matching restricted to R. Rows are states
-	// needing a feeder; column c < n is a state, c >= n an input.
-	used := 0
+	for i := range f.inSucc {
+		f.inSucc[i] = coverNone
+	}
+	// Cost-0 start: a maximum matching of [A B] restricted to R. Rows are
+	// states needing a feeder; column c < n is a state, c >= n an input.
+	m = restrictedMatching(g, inputs, b, m, inR)
+	var open []int32
 	for w := 0; w < n; w++ {
-		c := m.RowMate[w]
-		if !inR[w] || c < 0 {
+		if !inR[w] {
 			continue
 		}
-		if int(c) < n {
-			if inR[c] {
-				f.node[w].pred, f.succ[c] = c, int32(w)
-			}
-			continue
+		switch c := m.RowMate[w]; {
+		case c >= int32(n):
+			f.node[w].pred, f.inSucc[c-int32(n)] = c, int32(w)
+		case c >= 0 && inR[c]:
+			f.node[w].pred, f.node[c].succ = c, int32(w)
+		default:
+			open = append(open, int32(w))
 		}
-		f.node[w].pred, f.succ[c] = predInput-(c-int32(n)), int32(w)
-		used++
 	}
-	// Each used input takes its unit from the hub, which takes it from a
-	// free v_out. There are enough: free outs = |R| - (rows matched to
-	// states) >= rows matched to inputs, since at most |R| rows are matched.
-	var sources []int32
-	for v := 0; v < n; v++ {
-		if !inR[v] || f.succ[v] != flowNone {
-			continue
+	// Levels: the next distance, then one search from every open row. The
+	// first level's potentials come from the free columns' side, whose
+	// cheap region is often far smaller than the open rows' one.
+	guessed := len(open) > 0 && f.nearPotentials()
+	for len(open) > 0 {
+		var d int32 = 1
+		if !guessed {
+			d = f.shortest(open)
 		}
-		if used > 0 {
-			f.succ[v] = flowHub
-			f.hubs = append(f.hubs, int32(v))
-			used--
-			continue
+		if d > 0 {
+			f.level++ // new potentials: earlier dead marks no longer hold
 		}
-		sources = append(sources, int32(v))
-	}
-	// Phases: shortest distances, then augmenting passes along admissible
-	// arcs until a pass finds no path.
-	stalled := false
-	for len(sources) > 0 {
-		if len(f.hubs) > 2*nR {
-			k := 0
-			for _, v := range f.hubs {
-				if f.succ[v] == flowHub {
-					f.hubs[k] = v
-					k++
-				}
-			}
-			f.hubs = f.hubs[:k]
+		if f.augment(open) == 0 && !guessed {
+			panic("structural: internal error: the cover assignment makes no progress")
 		}
-		if f.shortest(sources) == 0 && stalled {
-			panic("structural: internal error: the cover flow makes no progress")
-		}
-		before := len(sources)
-		for f.live(sources) {
-			if f.augment(sources) > 0 {
-				continue
-			}
-			// The pass that skips hub-only nodes found nothing although
-			// the hub is live: one plain pass decides.
-			f.plain = true
-			k := f.augment(sources)
-			f.plain = false
-			if k == 0 {
-				break
-			}
-		}
+		guessed = false
 		k := 0
-		for _, v := range sources {
-			if f.succ[v] == flowNone {
-				sources[k] = v
+		for _, w := range open {
+			if f.node[w].pred == coverNone {
+				open[k] = w
 				k++
 			}
 		}
-		sources = sources[:k]
-		stalled = len(sources) == before
+		open = open[:k]
 	}
 	uncovered := 0
 	for v := 0; v < n; v++ {
-		if inR[v] && f.succ[v] == flowSelf {
+		if inR[v] && f.node[v].pred == coverSelf {
 			uncovered++
 		}
 	}
 	return nR - uncovered, nil
 }
 
-// shortest runs Dial's algorithm on reduced costs from all sources until
-// the nearest deficit, at distance D, and raises the potentials: q[x] +=
-// min(dist[x], D) - D, which keeps every reduced cost non-negative and makes
-// the arcs of shortest paths admissible (reduced cost 0). When D > 0 it
-// also resets the lookahead cursors, which hold for one set of potentials.
-func (f *coverFlow) shortest(sources []int32) int32 {
+// restrictedMatching returns a maximum matching of the part of b on the
+// reached states (rows of R, columns of R and the inputs), from m, a maximum
+// matching of b: m itself when no row of R is matched to an unreached
+// state, else m without those pairs, completed by augmenting paths in the
+// restricted graph (a few, as the unreached part is closed under
+// in-neighbours and meets R only along its edges into R).
+func restrictedMatching(g *Network, inputs [][]int32, b *matching.CSR, m *matching.Matching, inR []bool) *matching.Matching {
+	n := int32(len(inR))
+	outside := func(c int32) bool { return c >= 0 && c < n && !inR[c] }
+	dropped := false
+	for w, c := range m.RowMate {
+		if inR[w] && outside(c) {
+			dropped = true
+			break
+		}
+	}
+	if !dropped {
+		return m
+	}
+	r := &matching.CSR{Rows: b.Rows, Cols: b.Cols, Ptr: make([]int64, b.Rows+1)}
+	for w := int32(0); w < n; w++ {
+		k := int64(0)
+		if inR[w] {
+			for _, c := range b.Row(w) {
+				if !outside(c) {
+					k++
+				}
+			}
+		}
+		r.Ptr[w+1] = r.Ptr[w] + k
+	}
+	r.Adj = make([]int32, 0, r.Ptr[n])
+	for w := int32(0); w < n; w++ {
+		if inR[w] {
+			for _, c := range b.Row(w) {
+				if !outside(c) {
+					r.Adj = append(r.Adj, c)
+				}
+			}
+		}
+	}
+	mr := &matching.Matching{RowMate: make([]int32, b.Rows), ColMate: make([]int32, b.Cols)}
+	for i := range mr.ColMate {
+		mr.ColMate[i] = -1
+	}
+	for w, c := range m.RowMate {
+		mr.RowMate[w] = -1
+		if c >= 0 && inR[w] && !outside(c) {
+			mr.RowMate[w], mr.ColMate[c] = c, int32(w)
+			mr.Size++
+		}
+	}
+	// The transpose, as inNeighbourCSRT builds it: the out-rows of the
+	// reached states restricted to R, then the inputs' rows.
+	t := &matching.CSR{Rows: b.Cols, Cols: b.Rows, Ptr: make([]int64, b.Cols+1)}
+	t.Adj = make([]int32, 0, len(r.Adj))
+	for c := int32(0); c < n; c++ {
+		if inR[c] {
+			for _, w := range g.out.Row(c) {
+				if inR[w] {
+					t.Adj = append(t.Adj, w)
+				}
+			}
+		}
+		t.Ptr[c+1] = int64(len(t.Adj))
+	}
+	for i, in := range inputs {
+		row := slices.Clone(in)
+		slices.Sort(row)
+		t.Adj = append(t.Adj, slices.Compact(row)...)
+		t.Ptr[int(n)+i+1] = int64(len(t.Adj))
+	}
+	matching.Augment(r, t, mr)
+	return mr
+}
+
+// nearPotentials sets the potentials of the first level from the free
+// columns' side, before any state is uncovered (no arc costs -1): rows that
+// reach a free column at cost 0 ("near" rows, found by one backward search
+// from the free columns) keep potential 0, and every other row of R gets
+// -1, which is min(t, 1) - 1 for t a row's distance to a free column. Every
+// reduced cost stays non-negative (a row with a cost-0 arc to a near row,
+// or to a free column, is near itself) and the paths of cost 1 become
+// admissible; if the distance of the open rows is 2 or more, no search of
+// the level succeeds and the next level's Dial search finds it. It reports
+// false when there are no free columns.
+func (f *cover) nearPotentials() bool {
 	nd := f.node
-	bound := int32(infinity32) // the best distance to a deficit so far
+	out := f.g.out
+	n := f.n
+	queue := f.queue[:0]
+	near := func(x int32) {
+		if f.inR[x] && nd[x].stamp != -1 {
+			nd[x].stamp = -1
+			queue = append(queue, x)
+		}
+	}
+	// A column leads rows it may feed to itself: the states it acts on,
+	// or those the input drives.
+	from := func(c int32) {
+		if c >= n {
+			for _, x := range f.inputs[c-n] {
+				near(x)
+			}
+			return
+		}
+		for _, x := range out.Adj[out.Ptr[c]:out.Ptr[c+1]] {
+			near(x)
+		}
+	}
+	free := 0
+	for c := int32(0); c < n; c++ {
+		if f.inR[c] && nd[c].succ == coverNone {
+			free++
+			from(c)
+		}
+	}
+	for i, s := range f.inSucc {
+		if s == coverNone {
+			free++
+			from(n + int32(i))
+		}
+	}
+	if free == 0 {
+		f.queue = queue
+		return false
+	}
+	// Backwards: x reaches near row y at cost 0 through y's feeder.
+	for k := 0; k < len(queue); k++ {
+		if c := nd[queue[k]].pred; c >= 0 {
+			from(c)
+		}
+	}
+	f.queue = queue
+	for x := range nd {
+		switch {
+		case nd[x].stamp == -1:
+			nd[x].stamp = 0
+		case f.inR[x]:
+			nd[x].q = -1
+		}
+	}
+	return true
+}
+
+// shortest runs Dial's algorithm on reduced costs from all open rows until
+// the nearest free column, at distance D, and raises the potentials: q[x]
+// += min(dist[x], D) - D, which keeps every reduced cost non-negative and
+// makes the arcs of shortest paths admissible (reduced cost 0). It
+// returns D.
+func (f *cover) shortest(open []int32) int32 {
+	nd := f.node
+	inAdj, inPtr := f.g.in.Adj, f.g.in.Ptr
+	bound := int32(infinity32) // the best distance out so far
 	push := func(x, d int32) {
-		if nd[x].dist == infinity32 {
+		if f.dist[x] == infinity32 {
 			f.touched = append(f.touched, x)
 		}
-		nd[x].dist = d
+		f.dist[x] = d
 		for int(d) >= len(f.buckets) {
 			f.buckets = append(f.buckets, nil)
 		}
 		f.buckets[d] = append(f.buckets[d], x)
 	}
-	for _, v := range sources {
-		push(v, 0)
+	// relax records the arc from x (at distance d) to y at cost c.
+	relax := func(x, d, y, c int32) {
+		switch y {
+		case arcNone:
+		case arcOut:
+			if t := d + c + nd[x].q; t < bound {
+				bound = t
+			}
+		default:
+			if t := d + c + nd[x].q - nd[y].q; t < f.dist[y] && t < bound {
+				push(y, t)
+			}
+		}
+	}
+	for _, w := range open {
+		push(w, 0)
 	}
 scan:
 	for d := int32(0); int(d) < len(f.buckets); d++ {
 		for i := 0; i < len(f.buckets[d]); i++ {
 			if d >= bound {
-				break scan // every node nearer than the deficit is final
+				break scan // every row nearer than the way out is final
 			}
 			x := f.buckets[d][i]
-			if nd[x].dist != d {
+			if f.dist[x] != d {
 				continue // a stale entry: x was pushed again nearer
 			}
-			base := d + nd[x].q
-			end := f.rangeLen(x)
-			for p := int64(0); p < end; p++ {
-				y, c, kind := f.arc(x, p)
-				switch kind {
-				case arcSink:
-					if base+c < bound {
-						bound = base + c
-					}
-				case arcNode:
-					if t := base + c - nd[y].q; t < nd[y].dist && t < bound {
-						push(y, t)
-					}
+			for _, c := range inAdj[inPtr[x]:inPtr[x+1]] {
+				if f.inR[c] {
+					y, cost := f.throughState(x, c)
+					relax(x, d, y, cost)
 				}
 			}
+			for _, i := range f.inputsOf[f.inPtr[x]:f.inPtr[x+1]] {
+				y, cost := f.throughInput(x, i)
+				relax(x, d, y, cost)
+			}
+			y, cost := f.throughOwn(x)
+			relax(x, d, y, cost)
 		}
 	}
 	if bound == infinity32 {
-		panic("structural: internal error: no augmenting path in the cover flow")
+		panic("structural: internal error: no augmenting path in the cover assignment")
 	}
 	for _, x := range f.touched {
-		if d := nd[x].dist; d < bound {
+		if d := f.dist[x]; d < bound {
 			nd[x].q += d - bound
 		}
-		nd[x].dist = infinity32
+		f.dist[x] = infinity32
 	}
 	f.touched = f.touched[:0]
 	for i := range f.buckets {
 		f.buckets[i] = f.buckets[i][:0]
 	}
-	if bound > 0 {
-		clear(f.look)
-		f.phase++
-	}
 	return bound
 }
 
-// augment runs one depth-first pass from the sources along admissible
-// arcs, augmenting vertex-disjoint paths, and returns how many it found.
-// At every node the lookahead first tries the arcs straight into a
-// deficit, and the descent alternates its scanning direction from pass to
-// pass (Pothen and Fan's lookahead and fairness). The hub is exempt from
-// the disjointness (it has unbounded capacity); it only may not appear
-// twice on one path, and its cursor persists through the pass. Dead nodes
-// are never entered; unless f.plain, neither are hub-only nodes once the
-// hub is on the path or its arcs are used up. A search that fails without
-// meeting a node of an earlier search of the pass (nor skipping a hub-only
-// node) saw a closed set with no admissible arc into a deficit: it stamps
-// that set dead.
-func (f *coverFlow) augment(sources []int32) int {
-	nd := f.node
-	hub := f.hub
-	f.pass++
-	if f.search > math.MaxInt32-int32(len(sources))-2 {
-		// Search numbers run out: forget the visits (dead marks stay).
-		for i := range nd {
-			if nd[i].stamp > 0 {
-				nd[i].stamp = 0
-			}
-		}
-		f.search = 0
+// arcs returns the number of residual arc positions of row x: its own
+// column first, then the columns of its in-neighbours, then those of the
+// inputs driving it.
+func (f *cover) arcs(x int32) int64 {
+	return 1 + f.g.in.Ptr[x+1] - f.g.in.Ptr[x] + f.inPtr[x+1] - f.inPtr[x]
+}
+
+// arcAt returns where the arc at position p of row x leads, its cost and
+// the column x takes by it (a state, n+i, or viaSelf).
+func (f *cover) arcAt(x int32, p int64) (y, cost, via int32) {
+	if p == 0 {
+		y, cost = f.throughOwn(x)
+		return y, cost, viaSelf
 	}
-	f.passStart = f.search + 1
-	f.hubCur = 0
-	f.hubFirst = 0
-	backward := f.pass&1 == 0
-	dead := -f.phase
+	p--
+	lo, hi := f.g.in.Ptr[x], f.g.in.Ptr[x+1]
+	if p < hi-lo {
+		c := f.g.in.Adj[lo+p]
+		if !f.inR[c] {
+			return arcNone, 0, 0
+		}
+		y, cost = f.throughState(x, c)
+		return y, cost, c
+	}
+	i := f.inputsOf[f.inPtr[x]+p-(hi-lo)]
+	y, cost = f.throughInput(x, i)
+	return y, cost, f.n + i
+}
+
+// augment searches once from every open row that is not dead along
+// admissible arcs, and augments along the first way out it finds. The
+// search is breadth-first, with one lookahead: a row just reached is
+// tried at once through its own column, and the row that leads to, and
+// all rows reached from there, are explored before the breadth-first
+// queue goes on. On the networks met in practice most open rows lie in a
+// large region from which free columns are reached only through some
+// row's own column, into a small region where they are near; the
+// lookahead stops the search at the row that crosses, without expanding
+// the whole last layer. A search that finds no way out marks every row it
+// visited dead for the level. It returns the number of augmentations.
+func (f *cover) augment(open []int32) int {
+	nd := f.node
+	dead := -f.level
 	found := 0
-	for _, src := range sources {
-		if f.succ[src] != flowNone || nd[src].stamp >= f.passStart || nd[src].stamp == dead {
+	for _, root := range open {
+		if nd[root].pred != coverNone || nd[root].stamp == dead {
 			continue
 		}
-		if f.hubOnly[src] && !f.plain && f.hubCur >= f.rangeLen(hub) {
-			continue
+		if f.search == math.MaxInt32 {
+			// Search numbers run out: forget the visits (dead marks stay).
+			for i := range nd {
+				if nd[i].stamp > 0 {
+					nd[i].stamp = 0
+				}
+			}
+			f.search = 0
 		}
 		f.search++
 		search := f.search
-		nd[src].stamp = search
-		f.visited = append(f.visited[:0], src)
-		f.unknown = false
-		f.cur[src] = 0
-		f.stack = append(f.stack[:0], src)
-		f.pos = f.pos[:0]
-		f.hubOnPath = false
-		success := false
-		for len(f.stack) > 0 {
-			x := f.stack[len(f.stack)-1]
-			end := f.rangeLen(x)
-			qx := nd[x].q
-			if x != hub {
-				hit := int64(-1)
-				for int64(f.look[x]) < end {
-					p := int64(f.look[x])
-					f.look[x]++
-					if _, c, kind := f.arc(x, p); kind == arcSink && c+qx == 0 {
-						hit = p
-						break
-					}
+		nd[root].stamp = search
+		visited := append(f.visited[:0], root) // every row this search visited
+		fifo := append(f.queue[:0], root)      // rows to expand, in order
+		hot := f.hot[:0]                       // rows to expand first
+		next := 0                              // fifo[next:] are still to expand
+		out, outVia := int32(-1), int32(0)
+		// visit records that x reaches y by the admissible arc through
+		// column via; it reports a way out found by the lookahead.
+		visit := func(x, y, via int32, first bool) bool {
+			nd[y].stamp = search
+			f.parent[y], f.via[y] = x, via
+			visited = append(visited, y)
+			if first {
+				hot = append(hot, y)
+			} else {
+				fifo = append(fifo, y)
+			}
+			if w, c := f.throughOwn(y); w == arcOut {
+				if c+nd[y].q == 0 {
+					out, outVia = y, viaSelf
+					return true
 				}
-				if hit >= 0 {
-					f.pos = append(f.pos, hit)
-					for k, z := range f.stack {
-						f.apply(z, f.pos[k])
-					}
-					found++
-					success = true
-					break
+			} else if w >= 0 && c+nd[y].q == nd[w].q {
+				if st := nd[w].stamp; st != search && st != dead {
+					nd[w].stamp = search
+					f.parent[w], f.via[w] = y, viaSelf
+					visited = append(visited, w)
+					hot = append(hot, w)
 				}
 			}
-			advanced := false
-			for {
-				var p int64
-				if x == hub {
-					if f.hubCur >= end {
-						break
+			return false
+		}
+	search:
+		for {
+			var x int32
+			first := len(hot) > 0
+			switch {
+			case first:
+				x = hot[len(hot)-1]
+				hot = hot[:len(hot)-1]
+			case next < len(fifo):
+				x = fifo[next]
+				next++
+			default:
+				break search
+			}
+			qx := nd[x].q
+			end := f.arcs(x)
+			for p := int64(0); p < end; p++ {
+				y, c, via := f.arcAt(x, p)
+				switch y {
+				case arcNone:
+					continue
+				case arcOut:
+					if c+qx == 0 {
+						out, outVia = x, via
+						break search
 					}
-					p = f.hubCur
-					f.hubCur++
-				} else {
-					if int64(f.cur[x]) >= end {
-						break
-					}
-					p = int64(f.cur[x])
-					f.cur[x]++
-					if backward {
-						p = end - 1 - p
-					}
-				}
-				y, c, kind := f.arc(x, p)
-				if kind != arcNode || c+qx != nd[y].q {
 					continue
 				}
-				if y == hub {
-					if f.hubDead == f.phase {
-						continue
-					}
-					if f.hubFirst != search && f.hubFirst != 0 {
-						// The hub's arcs were partly scanned by an
-						// earlier search of this pass.
-						f.unknown = true
-					}
-					if f.hubOnPath {
-						continue
-					}
-					if f.hubFirst == 0 {
-						f.hubFirst = search
-					}
-					f.hubOnPath = true
-				} else {
-					st := nd[y].stamp
-					if st == dead {
-						continue
-					}
-					if f.hubOnly[y] && !f.plain && (f.hubOnPath || f.hubCur >= f.rangeLen(hub)) {
-						f.unknown = true
-						continue
-					}
-					if st >= f.passStart {
-						if st != search {
-							f.unknown = true
-						}
-						continue
-					}
-					nd[y].stamp = search
-					f.visited = append(f.visited, y)
-					f.cur[y] = 0
+				if st := nd[y].stamp; st == search || st == dead || c+qx != nd[y].q {
+					continue
 				}
-				f.pos = append(f.pos, p)
-				f.stack = append(f.stack, y)
-				advanced = true
-				break
-			}
-			if !advanced {
-				f.stack = f.stack[:len(f.stack)-1]
-				if x == hub {
-					f.hubOnPath = false
-				}
-				if len(f.pos) > 0 {
-					f.pos = f.pos[:len(f.pos)-1]
+				if visit(x, y, via, first) {
+					break search
 				}
 			}
 		}
-		if !success && !f.unknown {
-			// Everything this search saw leads to no deficit along
-			// admissible arcs, and augmenting elsewhere cannot change
-			// that until the potentials move.
-			for _, y := range f.visited {
+		f.visited, f.queue, f.hot = visited, fifo, hot
+		if out < 0 {
+			for _, y := range visited {
 				nd[y].stamp = dead
 			}
-			if f.hubFirst == search {
-				f.hubDead = f.phase
-			}
+			continue
 		}
+		// Augment back along the parents: each row takes the column of
+		// its arc, whose old row is the next one on the path.
+		x, c := out, outVia
+		for {
+			f.take(x, c)
+			if x == root {
+				break
+			}
+			x, c = f.parent[x], f.via[x]
+		}
+		found++
 	}
 	return found
+}
+
+// take assigns column c (a state, n+i for an input, or viaSelf for its own
+// column) to row x.
+func (f *cover) take(x, c int32) {
+	switch {
+	case c == viaSelf:
+		f.node[x].pred, f.node[x].succ = coverSelf, coverSelf
+	case c >= f.n:
+		f.node[x].pred, f.inSucc[c-f.n] = c, x
+	default:
+		f.node[x].pred, f.node[c].succ = c, x
+	}
 }

@@ -28,7 +28,7 @@ func (ds *DriverSet) Count() int { return ds.Drivers.Len() }
 // adding a bud to its cactus, which keeps the number of signals at N_D and
 // satisfies Lin's theorem.
 func Drivers(g *Network) *DriverSet {
-	m, c := g.Matching(), g.Components()
+	m, c := g.MatchingAndComponents()
 	n := g.N()
 	var drivers []int32
 	for v := 0; v < n; v++ {

@@ -1,6 +1,7 @@
 package structural
 
 import (
+	"runtime"
 	"sync"
 
 	"github.com/netsteer/netsteer/matching"
@@ -30,6 +31,9 @@ type Network struct {
 	match     *matching.Matching
 	compOnce  sync.Once
 	comps     *Components
+	altOnce   sync.Once
+	alt       *alternating
+	dm        designMatch
 	tOnce     sync.Once
 	t         *Network
 	// of is the network this one is the transpose of, nil otherwise.
@@ -141,9 +145,32 @@ func (g *Network) Matching() *matching.Matching {
 // Components returns the strongly connected components, computed once.
 // They are shared and must not be modified.
 func (g *Network) Components() *Components {
-	g.compOnce.Do(func() { g.comps = scc(&g.out) })
+	g.compOnce.Do(func() { g.comps = scc(&g.out, nil, nil) })
 	return g.comps
 }
+
+// MatchingAndComponents returns Matching() and Components(), computing
+// them at the same time on two goroutines when neither is kept yet and
+// the network is large (both read the same rows and are bound by memory
+// latency, so on two cores they take about the time of the matching
+// alone).
+func (g *Network) MatchingAndComponents() (*matching.Matching, *Components) {
+	if g.Edges() >= parallelEdges && runtime.GOMAXPROCS(0) > 1 {
+		done := make(chan struct{})
+		go func() {
+			defer close(done)
+			g.Components()
+		}()
+		m := g.Matching()
+		<-done
+		return m, g.Components()
+	}
+	return g.Matching(), g.Components()
+}
+
+// parallelEdges is the size from which MatchingAndComponents runs both
+// at once.
+const parallelEdges = 1 << 16
 
 // Transpose returns the network with every edge reversed (A^T), sharing
 // g's names and adjacency; only the weights, if any, are copied into the

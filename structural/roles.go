@@ -1,6 +1,10 @@
 package structural
 
-import "github.com/netsteer/netsteer/matching"
+import (
+	"runtime"
+	"slices"
+	"sort"
+)
 
 // Role classifies a state across all minimum driver sets, or an edge
 // across all maximum matchings.
@@ -38,8 +42,9 @@ func (r Role) String() string {
 	return "unknown"
 }
 
-// alternating holds the alternating-path structure of a maximum matching
-// (the Dulmage–Mendelsohn decomposition of the bipartite graph).
+// alternating holds the alternating-path structure of the network's
+// maximum matching (the Dulmage–Mendelsohn decomposition of its bipartite
+// graph), computed once and kept on the network.
 type alternating struct {
 	freeColReach []bool // column can be unmatched in some maximum matching
 	freeRowReach []bool // row can be unmatched in some maximum matching
@@ -47,108 +52,102 @@ type alternating struct {
 	hSize        []int32 // members per component of h
 }
 
-// decompose computes, from a maximum matching m of g: the columns reached
-// by even alternating paths from unmatched columns, the rows reached
-// likewise from unmatched rows, and the strongly connected components of
-// the digraph on columns with an arc v -> RowMate[u] for every edge u -> v
-// outside m (its cycles are the alternating cycles of m).
-func decompose(g *Network, m *matching.Matching) *alternating {
-	n := g.N()
-	a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
-	queue := make([]int32, 0, 64)
-	for v := 0; v < n; v++ {
-		if m.ColMate[v] < 0 {
-			a.freeColReach[v] = true
-			queue = append(queue, int32(v))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, u := range g.in.Row(queue[h]) {
-			if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
-				a.freeColReach[x] = true
-				queue = append(queue, x)
+// alternating returns the decomposition of g's maximum matching m: the
+// columns reached by even alternating paths from unmatched columns (the
+// states some maximum matching leaves unmatched), the rows reached likewise
+// from unmatched rows, and the strongly connected components of the
+// digraph on the other columns (neither reached from a free column nor
+// matched to a row reached from a free row) with an arc v -> RowMate[u]
+// for every edge u -> v outside m (its cycles are the alternating cycles
+// of m; the columns left out are components of their own). Time O(N + E):
+// two breadth-first searches, at the same time, and one components pass
+// over that digraph, which is read through the matching and never built.
+func (g *Network) alternating() *alternating {
+	g.altOnce.Do(func() {
+		m := g.Matching()
+		n := g.N()
+		a := &alternating{freeColReach: make([]bool, n), freeRowReach: make([]bool, n)}
+		// The two searches are independent: one on another goroutine.
+		colDone := make(chan struct{})
+		go func() {
+			defer close(colDone)
+			queue := make([]int32, 0, 64)
+			for v := 0; v < n; v++ {
+				if m.ColMate[v] < 0 {
+					a.freeColReach[v] = true
+					queue = append(queue, int32(v))
+				}
+			}
+			for h := 0; h < len(queue); h++ {
+				for _, u := range g.in.Row(queue[h]) {
+					if x := m.RowMate[u]; x >= 0 && !a.freeColReach[x] {
+						a.freeColReach[x] = true
+						queue = append(queue, x)
+					}
+				}
+			}
+		}()
+		queue := make([]int32, 0, 64)
+		for u := 0; u < n; u++ {
+			if m.RowMate[u] < 0 {
+				a.freeRowReach[u] = true
+				queue = append(queue, int32(u))
 			}
 		}
-	}
-	queue = queue[:0]
-	for u := 0; u < n; u++ {
-		if m.RowMate[u] < 0 {
-			a.freeRowReach[u] = true
-			queue = append(queue, int32(u))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, v := range g.out.Row(queue[h]) {
-			if r := m.ColMate[v]; r >= 0 && !a.freeRowReach[r] {
-				a.freeRowReach[r] = true
-				queue = append(queue, r)
+		for h := 0; h < len(queue); h++ {
+			for _, v := range g.out.Row(queue[h]) {
+				if r := m.ColMate[v]; r >= 0 && !a.freeRowReach[r] {
+					a.freeRowReach[r] = true
+					queue = append(queue, r)
+				}
 			}
 		}
-	}
-	// The column digraph of alternating cycles.
-	hg := matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
-	for v := 0; v < n; v++ {
-		for _, u := range g.in.Row(int32(v)) {
-			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
-				hg.Ptr[v+1]++
+		<-colDone
+		// The components are needed only for edges u -> v with neither v
+		// reached from a free column nor u from a free row. The columns
+		// reached from free columns are closed under the digraph's arcs,
+		// and the mates of rows reached from free rows under its reversed
+		// arcs, so no cycle joins either set to the other columns: the
+		// components are taken among the remaining columns only (the
+		// square part of the Dulmage–Mendelsohn decomposition), each
+		// skipped column left a component of its own.
+		skip := a.freeColReach
+		if len(queue) > 0 {
+			skip = slices.Clone(a.freeColReach)
+			for u, r := range a.freeRowReach {
+				if x := m.RowMate[u]; r && x >= 0 {
+					skip[x] = true
+				}
 			}
 		}
-	}
-	for v := 0; v < n; v++ {
-		hg.Ptr[v+1] += hg.Ptr[v]
-	}
-	hg.Adj = make([]int32, hg.Ptr[n])
-	k := 0
-	for v := 0; v < n; v++ {
-		for _, u := range g.in.Row(int32(v)) {
-			if x := m.RowMate[u]; x >= 0 && x != int32(v) {
-				hg.Adj[k] = x
-				k++
-			}
+		a.h = sccThrough(&g.in, m.RowMate, skip)
+		a.hSize = make([]int32, a.h.Count)
+		for _, c := range a.h.Of {
+			a.hSize[c]++
 		}
-	}
-	a.h = SCC(&hg)
-	a.hSize = make([]int32, a.h.Count)
-	for _, c := range a.h.Of {
-		a.hSize[c]++
-	}
-	return a
+		g.alt = a
+	})
+	return g.alt
 }
 
 // nodeRoles returns the role of every state across all minimum driver
-// sets, given a maximum matching m of g (matching.Maximum(&g.Out, &g.In)).
-// A state can be left unmatched by some maximum matching exactly when an
-// even alternating path leads to it from a state left unmatched by m; it is
-// unmatched by all of them exactly when no edge enters it. Time O(N + E).
+// sets, from the network's maximum matching. A state can be left unmatched
+// by some maximum matching exactly when an even alternating path leads to
+// it from a state left unmatched by the matching; it is unmatched by all
+// of them exactly when no edge enters it. Time O(N + E).
 //
 // The roles follow the driver sets of maximum matchings (N - |M*| states);
-// when m is perfect every state is Redundant, although one signal is still
-// needed (N_D = 1).
+// when the matching is perfect every state is Redundant, although one
+// signal is still needed (N_D = 1).
 func nodeRoles(g *Network) []Role {
-	m := g.Matching()
+	a := g.alternating()
 	n := g.N()
 	roles := make([]Role, n)
-	reach := make([]bool, n)
-	queue := make([]int32, 0, 64)
-	for v := 0; v < n; v++ {
-		if m.ColMate[v] < 0 {
-			reach[v] = true
-			queue = append(queue, int32(v))
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		for _, u := range g.in.Row(queue[h]) {
-			if x := m.RowMate[u]; x >= 0 && !reach[x] {
-				reach[x] = true
-				queue = append(queue, x)
-			}
-		}
-	}
 	for v := 0; v < n; v++ {
 		switch {
 		case g.in.Degree(int32(v)) == 0:
 			roles[v] = Critical
-		case reach[v]:
+		case a.freeColReach[v]:
 			roles[v] = Intermittent
 		}
 	}
@@ -165,30 +164,47 @@ func nodeRoles(g *Network) []Role {
 // connected components pass.
 func linkRoles(g *Network) []Role {
 	m := g.Matching()
-	a := decompose(g, m)
+	a := g.alternating()
 	roles := make([]Role, len(g.out.Adj))
 	n := g.N()
-	for u := 0; u < n; u++ {
-		lo := g.out.Ptr[u]
-		for i, v := range g.out.Row(int32(u)) {
-			var r Role
-			if m.RowMate[u] == v {
-				if a.freeColReach[v] || a.freeRowReach[u] || a.hSize[a.h.Of[v]] > 1 {
-					r = Ordinary
+	// Rows are independent: two halves by edges, on two goroutines for
+	// large networks.
+	fill := func(from, to int) {
+		for u := from; u < to; u++ {
+			lo := g.out.Ptr[u]
+			for i, v := range g.out.Row(int32(u)) {
+				var r Role
+				if m.RowMate[u] == v {
+					if a.freeColReach[v] || a.freeRowReach[u] || a.hSize[a.h.Of[v]] > 1 {
+						r = Ordinary
+					} else {
+						r = Critical
+					}
 				} else {
-					r = Critical
+					w := m.RowMate[u]
+					if a.freeColReach[v] || a.freeRowReach[u] || w >= 0 && a.h.Of[v] == a.h.Of[w] {
+						r = Ordinary
+					} else {
+						r = Redundant
+					}
 				}
-			} else {
-				w := m.RowMate[u]
-				if a.freeColReach[v] || a.freeRowReach[u] || w >= 0 && a.h.Of[v] == a.h.Of[w] {
-					r = Ordinary
-				} else {
-					r = Redundant
-				}
+				roles[lo+int64(i)] = r
 			}
-			roles[lo+int64(i)] = r
 		}
 	}
+	if g.Edges() < parallelEdges || runtime.GOMAXPROCS(0) < 2 {
+		fill(0, n)
+		return roles
+	}
+	half := int64(len(g.out.Adj)) / 2
+	mid := sort.Search(n, func(u int) bool { return g.out.Ptr[u] >= half })
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		fill(mid, n)
+	}()
+	fill(0, mid)
+	<-done
 	return roles
 }
 
@@ -209,12 +225,13 @@ type LinkRoles struct {
 
 // StateRoles returns the role of every state across all minimum driver
 // sets (see nodeRoles for the method). Time O(N + E) after the network's
-// maximum matching.
+// maximum matching; the alternating structure it needs is kept on the
+// network for EdgeRoles.
 func StateRoles(g *Network) *NodeRoles { return &NodeRoles{Of: nodeRoles(g), g: g} }
 
 // EdgeRoles returns the role of every edge across all maximum matchings
 // (see linkRoles for the method). Time O(N + E) after the network's
-// maximum matching.
+// maximum matching; the alternating structure is shared with StateRoles.
 func EdgeRoles(g *Network) *LinkRoles { return &LinkRoles{Of: linkRoles(g), g: g} }
 
 // NodeRoleOrder and LinkRoleOrder list the roles from the most to the

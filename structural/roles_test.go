@@ -1,10 +1,12 @@
 package structural_test
 
 import (
+	"fmt"
 	"math/bits"
 	"math/rand/v2"
 	"testing"
 
+	"github.com/netsteer/netsteer/matching"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/internal/testnet"
 )
@@ -98,7 +100,7 @@ func TestNodeRolesEnumeration(t *testing.T) {
 // (2013), on networks too large to enumerate.
 func TestRolesRecomputation(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 8))
-	for i := 0; i < 40; i++ {
+	for i := 0; i < 200; i++ {
 		n := 10 + rng.IntN(30)
 		g := testnet.Random(t, rng, n, (1+rng.Float64()*2)/float64(n))
 		size := plKuhn(g, -1, -1, noEdge)
@@ -138,6 +140,33 @@ func TestRolesRecomputation(t *testing.T) {
 					t.Fatalf("trial %d: link %d -> %d is %v, recomputation says %v", i, u, v, got, want)
 				}
 			}
+		}
+	}
+}
+
+// The alternating digraph's components read through the matching are
+// those of the digraph built row by row (the way roles were computed
+// before), on random networks: same numbering, same source flags.
+func TestSCCThroughMatchesBuilt(t *testing.T) {
+	rng := rand.New(rand.NewPCG(8, 8))
+	for trial := 0; trial < 200; trial++ {
+		n := 1 + rng.IntN(60)
+		g := testnet.Random(t, rng, n, rng.Float64()*4/float64(n))
+		m := g.Matching()
+		in := g.In()
+		h := matching.CSR{Rows: n, Cols: n, Ptr: make([]int64, n+1)}
+		for v := 0; v < n; v++ {
+			for _, u := range in.Row(int32(v)) {
+				if x := m.RowMate[u]; x >= 0 && x != int32(v) {
+					h.Adj = append(h.Adj, x)
+				}
+			}
+			h.Ptr[v+1] = int64(len(h.Adj))
+		}
+		want := structural.SCC(&h)
+		got := structural.SCCThrough(in, m.RowMate, nil)
+		if fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Fatalf("trial %d: %+v, want %+v", trial, got, want)
 		}
 	}
 }

@@ -35,9 +35,19 @@ type sccFrame struct {
 // completed component is an edge between components, so the source
 // components are found on the way. O(V + E) time; about 4 bytes per state
 // plus the stacks.
-func SCC(g *matching.CSR) *Components { return scc(g) }
+func SCC(g *matching.CSR) *Components { return scc(g, nil, nil) }
 
-func scc(g *matching.CSR) *Components {
+// sccThrough returns the components of the digraph read from g through
+// mate: state v has an arc to mate[u] for every u in row v of g, except
+// where mate[u] is negative or v itself, and except arcs from or into a
+// state marked in skip (nil: none), which is left a component of its own.
+// Without skip they are those SCC gives for that digraph built row by row,
+// without building it.
+func sccThrough(g *matching.CSR, mate []int32, skip []bool) *Components {
+	return scc(g, mate, skip)
+}
+
+func scc(g *matching.CSR, mate []int32, skip []bool) *Components {
 	n := g.Rows
 	// rindex[v]: 0 unvisited; 1..index-1 while v's component is open (the
 	// smallest index v reaches); once complete, c: N, N-1, ... in
@@ -60,7 +70,11 @@ func scc(g *matching.CSR) *Components {
 		}
 		rindex[r] = index
 		index++
-		call = append(call, sccFrame{pos: ptr[r], v: int32(r), root: true})
+		pos := ptr[r]
+		if skip != nil && skip[r] {
+			pos = ptr[r+1] // no arcs
+		}
+		call = append(call, sccFrame{pos: pos, v: int32(r), root: true})
 		for len(call) > 0 {
 			f := &call[len(call)-1]
 			v := f.v
@@ -70,6 +84,14 @@ func scc(g *matching.CSR) *Components {
 			for f.pos < end {
 				w := adj[f.pos]
 				f.pos++
+				if mate != nil {
+					if w = mate[w]; w < 0 || w == v {
+						continue
+					}
+				}
+				if skip != nil && skip[w] {
+					continue
+				}
 				rw := rindex[w]
 				if rw == 0 {
 					rindex[w] = index

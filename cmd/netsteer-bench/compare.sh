@@ -1,23 +1,41 @@
 #!/usr/bin/env bash
-# Compare netsteer with igraph and scipy on one workload, in one run.
+# Compare netsteer with igraph and scipy on one workload, in one run, and
+# print one table.
 #
-#   bash cmd/netsteer-bench/compare.sh [N] [K]       (default N=1000000, K=10)
+#   bash cmd/netsteer-bench/compare.sh [SIZES] [K]
 #
-# Workload: a directed Erdos-Renyi network G(N, L) with N states and mean
-# total degree K, L = N*K/2 distinct edges without self-loops (structural/gen,
+# SIZES: numbers of states, comma-separated (default
+# 250000,500000,1000000,2000000,4000000); K: mean total degree (default 10).
+#
+# Workload: directed Erdos-Renyi networks G(N, L) with mean total degree K,
+# L = N*K/2 distinct edges without self-loops (structural/gen,
 # gen.Workload("er", N), seed 1: what `netsteer generate` gives users),
-# written by netsteer-bench gen as a plain text edge list of integer names,
-# plus the same edges as int32 pairs for Python.
-# Prints the matching time of each library on its own prebuilt graph, the
-# wall time and peak memory of the whole `netsteer drivers FILE --format
-# json` process, and the ratios. Installs python3-igraph and python3-scipy
-# with apt-get when they are missing (go test never needs them).
-# Files go to $NETSTEER_BENCH_OUT (default ${TMPDIR:-/tmp}/netsteer-bench).
+# written by netsteer-bench scale as plain text edge lists of integer names,
+# with a minimum design (structural.Drivers), every other signal of it (the
+# failing design), a node table of random actuator costs 1..1000 and the
+# edges as int32 pairs for Python.
+#
+# The table has one row per command (or library stage) and size: wall and
+# CPU seconds (user + system, reading included), peak resident memory,
+# bytes per edge, the ratio to drivers on the same network, and per
+# command the exponent of a least-squares fit of wall time against edges
+# over the sizes; then igraph's and scipy's maximum bipartite matching on
+# their own prebuilt graphs (PEER_SIZES, default 1000000). The answers of
+# the timed runs are checked against each other: repeated runs, the
+# library against the command line, the matching sizes of all three
+# libraries. Installs python3-igraph, python3-scipy and time with apt-get
+# when they are missing (go test never needs them).
+#
+# Environment: NETSTEER_BENCH_OUT (default ${TMPDIR:-/tmp}/netsteer-bench)
+# holds the files; PEER_SIZES the sizes the peers run at; RUNS (default 1)
+# the runs per command and size (the fastest is reported).
 set -euo pipefail
 cd "$(dirname "$0")/../.."
-N=${1:-1000000}
+SIZES=${1:-250000,500000,1000000,2000000,4000000}
 K=${2:-10}
 OUT=${NETSTEER_BENCH_OUT:-${TMPDIR:-/tmp}/netsteer-bench}
+PEER_SIZES=${PEER_SIZES:-1000000}
+RUNS=${RUNS:-1}
 mkdir -p "$OUT"
 PY=/usr/bin/python3
 
@@ -33,86 +51,223 @@ if [ ! -x /usr/bin/time ]; then
 fi
 
 echo "== building" >&2
-go build -o "$OUT/netsteer" ./cmd/netsteer
 go build -o "$OUT/netsteer-bench" ./cmd/netsteer-bench
-EDGES="$OUT/er-$N-$K.edges"
-PAIRS="$OUT/er-$N-$K.i32"
-if [ ! -s "$EDGES" ] || [ ! -s "$PAIRS" ]; then
-	echo "== generating $EDGES" >&2
-	"$OUT/netsteer-bench" gen -model er -n "$N" -k "$K" -seed 1 -o "$EDGES" -bin "$PAIRS"
+CLI=0
+if go build -o "$OUT/netsteer" ./cmd/netsteer 2>"$OUT/build-cli.txt"; then
+	CLI=1
+else
+	echo "== cmd/netsteer does not build: the table has the library rows only" >&2
 fi
 
-# netsteer: three runs, the median by wall time is reported (its matching
-# time and memory come from that run). Each peer: two runs, the faster is
-# reported. Both choices lean in the peers' favour.
-echo "== netsteer drivers (3 runs)" >&2
-: >"$OUT/runs.txt"
-for i in 1 2 3; do
-	/usr/bin/time -v -o "$OUT/time.txt" "$OUT/netsteer" drivers "$EDGES" --format json >"$OUT/drivers-$i.json"
-	wall=$(awk -F': ' '/Elapsed \(wall clock\)/ {n=split($2,a,":"); s=0; for(i=1;i<=n;i++) s=s*60+a[i]; print s}' "$OUT/time.txt")
-	rss=$(awk -F': ' '/Maximum resident set size/ {print $2}' "$OUT/time.txt")
-	echo "$wall $rss $i" >>"$OUT/runs.txt"
+# 1. The library: every stage in a process of its own (netsteer-bench
+# scale), which also writes the workload files.
+echo "== library stages (netsteer-bench scale)" >&2
+"$OUT/netsteer-bench" scale -sizes "$SIZES" -k "$K" -runs "$RUNS" -bin -dir "$OUT" \
+	-json "$OUT/scale.json" >"$OUT/scale.txt"
+
+# 2. The command line: one process per command and size, timed by
+# /usr/bin/time (wall, user, system, peak RSS). Each entry is
+# NAME|ARGUMENTS with {net}, {full}, {half} and {costs} standing for the
+# workload files. The arguments follow the CLI being rebuilt; adjust them
+# here when its flags settle (see cmd/netsteer-bench/NOTES.md).
+COMMANDS=(
+	"drivers|drivers {net} --format json"
+	"drivers --roles|drivers {net} --roles --format json"
+	"check (passing)|check {net} --inputs {full} --format json"
+	"check (failing)|check {net} --inputs {half} --format json"
+	"actuators|actuators {net} --format json"
+	"actuators (costs)|actuators {net} --node-table {costs} --format json"
+	"sensors|sensors {net} --format json"
+)
+: >"$OUT/cli.txt"
+if [ "$CLI" = 1 ]; then
+	echo "== command line (${#COMMANDS[@]} commands)" >&2
+	for n in ${SIZES//,/ }; do
+		base="$OUT/er-$n-$K-1"
+		for entry in "${COMMANDS[@]}"; do
+			name=${entry%%|*}
+			args=${entry#*|}
+			args=${args//\{net\}/$base.edges}
+			args=${args//\{full\}/$base.full.design}
+			args=${args//\{half\}/$base.half.design}
+			args=${args//\{costs\}/$base.costs.csv}
+			tag=$(echo "$name" | tr -c 'a-z0-9\n' '_')
+			for r in $(seq "$RUNS"); do
+				# Exit status 1 means "the answer is no" (a failing check).
+				/usr/bin/time -f "%e %U %S %M" -o "$OUT/time.txt" "$OUT/netsteer" $args \
+					>"$OUT/cli-$tag-$n-$r.json" 2>"$OUT/cli-$tag-$n-$r.err" || [ $? = 1 ]
+				echo "$name|$n|$r|$(cat "$OUT/time.txt")|$OUT/cli-$tag-$n-$r.json" >>"$OUT/cli.txt"
+			done
+		done
+	done
+fi
+
+# 3. The peers: maximum bipartite matching on their own prebuilt graphs.
+: >"$OUT/peers.txt"
+for n in ${PEER_SIZES//,/ }; do
+	pairs="$OUT/er-$n-$K-1.i32"
+	[ -s "$pairs" ] || continue
+	echo "== igraph and scipy at N=$n (2 runs each)" >&2
+	"$PY" cmd/netsteer-bench/peers.py "$pairs" "$n" 2 >"$OUT/peers-$n.json"
+	echo "$n|$OUT/peers-$n.json" >>"$OUT/peers.txt"
 done
-read -r median medrss medrun < <(sort -n "$OUT/runs.txt" | sed -n 2p)
-cp "$OUT/drivers-$medrun.json" "$OUT/drivers-median.json"
-maxrss=$(awk 'BEGIN{m=0} {if ($2 > m) m = $2} END {print m}' "$OUT/runs.txt")
 
-echo "== netsteer stages (matching and components 3 times each)" >&2
-"$OUT/netsteer-bench" stages -runs 3 "$EDGES" >"$OUT/stages.json"
+# 4. One table.
+"$PY" - "$OUT/scale.json" "$OUT/cli.txt" "$OUT/peers.txt" "$K" <<'PYEOF'
+import json, math, os, sys
 
-echo "== igraph and scipy (2 runs each)" >&2
-"$PY" cmd/netsteer-bench/peers.py "$PAIRS" "$N" 2 >"$OUT/peers.json"
+scale = json.load(open(sys.argv[1]))
+cli_lines = [l.rstrip("\n").split("|") for l in open(sys.argv[2]) if l.strip()]
+peer_lines = [l.rstrip("\n").split("|") for l in open(sys.argv[3]) if l.strip()]
+k = sys.argv[4]
+problems = []
 
-"$PY" - "$OUT/drivers-median.json" "$OUT/peers.json" "$median" "$maxrss" "$OUT/stages.json" <<'PYEOF'
-import json, os, sys
-ns = json.load(open(sys.argv[1]))
-peers = json.load(open(sys.argv[2]))
-wall, rss_kb = float(sys.argv[3]), int(sys.argv[4])
-st = json.load(open(sys.argv[5]))
-t = ns["timings"]
-mw, mc = st["match"]["wall_s"], st["match"]["cpu_s"]
-iw, ic = peers["igraph_match_s"], peers["igraph_match_cpu_s"]
-sw, sc = peers["scipy_match_s"], peers["scipy_match_cpu_s"]
-print(f"workload: directed ER, {peers['nodes']} states, {peers['edges']} edges (text edge list)")
+def fit(xs, ys):
+    """Least-squares slope of log y against log x."""
+    if len(xs) < 2:
+        return float("nan")
+    lx = [math.log(x) for x in xs]
+    ly = [math.log(max(y, 1e-6)) for y in ys]
+    m = len(xs)
+    sx, sy = sum(lx), sum(ly)
+    sxx = sum(a * a for a in lx)
+    sxy = sum(a * b for a, b in zip(lx, ly))
+    return (m * sxy - sx * sy) / (m * sxx - sx * sx)
+
+def untimed(obj):
+    """obj without its timing keys (names ending in _s), which differ by design."""
+    if isinstance(obj, dict):
+        return {k: untimed(v) for k, v in obj.items() if not k.endswith("_s")}
+    if isinstance(obj, list):
+        return [untimed(v) for v in obj]
+    return obj
+
+def find(obj, key):
+    """The first value under key anywhere in a decoded JSON value."""
+    if isinstance(obj, dict):
+        if key in obj:
+            return obj[key]
+        for v in obj.values():
+            r = find(v, key)
+            if r is not None:
+                return r
+    elif isinstance(obj, list):
+        for v in obj:
+            r = find(v, key)
+            if r is not None:
+                return r
+    return None
+
+rows = []  # (group, name, nodes, edges, wall, cpu, peak bytes or None, answer)
+drivers = {}  # nodes -> answer fields of the library drivers stage
+for stage, results in scale.items():
+    for r in results:
+        rows.append(("library", stage, r["nodes"], r["edges"], r["read_s"] + r["stage_s"],
+                     r["read_cpu_s"] + r["stage_cpu_s"], r["peak_bytes"], r["answer"]))
+        if r["verified"] not in ("ok", "-"):
+            problems.append(f"library {stage} at {r['nodes']} states: {r['verified']}")
+        if stage == "drivers":
+            drivers[r["edges"]] = dict(x.split("=") for x in r["answer"].split())
+by_n = {}  # the library's network for each requested size
+for r in scale.get("drivers", []):
+    by_n[r["nodes"]] = r
+
+# Command-line rows: the fastest run per command and size; every run's
+# answer must agree with the others and with the library.
+cli = {}
+for name, n, run, times, out in cli_lines:
+    wall, user, sys_, kb = times.split()
+    try:
+        ans = json.load(open(out))
+    except Exception as e:
+        problems.append(f"netsteer {name} at N={n}: output is not JSON ({e})")
+        ans = None
+    key = (name, int(n))
+    rec = (float(wall), float(user) + float(sys_), int(kb) * 1024, ans)
+    if key in cli:
+        if json.dumps(untimed(cli[key][3]), sort_keys=True) != json.dumps(untimed(ans), sort_keys=True):
+            problems.append(f"netsteer {name} at N={n}: runs disagree")
+        if rec[0] >= cli[key][0]:
+            continue
+    cli[key] = rec
+lib_by_size = sorted(scale.get("drivers", []), key=lambda r: r["nodes"])
+sizes = sorted({int(n) for _, n, _, _, _ in cli_lines})
+for (name, n), (wall, cpu, peak, ans) in sorted(cli.items()):
+    lib = min(lib_by_size, key=lambda r: abs(math.log(r["nodes"] / n))) if lib_by_size else None
+    nodes = lib["nodes"] if lib else n
+    edges = lib["edges"] if lib else 0
+    summary = ""
+    if ans is not None and name.startswith("drivers"):
+        ms = find(ans, "matching_size")
+        summary = f"matching={ms}"
+        if lib and ms is not None and str(ms) != drivers[edges]["matching"]:
+            problems.append(f"netsteer {name} at N={n}: matching {ms}, library {drivers[edges]['matching']}")
+    rows.append(("netsteer", name, nodes, edges, wall, cpu, peak, summary))
+
+# Peer rows: matching alone, on a prebuilt graph (fastest of 2 runs).
+for n, path in peer_lines:
+    p = json.load(open(path))
+    edges = p["edges"]
+    for lib in ("igraph", "scipy"):
+        size = p[f"{lib}_matching_size"]
+        rows.append(("peer", f"{lib} {p[lib + '_version']} matching", p["nodes"], edges,
+                     p[f"{lib}_match_s"], p[f"{lib}_match_cpu_s"], None, f"matching={size}"))
+        if edges in drivers and str(size) != drivers[edges]["matching"]:
+            problems.append(f"{lib} at N={n}: matching {size}, netsteer {drivers[edges]['matching']}")
+
+# Exponents per (group, name); ratios to drivers of the same group and size.
+series = {}
+for g, name, nodes, edges, wall, cpu, peak, ans in rows:
+    series.setdefault((g, name), []).append((edges, wall))
+expo = {key: fit([e for e, _ in v], [w for _, w in v]) for key, v in series.items()}
+base = {}
+for g, name, nodes, edges, wall, cpu, peak, ans in rows:
+    if name == "drivers":
+        base[(g, edges)] = wall
+base_lib = {e: w for (g, e), w in base.items() if g == "library"}
+
+print(f"workload: directed ER G(N, N*{k}/2), structural/gen seed 1, text edge lists")
 print(f"machine: {os.cpu_count()} cores, {os.sysconf('SC_PAGE_SIZE') * os.sysconf('SC_PHYS_PAGES') / 2**30:.0f} GiB, "
-      f"load average {os.getloadavg()[0]:.1f}")
-print(f"matching size: netsteer {ns['matching_size']}, igraph {peers['igraph_matching_size']}, scipy {peers['scipy_matching_size']}")
-if not (ns["matching_size"] == st["matching_size"] == peers["igraph_matching_size"] == peers["scipy_matching_size"]):
-    print("MISMATCH in matching size")
-print("netsteer drivers stages, median run (s): " + ", ".join(f"{k[:-2]} {v:.3f}" for k, v in t.items()))
-print("matching on a prebuilt graph (fastest run)   wall s    CPU s")
-print(f"  netsteer                                 {mw:8.3f} {mc:8.3f}")
-print(f"  igraph {peers['igraph_version']:34s}{iw:8.3f} {ic:8.3f}")
-print(f"  scipy {peers['scipy_version']:35s}{sw:8.3f} {sc:8.3f}")
-print(f"netsteer components (fastest run)         {st['components']['wall_s']:8.3f} {st['components']['cpu_s']:8.3f}")
-print(f"ratio matching netsteer/igraph   wall {mw / iw:.3f}  CPU {mc / ic:.3f}  (target <= 0.333)")
-print(f"ratio matching netsteer/scipy    wall {mw / sw:.3f}  CPU {mc / sc:.3f}  (target <= 0.167)")
-print(f"whole `netsteer drivers --format json` process, median of 3: {wall:.3f} s wall; "
-      f"ratio to igraph's matching (wall) {wall / iw:.3f}  (target <= 1)")
-print(f"peak RSS {rss_kb / 1024:.0f} MB, largest of 3 runs (target <= 350 MB); "
-      f"{rss_kb * 1024 / peers['edges']:.1f} bytes per edge")
+      f"load average {os.getloadavg()[0]:.1f} {os.getloadavg()[1]:.1f} {os.getloadavg()[2]:.1f} (at the end)")
+hdr = f"{'command':28s} {'states':>8s} {'edges':>9s} {'wall s':>7s} {'CPU s':>7s} {'peak MB':>8s} {'B/edge':>7s} {'exp.':>5s} {'ratio':>6s}  answer"
+print(hdr)
+print("-" * len(hdr))
+for g, name, nodes, edges, wall, cpu, peak, ans in sorted(rows, key=lambda r: (r[0] != "netsteer", r[0], r[1], r[3])):
+    label = name if g == "netsteer" else (f"lib {name}" if g == "library" else name)
+    b = base.get((g, edges)) or base_lib.get(edges)
+    ratio = f"{wall / b:6.2f}" if b else f"{'':6s}"
+    pk = f"{peak / 2**20:8.0f}" if peak else f"{'':8s}"
+    be = f"{peak / edges:7.1f}" if peak and edges else f"{'':7s}"
+    e = expo[(g, name)]
+    es = f"{e:5.2f}" if not math.isnan(e) else f"{'':5s}"
+    print(f"{label:28s} {nodes:8d} {edges:9d} {wall:7.2f} {cpu:7.2f} {pk} {be} {es} {ratio}  {ans}")
+print("ratio: wall time over drivers on the same network (peers: over netsteer's drivers process or library stage);")
+print("exp.: least-squares exponent of wall time against edges over the sizes; reading is part of every netsteer row")
+if problems:
+    print("DISAGREEMENT:")
+    for p in problems:
+        print("  " + p)
+    sys.exit(1)
+print("answers agree: repeated runs, the independent checks of each stage, and the matching sizes of all libraries")
 PYEOF
 
-# Per-edge cost on other shapes: static-model scale-free (gamma 2.5 and
-# 2.1) and a right-and-down square grid with the same number of states,
-# against the ER workload: stage times from netsteer-bench stages (matching and
-# components in thread CPU time, fastest of 3; reading in wall time) and
-# the CPU time (user + system) of the whole drivers process.
-echo "per edge on other shapes (ns/edge; match and components: CPU, fastest of 3; read: wall; drivers: whole-process CPU):"
+# Per-edge stage costs on other shapes (static-model scale-free, gamma 2.5
+# and 2.1, and a right-and-down grid) at the largest peer size: matching and
+# components in thread CPU time (fastest of 3), reading in wall time.
+n=${PEER_SIZES##*,}
+echo "per edge on other shapes at N=$n (ns/edge; match and components: thread CPU, fastest of 3; read: wall):"
 for spec in "er" "sf -gamma 2.5" "sf -gamma 2.1" "grid"; do
 	name=$(echo "$spec" | tr -d ' -')
-	f="$OUT/$name-$N-$K.edges"
-	[ "$spec" = er ] && f="$EDGES"
-	[ -s "$f" ] || "$OUT/netsteer-bench" gen -model $spec -n "$N" -k "$K" -seed 1 -o "$f" 2>/dev/null
+	f="$OUT/$name-$n-$K.edges"
+	[ "$spec" = er ] && f="$OUT/er-$n-$K-1.edges"
+	[ -s "$f" ] || "$OUT/netsteer-bench" gen -model $spec -n "$n" -k "$K" -seed 1 -o "$f" 2>/dev/null
 	"$OUT/netsteer-bench" stages -runs 3 "$f" >"$OUT/shape-stages.json"
-	/usr/bin/time -f "%e %U %S" -o "$OUT/time.txt" "$OUT/netsteer" drivers "$f" --format json >/dev/null
-	"$PY" - "$OUT/shape-stages.json" "$(cat "$OUT/time.txt")" "$spec" <<'PYEOF'
+	"$PY" - "$OUT/shape-stages.json" "$spec" <<'PYEOF'
 import json, sys
 d = json.load(open(sys.argv[1]))
-wall, user, sys_ = map(float, sys.argv[2].split())
 e, n = d["edges"], d["nodes"]
 ns = lambda x: x / e * 1e9
-print(f"  {sys.argv[3]:14s} {n:8d} states {e:9d} edges  match {ns(d['match']['cpu_s']):4.0f}  "
-      f"components {ns(d['components']['cpu_s']):4.0f}  read {ns(d['read']['wall_s']):4.0f}  drivers {ns(user + sys_):4.0f}")
+print(f"  {sys.argv[2]:14s} {n:8d} states {e:9d} edges  match {ns(d['match']['cpu_s']):4.0f}  "
+      f"components {ns(d['components']['cpu_s']):4.0f}  read {ns(d['read']['wall_s']):4.0f}")
 PYEOF
 done

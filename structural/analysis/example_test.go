@@ -86,7 +86,7 @@ func ExampleCheck() {
 	// controllability: holds true, dimension 8 of 8
 	// observability: holds false, dimension 5 of 8
 	//   dilation: [zone1.temp zone2.temp] share [return.temp]
-	//   cheapest completion: [zone2.temp]
+	//   cheapest completion: [zone1.temp]
 }
 
 func ExamplePlace() {

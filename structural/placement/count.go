@@ -61,7 +61,8 @@ func Count(g *structural.Network, p structural.Property, forbidden []bool) (*Dev
 	if p == structural.Observability {
 		h = g.Transpose()
 	}
-	res, devices := countDevices(graphOf(g, p), h.Components(), h.Matching(), forbidden)
+	m, c := h.MatchingAndComponents()
+	res, devices := countDevices(graphOf(g, p), c, m, forbidden)
 	res.Devices = g.States(devices)
 	return res, nil
 }

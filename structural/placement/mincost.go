@@ -88,6 +88,8 @@ func (p *placer) route() {
 	if len(pending) == 0 {
 		return
 	}
+	p.potentials() // only routing and Roles need them
+
 	s := newFlowState(2*p.n + 1 + p.nsrc)
 	// Rounds from all pending sources at once suit few distinct path
 	// lengths (unit costs: typically one or two rounds) but re-explore the

@@ -81,15 +81,19 @@ func (pl *Placement) IsAdded(v int32) bool {
 // linear structural systems", Automatica (2016), solved here as a
 // minimum-cost flow that exploits its shape:
 //
-//  1. Without the source components, the sets of states a matching covers
-//     form a transversal matroid, so the greedy algorithm is exact: states
-//     are offered by decreasing cost (forbidden ones first) and each class
-//     of equal cost is added by Hopcroft–Karp augmentation, which never
-//     uncovers a state covered before. States found unable to augment are
-//     never searched again.
+//  1. Without the source components, the sets of states a matching leaves
+//     uncovered are the bases of a matroid (the dual of the transversal
+//     matroid), so the greedy algorithm is exact. Without forbidden states
+//     it starts from the network's maximum matching and offers states by
+//     increasing cost, each joining the uncovered set when an alternating
+//     path moves an uncovered state's place to it (cheapest.go); with
+//     forbidden states, states are offered by decreasing cost (forbidden
+//     ones first) to a matching grown class by class by Hopcroft–Karp
+//     augmentation, which never uncovers a state covered before. States
+//     found unable to move are never searched again.
 //  2. Node potentials for this optimal flow come from one pass over the
 //     alternating paths (the cost of the most expensive uncovered state
-//     that reaches each state).
+//     that reaches each state), when step 3 or Roles needs them.
 //  3. Each source component k then sends one mandatory unit through an
 //     arc of cost c(v) into one of its allowed states v. Components already
 //     holding an uncovered allowed state take it at no cost; the others are
@@ -99,11 +103,15 @@ func (pl *Placement) IsAdded(v int32) bool {
 // Sensors are actuators of the transposed network: sink components take
 // the place of source components and out-neighbours that of in-neighbours.
 //
-// Time: O(K E sqrt(N)) for step 1 in the worst case with K distinct costs
-// (one maximum matching for uniform costs), O(E) for step 2, and
-// O(R (E + N) log N) for step 3, where R <= the number of source components
-// that need routing (a handful of rounds with few distinct costs). Memory is
-// O(N + E) beyond the network.
+// Time: without forbidden states, step 1 is the network's maximum matching
+// (computed once and kept on the network), one alternating search, a sort
+// and the successful searches of the greedy (short on the networks met in
+// practice: on a directed Erdős–Rényi network of 10^6 states and 5*10^6
+// edges with random costs, about the time of the matching); with
+// forbidden states O(K E sqrt(N)) in the worst case with K distinct costs.
+// Step 2 is O(E), step 3 O(R (E + N) log N), where R <= the number of
+// source components that need routing (a handful of rounds with few
+// distinct costs). Memory is O(N + E) beyond the network.
 //
 // The result is infeasible when some forbidden states form a dilation that
 // no allowed device can remove, or a source component has no allowed
@@ -120,7 +128,7 @@ func Place(g *structural.Network, p structural.Property, d structural.Devices) (
 	if p == structural.Observability {
 		h = g.Transpose()
 	}
-	pr.comps, pr.match = h.Components(), h.Matching()
+	pr.match, pr.comps = h.MatchingAndComponents()
 	return pr.solve().wrap(g, p, d, g.N()), nil
 }
 
@@ -293,7 +301,6 @@ func (p *placer) actuated(v int32) bool {
 func (p *placer) solve() *raw {
 	p.components()
 	p.greedy()
-	p.potentials()
 	p.route()
 	return p.result()
 }
@@ -361,28 +368,41 @@ func (p *placer) components() {
 // greedy covers states by a matching chosen greedily by decreasing working
 // cost, forbidden states first: a maximum-weight independent set of the
 // transversal matroid of the columns.
+// classGreedy makes greedy build its matching class by class even without
+// forbidden states, as it did before cheapestFree: tests compare the two.
+var classGreedy = false
+
 func (p *placer) greedy() {
 	g, n := p.g, p.n
 	p.dead = make([]bool, n)
-	uniform := true
-	for v := 1; v < n && uniform; v++ {
-		uniform = p.w[v] == p.w[0]
-	}
 	hasForbidden := false
 	for v := 0; v < n; v++ {
 		if p.isForbidden(int32(v)) {
 			hasForbidden = true
-			uniform = false
 			break
 		}
 	}
-	if uniform {
+	if !hasForbidden && !classGreedy {
 		m := p.match
 		if m == nil {
 			m = matching.Maximum(&g.Out, &g.In)
 		}
-		// The flow changes the matching: work on a copy.
-		p.rowMate, p.colMate = slices.Clone(m.RowMate), slices.Clone(m.ColMate)
+		// Costs that are equal on every state with an in-edge (states
+		// without one are never covered): any maximum matching is a
+		// cheapest one.
+		uniform, w := true, int64(-1)
+		for v := 0; v < n && uniform; v++ {
+			if g.In.Ptr[v+1] > g.In.Ptr[v] {
+				uniform = w < 0 || p.w[v] == w
+				w = p.w[v]
+			}
+		}
+		if uniform {
+			// The flow changes the matching: work on a copy.
+			p.rowMate, p.colMate = slices.Clone(m.RowMate), slices.Clone(m.ColMate)
+			return
+		}
+		p.cheapestFree(m)
 		return
 	}
 	p.rowMate = make([]int32, n)
@@ -390,35 +410,35 @@ func (p *placer) greedy() {
 	for i := range p.rowMate {
 		p.rowMate[i], p.colMate[i] = -1, -1
 	}
-	// Left side: columns, adjacent to their in-neighbour rows.
+	// Forbidden states: a greedy matching built class by class, forbidden
+	// states first, whose failures witness the dilations no allowed device
+	// removes. Left side: columns, adjacent to their in-neighbour rows.
 	adj := &sideAdj{n0: int32(n), ptr: g.In.Ptr, adj: g.In.Adj}
 	au := newAugmenter(adj, n, p.colMate, p.rowMate)
 	order := make([]int32, 0, n)
-	if hasForbidden {
-		for v := 0; v < n; v++ {
-			if p.isForbidden(int32(v)) {
-				order = append(order, int32(v))
-			}
+	for v := 0; v < n; v++ {
+		if p.isForbidden(int32(v)) {
+			order = append(order, int32(v))
 		}
-		au.grow(order, true)
-		for _, v := range order {
-			if p.colMate[v] < 0 {
-				p.dead[v] = true
-				p.deficit++
-			}
-		}
-		if p.deficit > 0 {
-			// The dead marks now hold the alternating closure of the
-			// uncovered forbidden states: a set of forbidden states with
-			// fewer distinct in-neighbours than members.
-			for v := 0; v < n; v++ {
-				if au.dead[v] {
-					p.unmatchable = append(p.unmatchable, int32(v))
-				}
-			}
-		}
-		order = order[:0]
 	}
+	au.grow(order, true)
+	for _, v := range order {
+		if p.colMate[v] < 0 {
+			p.dead[v] = true
+			p.deficit++
+		}
+	}
+	if p.deficit > 0 {
+		// The dead marks now hold the alternating closure of the
+		// uncovered forbidden states: a set of forbidden states with
+		// fewer distinct in-neighbours than members.
+		for v := 0; v < n; v++ {
+			if au.dead[v] {
+				p.unmatchable = append(p.unmatchable, int32(v))
+			}
+		}
+	}
+	order = order[:0]
 	for v := 0; v < n; v++ {
 		if !p.isForbidden(int32(v)) {
 			order = append(order, int32(v))
@@ -449,6 +469,9 @@ func (p *placer) greedy() {
 // alternating paths (0 if none), a row's the largest potential among the
 // columns it could take instead of its mate.
 func (p *placer) potentials() {
+	if p.pot != nil {
+		return
+	}
 	g, n := p.g, p.n
 	p.pot = make([]int64, 2*n+1+p.nsrc)
 	roots := make([]int32, 0)

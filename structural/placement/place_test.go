@@ -54,6 +54,7 @@ func checkPlacement(t *testing.T, label string, o *testnet.Oracle, sensors bool,
 // arc, the terminal's included, has a non-negative reduced cost.
 func (p *placer) checkReducedCosts(t *testing.T, label string) {
 	t.Helper()
+	p.potentials() // computed when routing or Roles needed them
 	n := int32(p.n)
 	bad := func(x, y int32, c int64) {
 		if rc := c + p.pot[x] - p.pot[y]; rc < 0 {

@@ -61,6 +61,7 @@ func (pl *Placement) Roles(max int) []DeviceRole {
 		max = 0
 	}
 	p := pl.p
+	p.potentials()
 	forced := p.forced(pl.added)
 	alts := p.alternatives(pl, max)
 	out := make([]DeviceRole, len(pl.added))
