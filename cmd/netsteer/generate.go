@@ -1,13 +1,10 @@
 package main
 
 import (
-	"io"
-	"strconv"
 	"strings"
 
 	"github.com/spf13/pflag"
 
-	"github.com/netsteer/netsteer/io/fileout"
 	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/io/textout"
 	"github.com/netsteer/netsteer/structural/analysis"
@@ -113,43 +110,10 @@ func generateFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if err != nil {
 			return usagef("%s", describe(err))
 		}
-		rng := gen.NewRand(*seed)
-		var edges int64
-		written := netwrite.Written{Network: nw.output, Format: nw.format()}
-		if written.Format == netwrite.MatrixMarket {
-			g, err := p.Network(rng)
-			if err != nil {
-				return err
-			}
-			if written, err = netwrite.WriteFile(nw.output, g, netwrite.Options{Format: written.Format, Stdout: e.Stdout}); err != nil {
-				return err
-			}
-			edges = int64(g.Edges())
-		} else {
-			// Stream the edges straight into the file.
-			err := fileout.Write(nw.output, e.Stdout, func(w io.Writer) error {
-				return netwrite.Compressed(nw.output, w, func(w io.Writer) error {
-					if _, err := io.WriteString(w, genComment(p, *seed)); err != nil {
-						return err
-					}
-					ew := netwrite.NewEdgeWriter(w, 1)
-					if err := p.Generate(rng, ew); err != nil {
-						return err
-					}
-					edges = ew.Edges()
-					return ew.Flush()
-				})
-			})
-			if err != nil {
-				return err
-			}
-			if nt := nw.nodeTablePath(); nt != "" {
-				err := fileout.Write(nt, e.Stdout, func(w io.Writer) error { return netwrite.WriteIntNodeTable(w, p.Nodes, 1) })
-				if err != nil {
-					return err
-				}
-				written.NodeTable = nt
-			}
+		written, edges, err := netwrite.WriteGenerated(nw.output, p, *seed,
+			netwrite.Options{Format: nw.format(), NodeTable: nw.nodeTablePath(), Stdout: e.Stdout})
+		if err != nil {
+			return err
 		}
 		r := analysis.Generated(p, *seed, edges)
 		r.Output, r.NodeTable = written.Network, written.NodeTable
@@ -228,17 +192,4 @@ func writeSummary(e *env, format string, toStderr bool, r report) error {
 	}
 	of := outFlags{format: format, output: "-"}
 	return of.write(&env{Stdout: w, Width: e.Width}, r)
-}
-
-// genComment is the first line of a generated edge list: the model, its
-// parameters and the seed, so the file can be made again.
-func genComment(p gen.Params, seed uint64) string {
-	s := "# netsteer generate " + p.Model + " --nodes=" + strconv.Itoa(p.Nodes)
-	if p.Model == "er" || p.Model == "scale-free" {
-		s += " --mean-degree=" + gen.FormatFloat(p.MeanDegree)
-	}
-	for _, kv := range p.Settings() {
-		s += " --" + strings.ReplaceAll(kv.Name, "_", "-") + "=" + kv.Value
-	}
-	return s + " --seed=" + strconv.FormatUint(seed, 10) + "\n"
 }

@@ -267,33 +267,8 @@ func describe(err error) string {
 	return strings.TrimSpace(err.Error())
 }
 
-// labelsGroups returns each state's label and group: those the network
-// file gave, overridden by the node table's label and group columns; nil
-// when neither gives any.
+// labelsGroups returns each state's label and group (nodetable
+// Table.Labels): the network file's, overridden by the node table's.
 func (in *input) labelsGroups() (labels, groups []string) {
-	n := in.g.N()
-	pick := func(file []string, col func(r *nodetable.Row) string) []string {
-		if len(file) != n {
-			file = nil
-		}
-		out, copied := file, false
-		if in.table != nil {
-			for i := range in.table.Rows {
-				r := &in.table.Rows[i]
-				v, ok := in.g.Lookup(r.Node)
-				if col(r) == "" || !ok {
-					continue
-				}
-				if !copied {
-					out, copied = make([]string, n), true
-					copy(out, file)
-				}
-				out[v] = col(r)
-			}
-		}
-		return out
-	}
-	labels = pick(in.read.Labels, func(r *nodetable.Row) string { return r.Label })
-	groups = pick(in.read.Groups, func(r *nodetable.Row) string { return r.Group })
-	return labels, groups
+	return in.table.Labels(in.g, in.read.Labels, in.read.Groups)
 }

@@ -199,26 +199,12 @@ func (l *loaded) picture(rv *analysis.Review, title string, roles bool) (*render
 		in.Role = nil
 	}
 	in.Title = title
-	if t := l.table; t != nil {
-		labels, groups := map[int32]string{}, map[int32]string{}
-		for _, r := range t.Rows {
-			v, ok := l.g.Lookup(r.Node)
-			if !ok {
-				continue
-			}
-			if r.Label != "" {
-				labels[v] = r.Label
-			}
-			if r.Group != "" {
-				groups[v] = r.Group
-			}
-		}
-		if len(labels) > 0 {
-			in.Label = func(v int32) string { return labels[v] }
-		}
-		if len(groups) > 0 {
-			in.Group = func(v int32) string { return groups[v] }
-		}
+	labels, groups := l.labelsGroups()
+	if labels != nil {
+		in.Label = func(v int32) string { return labels[v] }
+	}
+	if groups != nil {
+		in.Group = func(v int32) string { return groups[v] }
 	}
 	return in, nil
 }

@@ -181,3 +181,29 @@ func FuzzRead(f *testing.F) {
 		}
 	})
 }
+
+// Labels and groups: the table's columns override what the network file
+// gave; a nil table keeps the file's; file slices of the wrong length are
+// ignored; nothing anywhere gives nil.
+func TestLabels(t *testing.T) {
+	g := readNet(t, "a b\nb c\n", nil) // states a, b, c in that order
+	tab, err := Read(strings.NewReader("node,label,group\na,Inlet,\nc,,north\n"), "t.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		tab          *Table
+		fileL, fileG []string
+		wantL, wantG []string
+	}{
+		{tab, nil, nil, []string{"Inlet", "", ""}, []string{"", "", "north"}},
+		{tab, []string{"x", "y", "z"}, []string{"p", "q"}, []string{"Inlet", "y", "z"}, []string{"", "", "north"}},
+		{nil, []string{"x", "y", "z"}, nil, []string{"x", "y", "z"}, nil},
+		{nil, nil, nil, nil, nil},
+	} {
+		l, gr := c.tab.Labels(g, c.fileL, c.fileG)
+		if !slices.Equal(l, c.wantL) || !slices.Equal(gr, c.wantG) || (c.wantL == nil) != (l == nil) || (c.wantG == nil) != (gr == nil) {
+			t.Errorf("Labels(%v, %v) = %q, %q; want %q, %q", c.fileL, c.fileG, l, gr, c.wantL, c.wantG)
+		}
+	}
+}

@@ -515,3 +515,35 @@ func (t *Table) devices(g *structural.Network, get func(*Row) (int64, bool, bool
 	}
 	return d
 }
+
+// Labels returns each state's label and group: fileLabels and fileGroups
+// (one per state, as a network file gave them; ignored unless there are
+// g.N() of them), overridden by the table's label and group columns where
+// a row gives one; nil when neither gives any. A nil table gives the
+// file's.
+func (t *Table) Labels(g *structural.Network, fileLabels, fileGroups []string) (labels, groups []string) {
+	n := g.N()
+	pick := func(file []string, col func(r *Row) string) []string {
+		if len(file) != n {
+			file = nil
+		}
+		out, copied := file, false
+		if t == nil {
+			return out
+		}
+		for i := range t.Rows {
+			r := &t.Rows[i]
+			v, ok := g.Lookup(r.Node)
+			if col(r) == "" || !ok {
+				continue
+			}
+			if !copied {
+				out, copied = make([]string, n), true
+				copy(out, file)
+			}
+			out[v] = col(r)
+		}
+		return out
+	}
+	return pick(fileLabels, func(r *Row) string { return r.Label }), pick(fileGroups, func(r *Row) string { return r.Group })
+}
