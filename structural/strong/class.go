@@ -36,8 +36,9 @@ func (k Kind) String() string {
 
 // ParseKind reads the kind of one listed edge from a file token: "*" or
 // "nonzero" for a coupling that is never zero, "?" or "arbitrary" for one
-// that may be zero. Case is ignored. It is the helper for the readers' edge
-// token and attribute; see NOTES.md for the proposed syntax.
+// that may be zero. Case is ignored. The command line does not use it (its
+// --may-be-zero file lists the edges that may be zero); it is for Go
+// programs that mark edges in files of their own.
 func ParseKind(tok string) (Kind, error) {
 	switch strings.ToLower(tok) {
 	case "*", "nonzero":
