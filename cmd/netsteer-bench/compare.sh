@@ -67,23 +67,34 @@ echo "== library stages (netsteer-bench scale)" >&2
 
 # 2. The command line: one process per command and size, timed by
 # /usr/bin/time (wall, user, system, peak RSS). Each entry is
-# NAME|ARGUMENTS with {net}, {full}, {half} and {costs} standing for the
-# workload files. The arguments follow the CLI being rebuilt; adjust them
-# here when its flags settle (see cmd/netsteer-bench/NOTES.md).
+# NAME|ARGUMENTS with {net}, {full}, {half}, {costs} and {targets} standing
+# for the workload files and {out} for a scratch output name. {targets} is
+# every state that starts line 1, 1001, 2001, ... of the edge list (about
+# N/200 states). render and report draw the view they choose for a network
+# this large (the control structure).
 COMMANDS=(
 	"drivers|drivers {net} --format json"
 	"drivers --roles|drivers {net} --roles --format json"
 	"check (passing)|check {net} --inputs {full} --format json"
 	"check (failing)|check {net} --inputs {half} --format json"
+	"check --strong|check {net} --inputs {full} --strong --format json"
+	"check --targets|check {net} --inputs {half} --targets {targets} --format json"
 	"actuators|actuators {net} --format json"
 	"actuators (costs)|actuators {net} --node-table {costs} --format json"
+	"actuators --targets|actuators {net} --targets {targets} --format json"
+	"actuators --survive|actuators {net} --survive device --format json"
 	"sensors|sensors {net} --format json"
+	"failures|failures {net} --inputs {full} --format json"
+	"verify --sample|verify {net} --inputs {full} --sample 500 --trials 1 --seed 1 --format json"
+	"render|render {net} -o {out}.svg"
+	"report|report {net} -o {out}.html"
 )
 : >"$OUT/cli.txt"
 if [ "$CLI" = 1 ]; then
 	echo "== command line (${#COMMANDS[@]} commands)" >&2
 	for n in ${SIZES//,/ }; do
 		base="$OUT/er-$n-$K-1"
+		[ -s "$base.targets" ] || awk 'NR % 1000 == 1 { print $1 }' "$base.edges" | sort -u >"$base.targets"
 		for entry in "${COMMANDS[@]}"; do
 			name=${entry%%|*}
 			args=${entry#*|}
@@ -91,12 +102,15 @@ if [ "$CLI" = 1 ]; then
 			args=${args//\{full\}/$base.full.design}
 			args=${args//\{half\}/$base.half.design}
 			args=${args//\{costs\}/$base.costs.csv}
+			args=${args//\{targets\}/$base.targets}
+			args=${args//\{out\}/$OUT/cli-out}
 			tag=$(echo "$name" | tr -c 'a-z0-9\n' '_')
 			for r in $(seq "$RUNS"); do
 				# Exit status 1 means "the answer is no" (a failing check).
 				/usr/bin/time -f "%e %U %S %M" -o "$OUT/time.txt" "$OUT/netsteer" $args \
 					>"$OUT/cli-$tag-$n-$r.json" 2>"$OUT/cli-$tag-$n-$r.err" || [ $? = 1 ]
-				echo "$name|$n|$r|$(cat "$OUT/time.txt")|$OUT/cli-$tag-$n-$r.json" >>"$OUT/cli.txt"
+				# time(1) adds a line "Command exited with non-zero status 1" first.
+				echo "$name|$n|$r|$(tail -n 1 "$OUT/time.txt")|$OUT/cli-$tag-$n-$r.json" >>"$OUT/cli.txt"
 			done
 		done
 	done
@@ -178,7 +192,9 @@ cli = {}
 for name, n, run, times, out in cli_lines:
     wall, user, sys_, kb = times.split()
     try:
-        ans = json.load(open(out))
+        # render and report write a picture or a page and a summary in
+        # text on standard output; the summary is what runs must agree on.
+        ans = open(out).read() if name in ("render", "report") else json.load(open(out))
     except Exception as e:
         problems.append(f"netsteer {name} at N={n}: output is not JSON ({e})")
         ans = None
