@@ -29,8 +29,15 @@ func (t *tw) targetHeadline(v *target.Verdict) string {
 		return fmt.Sprintf("the %s %s NOT all %s with %s (target dimension %s of %d)", count(k, "target", "targets"), plural(k, "is", "are"), verb, sig,
 			map[bool]string{true: fmt.Sprint(v.Upper), false: exact}[v.Exact], k)
 	}
-	return fmt.Sprintf("UNDECIDED whether the %s %s %s: the target dimension is %s; the exact parts exceed the limits (%d states matter)",
-		count(k, "target", "targets"), plural(k, "is", "are"), verb, exact, v.RelevantStates)
+	why := fmt.Sprintf("the exact parts exceed the limits (%d states matter)", v.RelevantStates)
+	switch {
+	case v.SampleBelowLinking:
+		why = fmt.Sprintf("a sample reaches only %d while a linking of %d in the time-expanded network suggests more, so the linking is not trusted", v.Lower, v.Linking)
+	case v.ByTheorem:
+		why = fmt.Sprintf("a linking of %d in the time-expanded network suggests so, which is not a proof, and no sample fits the limits (%d states matter)", v.Linking, v.RelevantStates)
+	}
+	return fmt.Sprintf("UNDECIDED whether the %s %s %s: the target dimension is %s; %s",
+		count(k, "target", "targets"), plural(k, "is", "are"), verb, exact, why)
 }
 
 // targetFix says what to change when targets are out of reach.
@@ -64,13 +71,10 @@ func (t *tw) targetDetails(v *target.Verdict) {
 	t.ip("  ", "targets (%d): %s", v.Targets.Len(), t.names(v.Targets, true))
 	var up, lo []string
 	for _, b := range v.Bounds {
-		if b.Skipped != "" {
-			continue
+		if b.Skipped != "" || b.ByTheorem {
+			continue // a linking, not a proved bound, is written below
 		}
 		s := fmt.Sprintf("%s %d", strings.ReplaceAll(b.Name, "_", " "), b.Value)
-		if b.ByTheorem {
-			s += " (by the linking theorem)"
-		}
 		if b.Upper {
 			up = append(up, s)
 		} else {
@@ -78,6 +82,9 @@ func (t *tw) targetDetails(v *target.Verdict) {
 		}
 	}
 	t.ip("  ", "target dimension at most %d (%s); at least %d (%s, from %s)", v.Upper, strings.Join(up, ", "), v.Lower, strings.Join(lo, ", "), strings.ReplaceAll(v.LowerFrom, "_", " "))
+	if v.Linking > 0 {
+		t.ip("  ", "largest linking found in the time-expanded network: %d (not a proved lower bound)", v.Linking)
+	}
 	t.ip("  ", "states that matter: %d (reached by a signal and acting on a target)", v.RelevantStates)
 }
 
@@ -102,10 +109,21 @@ func (t *tw) selection(file, device string, s *target.Selection, signals bool) {
 		head = fmt.Sprintf("%s: %s %s the %s, cost %s (%s)", displayFile(file), count(s.Count, what, whats), plural(s.Count, "steers", "steer"), count(k, "target", "targets"), s.Cost, saved)
 	}
 	t.p("  ", "%s.", head)
-	if s.Optimal {
+	met := s.Count <= s.Lower
+	if !signals {
+		met = s.Cost <= s.LowerCost
+	}
+	switch {
+	case s.Optimal && met:
 		t.p("  ", "Optimal: it meets the lower bound (%d).", s.Lower)
-	} else {
-		t.p("  ", "Best found: %d; at least %d needed (lower bound).", s.Count, s.Lower)
+	case s.Optimal:
+		t.p("  ", "Optimal: proved minimal (lower bound %d).", s.Lower)
+	default:
+		stop := ""
+		if s.Stopped > 0 {
+			stop = ", and the exhaustive search stopped at its work limit"
+		}
+		t.p("  ", "Best found: %d; at least %d needed (lower bound); not proved minimal%s.", s.Count, s.Lower, stop)
 	}
 	if signals {
 		for i, sig := range s.Inputs.Signals() {
@@ -136,7 +154,7 @@ var phrases = map[string]string{
 	"ancestor_closed":  "full control of a part closed under its in-neighbours",
 	"lin_subnetwork":   "Lin's theorem on a subnetwork holding the targets",
 	"sampled_rank":     "an exact sampled rank over GF(2^61-1)",
-	"dynamic_linking":  "a linking in the time-expanded network (Murota & Poljak 1990)",
+	"dynamic_linking":  "a linking in the time-expanded network only (enough if the rank equals the largest linking, after Murota & Poljak 1990; not proved in general)",
 }
 
 func phrase(code string) string {

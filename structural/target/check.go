@@ -50,6 +50,8 @@ type Limits struct {
 	MaxDimensionStates int
 	// LinkingDepth is the number of layers of the greedy linking.
 	LinkingDepth int
+	// sampleHook, for tests, replaces the sampled rank of Check.
+	sampleHook func(rank int) int
 }
 
 func (l Limits) withDefaults() Limits {
@@ -92,9 +94,13 @@ type CheckRequest struct {
 // Status is the outcome of a check.
 type Status string
 
-// The outcomes. Undecided means that the proved bounds straddle the number
-// of targets: the exact parts were beyond the limits, or the linking bound
-// is not attained.
+// The outcomes. Controllable is proved from below (a sample of C·K of
+// rank |T|, Lin's theorem on a subnetwork, or |T| disjoint input-target
+// paths); NotControllable is proved from above (an upper bound below |T|);
+// Undecided means that the proved bounds straddle the number of targets:
+// the exact parts were beyond the limits, or the samples fall short of the
+// linking bound. A linking in the dynamic graph alone never proves
+// Controllable (see Verdict.ByTheorem).
 const (
 	Controllable    Status = "controllable"
 	NotControllable Status = "not_controllable"
@@ -106,14 +112,17 @@ type Bound struct {
 	// Name is one of "reached_targets", "in_capacity", "layer_cut",
 	// "controllable_dimension", "dynamic_linking" (upper bounds, all
 	// proved), "static_linking", "lin_subnetwork", "sampled_rank" (lower
-	// bounds, proved), "greedy_linking" and "dynamic_linking" (lower
-	// bounds by the theorem of Murota & Poljak).
+	// bounds, proved), "greedy_linking" and "dynamic_linking" (linkings
+	// in the dynamic graph, ByTheorem: lower bounds only if the rank
+	// equals the largest dynamic linking, which is not proved here).
 	Name string `json:"name"`
-	// Upper reports an upper bound; otherwise a lower bound.
+	// Upper reports an upper bound; otherwise a lower bound or, with
+	// ByTheorem, a linking.
 	Upper bool `json:"upper"`
-	// ByTheorem reports a lower bound that rests on the equality of the
-	// rank and the largest dynamic linking (Murota & Poljak 1990), cited,
-	// not proved here.
+	// ByTheorem reports a linking that would bound the rank from below if
+	// the rank equalled the largest dynamic linking (the characterisation
+	// attributed to Murota & Poljak 1990, not proved here). It never
+	// raises Verdict.Lower and never decides the status.
 	ByTheorem bool `json:"by_theorem"`
 	// Value is the bound; meaningless when Skipped is set.
 	Value int `json:"value"`
@@ -169,10 +178,24 @@ type Verdict struct {
 	Lower int  `json:"dimension"`
 	Upper int  `json:"dimension_upper"`
 	Exact bool `json:"exact"`
-	// LowerFrom names the bound that gave Lower; ByTheorem reports that it
-	// rests on the theorem of Murota & Poljak (see Bound).
+	// LowerFrom names the proved bound that gave Lower.
 	LowerFrom string `json:"dimension_from"`
-	ByTheorem bool   `json:"by_theorem"`
+	// Linking is the largest linking found in the dynamic graph (greedy or
+	// exact; 0 when none was computed). It bounds the rank from below
+	// only by the characterisation attributed to Murota & Poljak, which is
+	// not proved here, so it never raises Lower.
+	Linking int `json:"linking"`
+	// ByTheorem reports an Undecided verdict in which Linking reaches the
+	// number of targets and no sample contradicts it: the targets are
+	// steered if that characterisation holds, which no sample checked.
+	ByTheorem bool `json:"by_theorem"`
+	// SampleBelowLinking reports that the exact rank of a sample was
+	// computed and is below Linking: either the characterisation fails
+	// for this network (different path systems cancel through the shared
+	// parameters of A) or every sample missed the generic rank (each with
+	// probability at most FailureBound). The status is then decided by
+	// the proved bounds alone.
+	SampleBelowLinking bool `json:"sample_below_linking"`
 	// Unreached lists the targets that no signal reaches, directly or
 	// downstream.
 	Unreached structural.States `json:"unreached"`
@@ -208,11 +231,13 @@ type Verdict struct {
 // theorem holds (see linCertificate); and, up to Limits.MaxSampleStates
 // states in H, the exact rank of C·K over GF(2^61-1) for random samples,
 // which never exceeds the generic rank and misses it with probability at
-// most N²/(p-1) per sample. Lower bounds by the theorem of Murota & Poljak
-// (IEEE TAC 35(8), 1990), that the rank equals the largest dynamic
-// linking: a greedy linking of Limits.LinkingDepth layers (see
-// greedyLinking) and the largest linking itself; ByTheorem marks a
-// dimension that rests on them.
+// most N²/(p-1) per sample. Linkings in the dynamic graph, a greedy one of
+// Limits.LinkingDepth layers (see greedyLinking) and the largest one, are
+// lower bounds only if the rank equals the largest dynamic linking (the
+// characterisation attributed to Murota & Poljak, IEEE TAC 35(8), 1990,
+// not proved here): they are reported as Linking and never raise Lower,
+// so they never make a verdict Controllable (see Verdict.ByTheorem and
+// Verdict.SampleBelowLinking).
 //
 // The bounds run cheapest first and stop once they meet. Work: breadth
 // first searches and a few maximum matchings on H for the cheap bounds,
@@ -240,18 +265,13 @@ func Check(g *structural.Network, req CheckRequest) (*Verdict, error) {
 	}
 	v.Bounds = b.list
 	v.Lower, v.Upper = b.lower, b.upper
-	v.LowerFrom, v.ByTheorem = b.lowerFrom, b.byTheorem
+	v.LowerFrom, v.Linking = b.lowerFrom, b.linking
 	v.Exact = v.Lower == v.Upper
 	nt := len(targets)
-	switch {
-	case v.Lower == nt:
-		v.Status = Controllable
-	case v.Upper < nt:
-		v.Status = NotControllable
-	default:
-		v.Status = Undecided
-	}
+	v.Status = status(v.Lower, v.Upper, nt)
 	v.Holds = v.Status == Controllable
+	v.SampleBelowLinking = b.sampleRank >= 0 && b.sampleRank < b.linking
+	v.ByTheorem = v.Status == Undecided && b.linking >= nt && !v.SampleBelowLinking
 	if b.sampled {
 		v.FailureBound = failureBound(g.N())
 	}
@@ -269,6 +289,19 @@ func Check(g *structural.Network, req CheckRequest) (*Verdict, error) {
 		v.Funnel = funnel(g, p, b.cutK, b.cut)
 	}
 	return v, nil
+}
+
+// status decides a verdict from the proved bounds alone: Controllable
+// when the proved lower bound reaches the targets, NotControllable when a
+// proved upper bound is below them, Undecided otherwise.
+func status(lower, upper, targets int) Status {
+	switch {
+	case lower >= targets:
+		return Controllable
+	case upper < targets:
+		return NotControllable
+	}
+	return Undecided
 }
 
 // failureBound is numeric's bound N²/(p-1) on the chance that one random
@@ -311,10 +344,15 @@ func funnel(g *structural.Network, p *part, k, capacity int) *Funnel {
 
 // bounds collects the bounds of one question.
 type bounds struct {
-	list          []Bound
-	lower, upper  int
-	lowerFrom     string
-	byTheorem     bool
+	list         []Bound
+	lower, upper int // proved
+	lowerFrom    string
+	// linking is the largest dynamic-graph linking found, a lower bound
+	// only by the unproved characterisation; never mixed into lower.
+	linking int
+	// sampleRank is the exact rank of C·K of the best full sample, -1
+	// when no full sample was computed.
+	sampleRank    int
 	capacity, cut int
 	cutK          int
 	witness       *capacityWitness
@@ -324,15 +362,17 @@ type bounds struct {
 
 func (b *bounds) add(name string, upper bool, value int) { b.addBasis(name, upper, false, value) }
 
-// addBasis records a bound; a lower bound by the theorem replaces a proved
-// one only when it is larger.
+// addBasis records a bound. A linking by the theorem is kept apart, in
+// b.linking: it never raises the proved lower bound.
 func (b *bounds) addBasis(name string, upper, theorem bool, value int) {
 	b.list = append(b.list, Bound{Name: name, Upper: upper, ByTheorem: theorem, Value: value})
 	switch {
 	case upper:
 		b.upper = min(b.upper, value)
+	case theorem:
+		b.linking = max(b.linking, value)
 	case value > b.lower || b.lowerFrom == "":
-		b.lower, b.lowerFrom, b.byTheorem = value, name, theorem
+		b.lower, b.lowerFrom = value, name
 	}
 }
 
@@ -344,7 +384,7 @@ func (b *bounds) skip(name string, upper bool, why string) {
 // they meet. dim, when not nil, gives the generic controllable dimension.
 func (p *part) bound(lim Limits, seed uint64, dim func() (int, error)) *bounds {
 	nt := len(p.targets)
-	b := &bounds{upper: nt}
+	b := &bounds{upper: nt, sampleRank: -1}
 	b.add("reached_targets", true, nt)
 	if nt == 0 {
 		b.lowerFrom = "reached_targets"
@@ -385,12 +425,21 @@ func (p *part) bound(lim Limits, seed uint64, dim func() (int, error)) *bounds {
 		f := numeric.NewField(numeric.Mersenne61)
 		// The cheap depth-by-depth columns first: enough when they meet
 		// the upper bound.
-		best, _ := rankProve(p, f, rand.New(rand.NewPCG(seed, 1<<32)), p.n, b.upper, checkProveWork)
-		for t := 0; t < max(lim.Trials, 1) && best < b.upper; t++ {
-			rng := rand.New(rand.NewPCG(seed, uint64(2*t)))
-			best = max(best, rankSample(p, f, rng, b.upper))
+		best, _, _ := rankProve(p, f, rand.New(rand.NewPCG(seed, 1<<32)), p.n, b.upper, checkProveWork)
+		full := best // the rank of a whole sample, once known
+		if best < b.upper {
+			full = -1
+			for t := 0; t < max(lim.Trials, 1) && best < b.upper; t++ {
+				rng := rand.New(rand.NewPCG(seed, uint64(2*t)))
+				r := rankSample(p, f, rng, b.upper)
+				best, full = max(best, r), max(full, r)
+			}
 		}
-		b.sampled = true
+		if lim.sampleHook != nil {
+			best = lim.sampleHook(best)
+			full = best
+		}
+		b.sampled, b.sampleRank = true, full
 		b.add("sampled_rank", false, best)
 	} else {
 		b.skip("sampled_rank", false, "the relevant part exceeds the sample limit")
@@ -423,8 +472,8 @@ func (p *part) bound(lim Limits, seed uint64, dim func() (int, error)) *bounds {
 	}
 	// Layers double until the linking meets the best upper bound (then
 	// the full linking is that bound too) or all |H| layers are built. The
-	// full linking bounds the rank from above (proved) and, by the
-	// theorem, from below.
+	// full linking bounds the rank from above (proved); it is also kept as
+	// the linking, a lower bound only by the unproved characterisation.
 	for L := 1; ; L = min(2*L, p.n) {
 		lam := dynamicLinking(p, L)
 		if lam >= b.upper || L == p.n {

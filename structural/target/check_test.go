@@ -286,3 +286,51 @@ func TestSampleAgainstKalman(t *testing.T) {
 		t.Errorf("limit: %v", err)
 	}
 }
+
+// A linking in the dynamic graph never proves the targets steered on its
+// own. The tree 0 -> 1, 0 -> 2 -> 3 with one input on 0 steers the targets
+// {1, 3} (distinct distances from the root: Gao, Liu, D'Souza & Barabási,
+// Nat. Commun. 5:5415, 2014); Lin's test fails on every subnetwork holding
+// them (1 and 2 share their only in-neighbour 0) and one signal gives one
+// disjoint input-target path, so only the sample proves it. A greedy
+// linking of 2 exists. When the sample is forced below it (the shape of a
+// network where the rank is below the largest dynamic linking), or when no
+// sample fits the limits, the verdict is Undecided, never Controllable.
+func TestLinkingNeverOverridesSample(t *testing.T) {
+	g := testnet.Network(t, 4, []testnet.Edge{{0, 1}, {0, 2}, {2, 3}})
+	d := testnet.Design(t, g, [][]int32{{0}})
+	req := CheckRequest{Targets: []int32{1, 3}, Inputs: d}
+
+	v, err := Check(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v.Status != Controllable || v.LowerFrom != "sampled_rank" || v.ByTheorem || v.SampleBelowLinking {
+		t.Fatalf("plain check: status %s from %s, by theorem %v, below linking %v", v.Status, v.LowerFrom, v.ByTheorem, v.SampleBelowLinking)
+	}
+
+	req.sampleHook = func(int) int { return 1 }
+	v, err = Check(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v.Status != Undecided || v.Holds || v.Lower != 1 || v.Upper != 2 || v.Linking != 2 || !v.SampleBelowLinking || v.ByTheorem {
+		t.Fatalf("sample below the linking: status %s, bounds [%d, %d], linking %d, below %v, by theorem %v; %+v",
+			v.Status, v.Lower, v.Upper, v.Linking, v.SampleBelowLinking, v.ByTheorem, v.Bounds)
+	}
+
+	req.sampleHook = nil
+	req.MaxSampleStates = -1
+	v, err = Check(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v.Status != Undecided || v.Holds || v.Lower != 1 || v.Linking != 2 || !v.ByTheorem || v.SampleBelowLinking || v.FailureBound != 0 {
+		t.Fatalf("no sample: status %s, bounds [%d, %d] from %s, linking %d, by theorem %v", v.Status, v.Lower, v.Upper, v.LowerFrom, v.Linking, v.ByTheorem)
+	}
+	for _, b := range v.Bounds {
+		if b.ByTheorem && b.Upper {
+			t.Errorf("bound %s: an upper bound marked by theorem", b.Name)
+		}
+	}
+}

@@ -32,16 +32,25 @@
 //     generic rank and reaches it with probability at least 1 - N²/(p-1)
 //     (numeric's Schwartz–Zippel bound).
 //   - Murota & Poljak ("Note on a graph-theoretic criterion for structural
-//     output controllability", IEEE TAC 35(8), 1990) characterise the
-//     generic rank of C·K as the largest linking in the dynamic graph. The
-//     upper-bound half is proved above; the equality is taken from the
-//     literature (the paper was not at hand: the statement is as cited in
-//     the issue and in later work) and is cross-checked here, against the
-//     Kalman rank, on thousands of random systems, where it always held.
-//     Where a lower bound rests on it (a linking found, not a sample or a
-//     Lin certificate), results say so: Verdict.ByTheorem, and the proof
-//     "dynamic_linking" of a Selection, which occurs only where the part
-//     that matters exceeds the sample's size or work limits.
+//     output controllability", IEEE TAC 35(8), 1990) are cited for
+//     characterising the generic rank of C·K as the largest linking in the
+//     dynamic graph. Only the upper-bound half is proved here (above); the
+//     paper was not at hand, and the equality, which would make a linking
+//     a lower bound, is not used as one: recent work finds graph-theoretic
+//     characterisations of target controllability incomplete (Peruzzo,
+//     Baggio & Ticozzi, arXiv:2504.17406, 2025) and shows a published
+//     graph-theoretic characterisation of the related controllability
+//     index failing, giving only upper bounds (Zhang, Cheng, Luo & Xia,
+//     arXiv:2502.13368, 2025). A linking found in the dynamic graph
+//     (greedy or exact) is reported beside the proved bounds
+//     (Verdict.Linking, Bound.ByTheorem) and never decides a verdict:
+//     Controllable needs a proved lower bound of |T|, and a sample whose
+//     exact rank is below the linking leaves the verdict to the proved
+//     bounds, with SampleBelowLinking set. On thousands of random small
+//     systems the equality held against the Kalman rank, which is why
+//     Select still keeps a walk-greedy design on its linking (proof
+//     "dynamic_linking") where the region exceeds the sample's size or
+//     work limits, and drops it where a whole sample of it falls short.
 //   - Gao, Liu, D'Souza & Barabási ("Target control of complex networks",
 //     Nat. Commun. 5:5415, 2014) prove, for directed trees, that one input
 //     steers targets whose distances from it are distinct (k-walk theory),
@@ -54,6 +63,11 @@
 //     and the subnetwork then evolves on its own and steers all of S.
 //     Full control of the states that act on the targets (they form such a
 //     closed S) is the case that is never worse than today's answer.
+//   - Select's exact search proves its answer minimal only when it ends
+//     with every design it passed over refuted by an upper bound or by a
+//     whole sample that falls short (Selection.Unsure, each wrong with
+//     probability at most FailureBound); a design left unjudged at a work
+//     or size limit (Selection.Stopped) leaves Optimal to the lower bound.
 //
 // The package owns Check (judge a design), Select (fewest signals or
 // cheapest actuators for the targets, with lower bounds) and Sample (the

@@ -14,10 +14,12 @@ import (
 // set is proved enough (its supersets cost more), or when the set with
 // every remaining candidate added is refuted by a proved upper bound
 // (adding signals never lowers the rank, so no subset can do better). Each
-// set is proved by a sample or refuted by an upper bound; a set that is
-// neither is counted as an unsure rejection. It returns the better design
-// found (nil if none) and whether the search ran to the end, which proves
-// the result optimal. Designs: at most 2^c for c candidates.
+// set is proved by a sample or refuted by an upper bound; a set whose
+// whole sample falls short is counted as an unsure rejection, and a set
+// that the work limits left unjudged as a stopped one. It returns the
+// better design found (nil if none) and whether the search ran to the end
+// with no stopped rejection, which proves the result optimal. Designs: at
+// most 2^c for c candidates.
 func exactActuators(r *region, o *oracle, best *design, maxCand, maxNodes int) (*design, bool) {
 	var cand []int32
 	for v := int32(0); int(v) < r.n; v++ {
@@ -30,6 +32,7 @@ func exactActuators(r *region, o *oracle, best *design, maxCand, maxNodes int) (
 	}
 	slices.SortStableFunc(cand, func(a, b int32) int { return cmp.Compare(r.dev.CostOf(a), r.dev.CostOf(b)) })
 	ex := r.existing()
+	stopped := o.stopped
 	bestCost, bestCount := best.cost, len(best.added)
 	var found *design
 	nodes := 0
@@ -70,21 +73,24 @@ func exactActuators(r *region, o *oracle, best *design, maxCand, maxNodes int) (
 		}
 	}
 	dfs(0, nil, 0)
-	return found, !aborted
+	return found, !aborted && o.stopped == stopped
 }
 
 // exactSignals finds the fewest signals: k signals that each drive every
 // state of the region steer the targets exactly when some design of k
 // signals does (more nonzeros never lower a generic rank), so k runs up
 // from the lower bound until a sample proves it or the best known count is
-// reached (a k neither proved nor refuted counts as an unsure rejection).
-// The design found is then thinned: states are dropped from the
-// signals one by one while a sample still proves the rest enough.
+// reached (a k whose whole sample falls short counts as an unsure
+// rejection; a k the work limits left unjudged, as a stopped one, and the
+// search then reports that it did not finish). The design found is then
+// thinned: states are dropped from the signals one by one while a sample
+// still proves the rest enough.
 func exactSignals(r *region, o *oracle, best *design, lower int) (*design, bool) {
 	all := make([]int32, r.n)
 	for i := range all {
 		all[i] = int32(i)
 	}
+	done := true
 	for k := max(lower, 1); k < len(best.signals); k++ {
 		sig := make([][]int32, k)
 		for i := range sig {
@@ -94,8 +100,12 @@ func exactSignals(r *region, o *oracle, best *design, lower int) (*design, bool)
 		case proved:
 		case refuted:
 			continue
-		default:
+		case short:
 			o.unsure++
+			continue
+		default:
+			o.stopped++
+			done = false
 			continue
 		}
 		// Thin the dense design.
@@ -113,7 +123,7 @@ func exactSignals(r *region, o *oracle, best *design, lower int) (*design, bool)
 				j++
 			}
 		}
-		return &design{signals: sig, method: "exact_search", proof: "sampled_rank"}, true
+		return &design{signals: sig, method: "exact_search", proof: "sampled_rank"}, done
 	}
-	return nil, true
+	return nil, done
 }

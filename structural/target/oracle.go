@@ -9,14 +9,19 @@ import (
 // oracle decides target controllability of designs on a region, for the
 // searches of Select.
 type oracle struct {
-	r      *region
-	lim    Limits
-	f      numeric.Field
-	seed   uint64
-	draws  uint64
-	calls  int
-	unsure int // designs rejected on samples alone
-	ops    int64
+	r     *region
+	lim   Limits
+	f     numeric.Field
+	seed  uint64
+	draws uint64
+	calls int
+	// work bounds the quick proof of one judge (judgeWork by default).
+	work int64
+	// unsure counts designs rejected on samples alone (short); stopped
+	// counts designs left unjudged at a work or size limit (unknown) and
+	// rejected all the same, which voids any claim of an exhaustive search.
+	unsure, stopped int
+	ops             int64
 }
 
 // Work limits of the oracle: one quick proof, and the region size up to
@@ -31,14 +36,15 @@ const (
 )
 
 func newOracle(r *region, lim Limits, seed uint64) *oracle {
-	return &oracle{r: r, lim: lim, f: numeric.NewField(numeric.Mersenne61), seed: seed}
+	return &oracle{r: r, lim: lim, f: numeric.NewField(numeric.Mersenne61), seed: seed, work: judgeWork}
 }
 
 // verdict outcomes.
 const (
 	proved  = iota // the design steers the targets (a sample of full rank)
 	refuted        // a proved upper bound is below the number of targets
-	unknown        // neither, within the limits
+	short          // the exact rank of a whole sample is below |T|: refuted unless every sample missed the generic rank
+	unknown        // no sample judged within the work and size limits
 )
 
 // possible reports whether the design can steer the targets as far as the
@@ -66,9 +72,10 @@ func (o *oracle) upper(p *part) bool {
 
 // judge decides the design: proved by a sample of full rank (rankProve
 // first, then, on regions of at most fullSampleStates states, the full
-// rankSample), refuted by an upper bound, unknown otherwise (counted as unsure when the caller treats
-// it as a rejection).
-func (o *oracle) judge(signals [][]int32) int { return o.judgeWithin(signals, judgeWork) }
+// rankSample), refuted by an upper bound, short when the exact rank of a
+// whole sample falls below the targets, unknown when the work or size
+// limits stopped every sample first (the budget is o.work).
+func (o *oracle) judge(signals [][]int32) int { return o.judgeWithin(signals, o.work) }
 
 // judgeWithin is judge with the quick proof bounded by budget field
 // operations.
@@ -83,7 +90,7 @@ func (o *oracle) judgeWithin(signals [][]int32, budget int64) int {
 		return unknown
 	}
 	o.draws++
-	got, ops := rankProve(p, o.f, rand.New(rand.NewPCG(o.seed, o.draws)), p.n, nt, budget)
+	got, ops, complete := rankProve(p, o.f, rand.New(rand.NewPCG(o.seed, o.draws)), p.n, nt, budget)
 	o.ops += ops
 	if got == nt {
 		return proved
@@ -101,18 +108,25 @@ func (o *oracle) judgeWithin(signals [][]int32, budget int64) int {
 				}
 			}
 		}
+		return short
+	}
+	if complete {
+		// Every column C·A^k·B, k < |H|, of the sample was taken.
+		return short
 	}
 	return unknown
 }
 
-// accept reports whether the design is proved; an unknown verdict counts
-// as an unsure rejection.
+// accept reports whether the design is proved. A short verdict counts as
+// an unsure rejection, an unknown one as a stopped rejection.
 func (o *oracle) accept(signals [][]int32) bool {
 	switch o.judge(signals) {
 	case proved:
 		return true
-	case unknown:
+	case short:
 		o.unsure++
+	case unknown:
+		o.stopped++
 	}
 	return false
 }

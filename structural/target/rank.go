@@ -134,14 +134,16 @@ func (e *echelon) add(v []uint64, piv int) {
 // number of targets) or the work passes budget field operations; it also
 // returns the work done. They are columns of C·K, so the rank is a lower
 // bound on the sample's rank of C·K, and so on the generic rank: a result
-// of |T| proves the targets steered. Without the echelon basis of the
-// whole Krylov space that rankSample keeps, a vector costs one sparse
-// product and one reduction of |T| entries, which makes this the cheap way
-// to prove a design that works; it says little about one that does not.
-func rankProve(p *part, f numeric.Field, rng *rand.Rand, L, stop int, budget int64) (int, int64) {
+// of |T| proves the targets steered. complete reports that the work limit
+// did not stop it: then the stop was reached or, for L = |H|, the rank is
+// the sample's rank of C·K itself (Cayley–Hamilton on the part). Without
+// the echelon basis of the whole Krylov space that rankSample keeps, a
+// vector costs one sparse product and one reduction of |T| entries, which
+// makes this the cheap way to prove a design that works.
+func rankProve(p *part, f numeric.Field, rng *rand.Rand, L, stop int, budget int64) (rank int, ops int64, complete bool) {
 	n, nt, m := p.n, len(p.targets), len(p.signals)
 	if n == 0 || nt == 0 || m == 0 {
-		return 0, 0
+		return 0, 0, true
 	}
 	pat := &numeric.Pattern{Out: &p.out, Signals: p.signals}
 	x := numeric.DrawExact(pat, f, rng)
@@ -153,12 +155,11 @@ func rankProve(p *part, f numeric.Field, rng *rand.Rand, L, stop int, budget int
 			vs[i][st] = x.F.Add(vs[i][st], x.B[i][j])
 		}
 	}
-	var ops int64
 	pr := make([]uint64, nt)
 	for k := 0; k < L; k++ {
 		for i, v := range vs {
 			if ops > budget {
-				return len(proj.rows), ops
+				return len(proj.rows), ops, false
 			}
 			if k > 0 {
 				w := make([]uint64, n)
@@ -173,11 +174,11 @@ func rankProve(p *part, f numeric.Field, rng *rand.Rand, L, stop int, budget int
 			if q := proj.reduce(pr); q >= 0 {
 				proj.add(pr, q)
 				if len(proj.rows) >= min(stop, nt) {
-					return len(proj.rows), ops
+					return len(proj.rows), ops, true
 				}
 				pr = make([]uint64, nt)
 			}
 		}
 	}
-	return len(proj.rows), ops
+	return len(proj.rows), ops, true
 }

@@ -102,7 +102,7 @@ func Sample(g *structural.Network, req SampleRequest) (*SampleResult, error) {
 		// the upper bound that is the sample's rank, else the full
 		// computation on the same sample.
 		rng := rand.New(rand.NewPCG(req.Seed, uint64(t)))
-		r, _ := rankProve(p, f, rng, p.n, res.Upper, checkProveWork)
+		r, _, _ := rankProve(p, f, rng, p.n, res.Upper, checkProveWork)
 		if r < res.Upper {
 			r = rankSample(p, f, rand.New(rand.NewPCG(req.Seed, uint64(t))), res.Upper)
 		}

@@ -65,6 +65,9 @@ type SelectRequest struct {
 	// Seed makes the samples reproducible.
 	Seed uint64
 	Limits
+	// judgeWork, for tests, replaces the work limit of one design's quick
+	// proof in the searches (judgeWork).
+	judgeWork int64
 }
 
 // Candidate is the outcome of one method.
@@ -98,9 +101,10 @@ type Selection struct {
 	Mode     Mode                `json:"-"`
 	// Targets echoes the targets, in increasing order.
 	Targets structural.States `json:"targets"`
-	// Feasible reports that a design was found and proved. When false,
-	// Unreachable and Bottleneck say why, if a proof of infeasibility was
-	// found.
+	// Feasible reports that a design was found and proved (with Proof
+	// "dynamic_linking", by the linking characterisation only; see
+	// Proof). When false, Unreachable and Bottleneck say why, if a proof
+	// of infeasibility was found.
 	Feasible bool `json:"feasible"`
 	// Inputs is the design: one signal per actuator in Actuators mode.
 	Inputs structural.Design `json:"inputs"`
@@ -119,18 +123,22 @@ type Selection struct {
 	LowerCost structural.Cost `json:"lower_bound_cost"`
 	// Optimal reports that Count (Signals) or Cost (Actuators) is proved
 	// the least possible: it meets the lower bound, or the exact search
-	// finished, or the targets hold every state that acts on them (then
-	// target control is full control of that part, solved exactly by
-	// Drivers or Place).
+	// finished with every design it passed over judged (see Stopped), or
+	// the targets hold every state that acts on them (then target control
+	// is full control of that part, solved exactly by Drivers or Place).
+	// When false the design is not proved minimal.
 	Optimal bool `json:"optimal"`
 	// Method produced the design; Proof says why it steers the targets:
 	// "ancestor_closed" (full control of the closed part that acts on the
 	// targets), "lin_subnetwork" (Lin's theorem on a subnetwork holding
 	// the targets), "sampled_rank" (a sample of C·K of full rank over
 	// GF(2^61-1), which no generic rank can fall below), or
-	// "dynamic_linking" (a linking of size |T| in the dynamic graph:
-	// sufficient by the theorem of Murota & Poljak, not checked on a
-	// sample because the region exceeds the sample's size or work limits).
+	// "dynamic_linking" (a linking of size |T| in the dynamic graph, not
+	// checked on a sample because the region exceeds the sample's size or
+	// work limits: sufficient only if the rank equals the largest dynamic
+	// linking, the characterisation attributed to Murota & Poljak 1990,
+	// which is not proved here; a design whose whole sample falls short
+	// of the targets is never kept on a linking).
 	Method string `json:"method"`
 	Proof  string `json:"proof"`
 	// Pruned counts the signals removed from the method's design because a
@@ -145,7 +153,11 @@ type Selection struct {
 	Candidates []Candidate `json:"candidates"`
 	// Unsure counts designs the exact search rejected on samples alone
 	// (each wrong with probability at most FailureBound).
-	Unsure       int     `json:"unsure_rejections"`
+	Unsure int `json:"unsure_rejections"`
+	// Stopped counts designs the searches passed over unjudged, every
+	// sample stopped by a work or size limit; when the exact search met
+	// one it did not finish, and Optimal rests on the lower bound alone.
+	Stopped      int     `json:"stopped_rejections"`
 	FailureBound float64 `json:"failure_bound"`
 	// Infeasible reports a proof that no design the devices allow steers
 	// the targets. Unreachable lists targets that no allowed state acts
@@ -251,6 +263,9 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	}
 
 	o := newOracle(r, lim, req.Seed)
+	if req.judgeWork > 0 {
+		o.work = req.judgeWork
+	}
 	fits := lim.MaxSampleStates >= 0 && r.n <= lim.MaxSampleStates
 	var best *design
 	better := func(d *design) bool {
@@ -301,6 +316,12 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 				d.proof = "sampled_rank"
 			case refuted:
 				ok, note = false, "a proved upper bound refutes the design"
+			case short:
+				// The linking is not attained: a theorem never outweighs
+				// the exact rank of a sample of the same design.
+				ok, note = false, "a sample of the design falls short of the targets despite the linking"
+			default:
+				note = "no sample within the work limit: kept on the linking alone"
 			}
 		}
 		consider("walk_greedy", d, ok, note)
@@ -340,13 +361,17 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	if req.ExactStates >= 0 && r.n <= req.ExactStates && fits && !closed {
 		var d *design
 		var done bool
+		stopped := o.stopped
 		if mode == Actuators {
 			d, done = exactActuators(r, o, best, req.ExactCandidates, req.MaxSearchNodes)
 		} else {
 			d, done = exactSignals(r, o, best, lb.count)
 		}
 		note := ""
-		if !done {
+		switch {
+		case o.stopped > stopped:
+			note = "work limit reached: designs left unjudged, so the search proves nothing minimal"
+		case !done:
 			note = "search limit reached"
 		}
 		if d != nil {
@@ -362,7 +387,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 
 	sel.Feasible = true
 	sel.Method, sel.Proof = best.method, best.proof
-	sel.Unsure = o.unsure
+	sel.Unsure, sel.Stopped = o.unsure, o.stopped
 	if o.draws > 0 {
 		sel.FailureBound = failureBound(r.n)
 	}

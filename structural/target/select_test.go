@@ -292,3 +292,49 @@ func edgesOf(g *structural.Network) []testnet.Edge {
 	}
 	return es
 }
+
+// An exact search stopped by its work limit proves nothing minimal. Three
+// chains of 100, 104 and 107 states (311, above the full-sample size of
+// the searches) with their ends as targets: one signal on the three heads
+// steers them, the ends lying at distinct distances 99, 103 and 106 from
+// it (k-walk theory, Gao, Liu, D'Souza & Barabási, Nat. Commun. 5:5415,
+// 2014), while full control and the stem-cycle cover use three. With the
+// default work the exact search finds one signal; with a work limit that
+// stops every sample, the designs it could not judge must not count as
+// rejections, and the three-signal design is not reported optimal.
+func TestSelectStoppedSearchNotOptimal(t *testing.T) {
+	var es []testnet.Edge
+	var targets []int32
+	start := int32(0)
+	for _, n := range []int32{100, 104, 107} {
+		for v := start; v+1 < start+n; v++ {
+			es = append(es, testnet.Edge{v, v + 1})
+		}
+		targets = append(targets, start+n-1)
+		start += n
+	}
+	g := testnet.Network(t, int(start), es)
+	req := SelectRequest{Targets: targets, Mode: Signals, WalkDepth: -1, ExactStates: 400}
+
+	sel, err := Select(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sel.Feasible || sel.Count != 1 || !sel.Optimal || sel.Stopped != 0 {
+		t.Fatalf("default work: %d signals, optimal %v, stopped %d; %+v", sel.Count, sel.Optimal, sel.Stopped, sel.Candidates)
+	}
+
+	req.judgeWork = 1
+	sel, err = Select(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sel.Feasible || sel.Count != 3 || sel.Lower != 1 || sel.Optimal || sel.Stopped == 0 || sel.Unsure != 0 {
+		t.Fatalf("tiny work: %d signals, lower %d, optimal %v, stopped %d, unsure %d; %+v", sel.Count, sel.Lower, sel.Optimal, sel.Stopped, sel.Unsure, sel.Candidates)
+	}
+	for _, c := range sel.Candidates {
+		if c.Method == "exact_search" && (c.Found || c.Note == "" || c.Note == "nothing better than the candidates") {
+			t.Errorf("exact search candidate %+v", c)
+		}
+	}
+}
