@@ -57,7 +57,13 @@ type Result struct {
 	// Unforced lists the states that either test leaves uncoloured, in
 	// increasing order; empty exactly when Holds.
 	Unforced structural.States `json:"unforced"`
+	// Caution is the standing caution of a strong answer (Caution).
+	Caution string `json:"caution"`
 }
+
+// Caution is the standing caution every strong answer carries: it covers
+// the stated class, all of it and nothing else.
+const Caution = "Strong structural result: it holds for every value of the couplings in the stated class (every listed coupling nonzero unless marked may-be-zero, every unlisted one exactly zero, the states' own dynamics free, zero or nonzero as stated), and only there: a coupling the model omits, one that can vanish but is not marked may-be-zero, or a model that is wrong is not covered. Use it as a screening step; it does not replace dynamic studies, safety analysis, local codes or licensed engineering review."
 
 // Test is the outcome of one forcing test.
 type Test struct {
@@ -128,7 +134,7 @@ func Check(g *structural.Network, r Request) (*Result, error) {
 		return nil, err
 	}
 	s := newSystem(g, r.Property, r.Class, r.Design)
-	res := &Result{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Signals: r.Design.Len()}
+	res := &Result{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Signals: r.Design.Len(), Caution: Caution}
 	limit := int64(r.WitnessEntries)
 	if limit == 0 {
 		limit = DefaultWitnessEntries
