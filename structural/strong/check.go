@@ -23,9 +23,10 @@ type Request struct {
 	// negative value builds no witness.
 	WitnessEntries int
 	// ShrinkWork caps the work, in edge visits, spent making a witness's
-	// support minimal; 0 means 4(N + E) + 10^6 (about four colourings). A
-	// negative value keeps the unforced states as the support, unless one
-	// of them is a fort alone (found in one pass).
+	// support minimal, per failing test; 0 means 4(N + E) + 10^6 (about
+	// four colourings per test, eight for both tests). A negative value
+	// keeps the unforced states as the support, unless one of them is a
+	// fort alone (found in one pass).
 	ShrinkWork int64
 }
 
@@ -123,7 +124,8 @@ func (d Diagonal) MarshalText() ([]byte, error) { return []byte(d.String()), nil
 // cannot see; the witness gives that realisation in integers of size at
 // most N and Confirm checks it before it is returned. Its support is
 // shrunk to a minimal fort (inclusion-minimal; see Witness.Minimal) when
-// that costs at most about eight colourings of the network. The witness
+// that costs at most about four colourings of the network per test
+// (Request.ShrinkWork; eight for both tests). The witness
 // lists the entries meeting its support; it is not built when they are
 // more than Request.WitnessEntries.
 func Check(g *structural.Network, r Request) (*Result, error) {
