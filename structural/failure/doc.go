@@ -23,9 +23,8 @@
 // alone breaks the design), useful (it matters once some other devices
 // are lost too, with those devices named), useless (it belongs to no
 // minimal working sub-design); for each of Lin's conditions alone, and
-// overall. After each essential loss and each
-// breaking link, the cheapest new dedicated devices that restore the
-// design are given.
+// overall. After each essential loss and each breaking link, the
+// cheapest new dedicated devices that restore the design are given.
 //
 // Robust places the cheapest dedicated devices (actuators or sensors) that
 // keep the network structurally controllable (observable) after the loss
