@@ -20,8 +20,8 @@ is cut. failures judges every single loss of a design that works, each by
 Lin's two conditions: the states no signal reaches any more, and whether a
 dilation opens.
 
-Each device (a line of the design file) is classified after Commault &
-Dion (IEEE TAC 53(6), 2008), for each condition and overall: essential (its
+Each device (a line of the design file) is classified after Commault, Dion
+& Trinh (IEEE TAC 53(6), 2008), for each condition and overall: essential (its
 loss alone breaks the design: the states it leaves unreached or the
 dilation it opens, and the cheapest replacement, honouring --node-table),
 useful (it matters once some other devices are lost too; --partners of

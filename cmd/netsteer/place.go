@@ -34,9 +34,10 @@ parameters, or on the model's own numbers with --weights; dense work, up to
 --strong places for strong structural controllability instead: the
 system works for every value of the couplings of the stated class (see
 "netsteer help check"). This is NP-hard: the answer is proved optimal by
-a search with bounds on small networks (always up to 18 allowed states,
-by default up to 64 states) and otherwise is a fast placement with a lower
-bound and the gap between them.
+a search with bounds on small networks (by default up to 64 states; on
+those, with at most 18 allowed states, the search always runs to the end)
+and otherwise is a fast placement with a lower bound and the gap between
+them.
 
 --survive device (link) places the cheapest devices that keep the network
 structurally %[3]s after the loss of any one of them (of any one

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"runtime/debug"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -182,6 +183,9 @@ func FromReview(rv *analysis.Review, c Context) *Review {
 		for _, pr := range cr.Properties() {
 			if pr.Strong != nil {
 				r.Answers = append(r.Answers, p.strongCard(net, pr))
+				if !slices.Contains(r.Cautions, strong.Caution) {
+					r.Cautions = append(slices.Clip(r.Cautions), strong.Caution)
+				}
 			}
 		}
 	}

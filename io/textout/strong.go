@@ -15,6 +15,7 @@ func className(d strong.Diagonal, marked int) string {
 
 // strongLine is the one-line strong verdict of a property.
 func (t *tw) strongLine(p structural.Property, s *strong.Result) string {
+	t.strong = true
 	w := duals[p]
 	if s.Holds {
 		return fmt.Sprintf("strongly %s: for every value of the couplings (%s)", w.adj, className(s.Diagonal, s.MayBeZero))
@@ -75,6 +76,7 @@ func (t *tw) strongDetails(p structural.Property, s *strong.Result) {
 // strongPlacement writes a strong placement: the answer first, then how
 // sure it is.
 func (t *tw) strongPlacement(file, device string, p structural.Property, s *strong.Placement) {
+	t.strong = true
 	w := duals[p]
 	devs := device + "s"
 	if !s.Feasible {

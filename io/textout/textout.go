@@ -8,6 +8,7 @@ import (
 
 	"github.com/netsteer/netsteer/io/internal/words"
 	"github.com/netsteer/netsteer/structural"
+	"github.com/netsteer/netsteer/structural/strong"
 )
 
 // Options shape a text report.
@@ -39,17 +40,24 @@ func (o Options) max() int {
 	return o.Max
 }
 
-// Caution closes every structural text report.
+// Caution closes every structural text report without a strong answer.
 const Caution = `Structural result: it holds for almost all parameter values, not for every
 one. Use it as a screening step; it does not replace dynamic studies, safety
 analysis, local codes or licensed engineering review.
 `
+
+// StrongCaution closes a report with a strong answer: the generic answers
+// beside it hold for almost all values, the strong one for every value of
+// its class.
+const StrongCaution = "Generic structural result: it holds for almost all parameter values, not for every one. " + strong.Caution
 
 // tw writes a report: wrapped paragraphs and capped name lists.
 type tw struct {
 	w   *bufio.Writer
 	o   Options
 	err error
+	// strong: a strong answer was written, so StrongCaution closes.
+	strong bool
 }
 
 func newTW(w io.Writer, o Options) *tw { return &tw{w: bufio.NewWriter(w), o: o} }
@@ -101,6 +109,11 @@ func (t *tw) names(s structural.States, detail bool) string {
 }
 
 func (t *tw) done() error {
+	if t.strong {
+		t.blank()
+		t.p("", "%s", StrongCaution)
+		return t.w.Flush()
+	}
 	t.w.WriteString("\n" + Caution)
 	return t.w.Flush()
 }

@@ -53,7 +53,7 @@ func (r *FailuresResult) Survives() bool {
 }
 
 // Failures judges every single loss of each design (failure.Assess): each
-// device classified after Commault & Dion (IEEE TAC 53(6), 2008), every
+// device classified after Commault, Dion & Trinh (IEEE TAC 53(6), 2008), every
 // breaking link split by cause, with the cheapest replacement or fix.
 func Failures(g *structural.Network, req FailuresRequest) (*FailuresResult, error) {
 	if req.Inputs == nil && req.Outputs == nil {

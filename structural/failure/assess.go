@@ -13,11 +13,12 @@ import (
 	"github.com/netsteer/netsteer/structural/placement"
 )
 
-// Class says what losing one device of a design does (after Commault &
-// Dion, "Observability preservation under sensor failure", IEEE TAC
-// 53(6):1554-1559, 2008, for sensors, and its dual for actuators). Call
-// a sub-design any subset of the design's signals; a sub-design works when
-// it keeps the network structurally controllable (observable).
+// Class says what losing one device of a design does (after Commault,
+// Dion & Trinh, "Observability preservation under sensor failure", IEEE
+// TAC 53(6):1554-1559, 2008, for sensors, and its dual for actuators; see
+// the package documentation on the sources). Call a sub-design any subset
+// of the design's signals; a sub-design works when it keeps the network
+// structurally controllable (observable).
 type Class uint8
 
 const (
@@ -129,7 +130,7 @@ type DeviceLoss struct {
 	Touches structural.States `json:"states"`
 	Class   Class             `json:"class"`
 	// Reach and Matching classify the device for each of Lin's conditions
-	// alone, as Commault & Dion do before combining them: for reaching
+	// alone, as Commault, Dion & Trinh do before combining them: for reaching
 	// every state from the signals, and for the absence of dilations (the
 	// term rank of [A B]); Class combines both exactly.
 	Reach    Class `json:"reach_class"`

@@ -64,7 +64,7 @@ func without(ms []uint32, drop uint32) []uint32 {
 // classes classifies every signal by brute force over all sub-designs,
 // for the family works: essential when the design without it fails,
 // useless when adding it to a failing sub-design never makes it work
-// (Commault & Dion 2008's definitions), useful otherwise.
+// (the definitions of Commault, Dion & Trinh 2008), useful otherwise.
 func classes(k int, works func(keep uint32) bool) []failure.Class {
 	full := uint32(1)<<k - 1
 	out := make([]failure.Class, k)
@@ -210,8 +210,8 @@ func checkOwnFix(t *testing.T, what string, m testnet.Masks, p structural.Proper
 // properties), each device, each edge and each state removed in turn and
 // the remaining system judged by Lin's theorem on every subset of states
 // (testnet.Masks, and testnet.Oracle for the overall verdict). The
-// classes are checked against their definitions by Commault & Dion (IEEE
-// TAC 53(6), 2008) over every sub-design; the replacements and fixes
+// classes are checked against their definitions by Commault, Dion & Trinh
+// (IEEE TAC 53(6), 2008) over every sub-design; the replacements and fixes
 // against exhaustive search over device sets.
 func TestAssessAgainstBruteForce(t *testing.T) {
 	rng := rand.New(rand.NewPCG(2008, 53))

@@ -16,14 +16,15 @@
 // dilation opens, from one maximum matching of [A B] and its
 // Dulmage–Mendelsohn structure (the columns and edges that every maximum
 // matching uses). No loss is recomputed from scratch. Devices are
-// classified after Commault & Dion ("Observability preservation under
-// sensor failure", IEEE TAC 53(6):1554-1559, 2008, and its dual for
-// actuators): essential (its loss alone breaks the design), useful (it
-// matters once some other devices are lost too, with those devices named),
-// useless (it belongs to no minimal working sub-design); for each of
-// Lin's conditions alone, and overall. After each essential loss and each
-// breaking link, the cheapest new dedicated devices that restore the
-// design are given.
+// classified after Commault, Dion & Trinh ("Observability preservation
+// under sensor failure", IEEE TAC 53(6):1554-1559, 2008: title, journal,
+// volume, pages and year checked against a periodical index, the author
+// list from memory; and its dual for actuators): essential (its loss
+// alone breaks the design), useful (it matters once some other devices
+// are lost too, with those devices named), useless (it belongs to no
+// minimal working sub-design); for each of Lin's conditions alone, and
+// overall. After each essential loss and each breaking link, the
+// cheapest new dedicated devices that restore the design are given.
 //
 // Robust places the cheapest dedicated devices (actuators or sensors) that
 // keep the network structurally controllable (observable) after the loss

@@ -490,7 +490,9 @@ func sourceBound(h *structural.Network, dev structural.Devices, decided []int8, 
 // without a device; after the loss of any one unit that must still hold,
 // so either every leaf has a device, or one has none and all the others
 // have two. Leaf sets are disjoint; those meeting a source component are
-// left out, so that the bound adds to sourceBound. decided as there.
+// left out, so that the bound adds to sourceBound. decided as there. A
+// leaf set no assignment can satisfy adds nothing (the survival test cuts
+// that branch); the sets are summed in the order of u.
 func leafBound(h *structural.Network, dev structural.Devices, decided []int8, maxMult uint8) structural.Cost {
 	in := h.In()
 	comps := h.Components()
@@ -509,9 +511,9 @@ func leafBound(h *structural.Network, dev structural.Devices, decided []int8, ma
 			}
 		}
 	}
-	// Per leaf set: the cost of one unit on every leaf (option 1), and of
-	// two units on every leaf but one left bare (option 2), minimised over
-	// the bare one.
+	// Per leaf set: the cost of at least one unit on every leaf (option
+	// 1), and of two units on every leaf but one left bare (option 2),
+	// minimised over the bare one.
 	const inf = structural.Cost(1) << 60
 	type acc struct {
 		all1, all2 structural.Cost // sums over the leaves (finite parts)
@@ -520,17 +522,22 @@ func leafBound(h *structural.Network, dev structural.Devices, decided []int8, ma
 		bareBad    structural.Cost // c0 of the leaf that cannot take 2
 		hasBare    bool
 	}
-	sets := map[int32]*acc{}
+	// The leaf sets in the order of u: set[u] indexes sets.
+	set := make([]int32, n)
+	var sets []acc
+	for u := range set {
+		set[u] = -1
+		if count[u] >= 2 && !skip[u] {
+			set[u] = int32(len(sets))
+			sets = append(sets, acc{bareBad: inf})
+		}
+	}
 	for v := int32(0); int(v) < n; v++ {
 		u := parent[v]
-		if u < 0 || count[u] < 2 || skip[u] {
+		if u < 0 || set[u] < 0 {
 			continue
 		}
-		a := sets[u]
-		if a == nil {
-			a = &acc{bareBad: inf}
-			sets[u] = a
-		}
+		a := &sets[set[u]]
 		c, ex := dev.CostOf(v), dev.Has(v)
 		// cost of k units on v beyond what is paid or fixed already.
 		costK := func(k uint8) structural.Cost {
@@ -549,10 +556,11 @@ func leafBound(h *structural.Network, dev structural.Devices, decided []int8, ma
 			return structural.Cost(k) * c
 		}
 		c0, c1, c2 := costK(0), costK(1), costK(2)
-		if c1 == inf {
+		// Option 1 asks for at least one unit: one or two.
+		if c12 := min(c1, c2); c12 == inf {
 			a.bad1++
 		} else {
-			a.all1 += c1
+			a.all1 += c12
 		}
 		if c2 == inf {
 			a.bad2++
@@ -565,7 +573,8 @@ func leafBound(h *structural.Network, dev structural.Devices, decided []int8, ma
 		}
 	}
 	var total structural.Cost
-	for _, a := range sets {
+	for i := range sets {
+		a := &sets[i]
 		best := inf
 		if a.bad1 == 0 {
 			best = a.all1
@@ -577,7 +586,7 @@ func leafBound(h *structural.Network, dev structural.Devices, decided []int8, ma
 			best = min(best, a.all2+a.bareBad)
 		}
 		if best >= inf {
-			return total // infeasible here: the survival test cuts the branch
+			continue // infeasible here: the survival test cuts the branch
 		}
 		total += best
 	}

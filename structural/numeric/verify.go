@@ -701,9 +701,11 @@ func verifyModes(g *structural.Network, req *Request, kinds []*kind, system func
 		if len(kinds) == 2 {
 			c, o := bases[0], bases[1]
 			if c.f.P != o.f.P {
-				// Bring both to the prime that found the larger dimension.
+				// Bring both to the prime that found the larger dimension
+				// (the second: the first is tried first): recompute the
+				// kind still on the first.
 				k := kinds[0]
-				if c.f.P != alt.P {
+				if c.f.P == alt.P {
 					k = kinds[1]
 				}
 				_, re := system(k, t)

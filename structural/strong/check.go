@@ -23,9 +23,10 @@ type Request struct {
 	// negative value builds no witness.
 	WitnessEntries int
 	// ShrinkWork caps the work, in edge visits, spent making a witness's
-	// support minimal; 0 means 4(N + E) + 10^6 (about four colourings). A
-	// negative value keeps the unforced states as the support, unless one
-	// of them is a fort alone (found in one pass).
+	// support minimal, per failing test; 0 means 4(N + E) + 10^6 (about
+	// four colourings per test, eight for both tests). A negative value
+	// keeps the unforced states as the support, unless one of them is a
+	// fort alone (found in one pass).
 	ShrinkWork int64
 }
 
@@ -57,7 +58,13 @@ type Result struct {
 	// Unforced lists the states that either test leaves uncoloured, in
 	// increasing order; empty exactly when Holds.
 	Unforced structural.States `json:"unforced"`
+	// Caution is the standing caution of a strong answer (Caution).
+	Caution string `json:"caution"`
 }
+
+// Caution is the standing caution every strong answer carries: it covers
+// the stated class, all of it and nothing else.
+const Caution = "Strong structural result: it holds for every value of the couplings in the stated class (every listed coupling nonzero unless marked may-be-zero, every unlisted one exactly zero, the states' own dynamics free, zero or nonzero as stated), and only there: a coupling the model omits, one that can vanish but is not marked may-be-zero, or a model that is wrong is not covered. Use it as a screening step; it does not replace dynamic studies, safety analysis, local codes or licensed engineering review."
 
 // Test is the outcome of one forcing test.
 type Test struct {
@@ -117,7 +124,8 @@ func (d Diagonal) MarshalText() ([]byte, error) { return []byte(d.String()), nil
 // cannot see; the witness gives that realisation in integers of size at
 // most N and Confirm checks it before it is returned. Its support is
 // shrunk to a minimal fort (inclusion-minimal; see Witness.Minimal) when
-// that costs at most about eight colourings of the network. The witness
+// that costs at most about four colourings of the network per test
+// (Request.ShrinkWork; eight for both tests). The witness
 // lists the entries meeting its support; it is not built when they are
 // more than Request.WitnessEntries.
 func Check(g *structural.Network, r Request) (*Result, error) {
@@ -128,7 +136,7 @@ func Check(g *structural.Network, r Request) (*Result, error) {
 		return nil, err
 	}
 	s := newSystem(g, r.Property, r.Class, r.Design)
-	res := &Result{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Signals: r.Design.Len()}
+	res := &Result{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Signals: r.Design.Len(), Caution: Caution}
 	limit := int64(r.WitnessEntries)
 	if limit == 0 {
 		limit = DefaultWitnessEntries

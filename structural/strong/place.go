@@ -103,6 +103,8 @@ type Placement struct {
 	// Blocked lists, when infeasible, the states that stay uncoloured with
 	// a device on every allowed state: no placement reaches them.
 	Blocked structural.States `json:"blocked"`
+	// Caution is the standing caution of a strong answer (Caution).
+	Caution string `json:"caution"`
 }
 
 // Place returns a cheapest (or, beyond the exact search, a good) set of
@@ -175,7 +177,7 @@ func Place(g *structural.Network, r PlaceRequest) (*Placement, error) {
 	}
 	s := newSystem(g, r.Property, r.Class, r.Design)
 	n := s.n
-	pl := &Placement{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Method: "heuristic"}
+	pl := &Placement{Property: r.Property, Diagonal: r.Class.Diagonal, MayBeZero: r.Class.Marked(), Method: "heuristic", Caution: Caution}
 	var existing []int32
 	for v := int32(0); int(v) < n; v++ {
 		if dev.Has(v) {

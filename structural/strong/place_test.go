@@ -392,3 +392,48 @@ func TestSearchCutShortBound(t *testing.T) {
 	}
 	t.Logf("the fractional fort cover beat the disjoint-fort bound in %d trials", better)
 }
+
+// TestPlaceAlwaysExact pins what the documentation promises about the
+// search (README, "netsteer help actuators"): it runs only on networks of
+// at most ExactStates states, and on those, with at most AlwaysExact
+// allowed states, it runs to the end whatever the node budget, proving
+// the optimum found by trying every subset. Source: brute force over
+// subsets.
+func TestPlaceAlwaysExact(t *testing.T) {
+	rng := rand.New(rand.NewPCG(18, 18))
+	searched := 0
+	for trial := 0; trial < 60; trial++ {
+		n := 6 + rng.IntN(5)
+		g := testnet.Random(t, rng, n, 0.1+0.3*rng.Float64())
+		c := Class{Diagonal: Diagonal(rng.IntN(3))}
+		dev := randomDevices(rng, n)
+		p := structural.Property(rng.IntN(2))
+		feasible, cost, count := bruteCheapest(g, c, p, nil, dev)
+		if !feasible {
+			continue
+		}
+		for _, exactStates := range []int{n, n - 1} {
+			pl, err := Place(g, PlaceRequest{Property: p, Class: c, Devices: dev, ExactStates: exactStates, SearchNodes: 1})
+			if err != nil {
+				t.Fatal(err)
+			}
+			verifyPlacement(t, fmt.Sprintf("trial %d (exact %d)", trial, exactStates), g, c, p, nil, dev, pl)
+			if exactStates < n {
+				if pl.Method != "heuristic" || pl.SearchNodes != 0 {
+					t.Fatalf("trial %d: %d states above the limit %d, yet %s with %d nodes", trial, n, exactStates, pl.Method, pl.SearchNodes)
+				}
+				continue
+			}
+			if pl.Method == "search" {
+				searched++
+			}
+			if !pl.Optimal || pl.Cost != cost || pl.Added.Len() != count {
+				t.Fatalf("trial %d: %s, %d nodes: %v with %d devices (optimal %v, %s), brute force %v with %d",
+					trial, pl.Method, pl.SearchNodes, pl.Cost, pl.Added.Len(), pl.Optimal, pl.BoundFrom, cost, count)
+			}
+		}
+	}
+	if searched < 10 {
+		t.Fatalf("only %d searches: the draw tests little", searched)
+	}
+}
