@@ -68,7 +68,8 @@ multiplicity and the states its left eigenvector lives on; the others carry
 an error bound. The pair is stabilizable when every such mode is stable
 (negative real part; magnitude below 1 with --discrete). With --outputs: the
 modes the outputs cannot see, detectability, and the four parts of the
-Kalman decomposition. --effort measures how hard the inputs must work
+Kalman decomposition; --format csv --table modes writes the modes as CSV
+instead of the trials. --effort measures how hard the inputs must work
 (Pasqualetti, Zampieri & Bullo, IEEE TCNS 1(1), 2014): the Gramian W over
 --horizon (infinite for a stable A), the worst-case energy 1/lambda_min(W)
 to reach a unit state, and trace(W). A model's numbers are only as good as
@@ -112,7 +113,7 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	effort := fs.Bool("effort", false, "control effort from the Gramian: worst-case energy and trace")
 	horizon := fs.Float64("horizon", 0, "finite horizon of the Gramian: a time, or whole steps with --discrete (default: infinite)")
 	discrete := fs.Bool("discrete", false, "read the model as x(k+1) = A x(k) + B u(k): stable means |lambda| < 1")
-	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes")
+	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes (modes needs --modes)")
 	var sf strongFlags
 	sf.register(fs, "show the strong structural verdict (every value of the couplings) beside the generic one")
 	var tf targetsFlag
@@ -142,6 +143,10 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return usagef("--hops needs --around NAMES (or --sample K)")
 		case *table != "trials" && *table != "modes":
 			return usagef("--table %q: want trials or modes", *table)
+		case fs.Changed("table") && of.format != "csv":
+			return usagef("--table chooses a CSV table: it goes with --format csv (text and JSON show every table)")
+		case *table == "modes" && !*modes:
+			return usagef("--table modes needs --modes")
 		}
 		if err := sf.check(); err != nil {
 			return err
