@@ -8,6 +8,8 @@ import (
 	"strings"
 
 	"github.com/spf13/pflag"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // Exit statuses, grep's convention.
@@ -192,6 +194,26 @@ func oneArg(args []string) (string, error) {
 		return "", usagef("want one network file, got %d arguments", len(args))
 	}
 	return args[0], nil
+}
+
+// stateList looks up the comma-separated state names a flag gives; a list
+// naming no state is a usage error.
+func stateList(g *structural.Network, flag, list, path string) ([]int32, error) {
+	var vs []int32
+	for _, name := range strings.Split(list, ",") {
+		if name = strings.TrimSpace(name); name == "" {
+			continue
+		}
+		v, ok := g.Lookup(name)
+		if !ok {
+			return nil, usagef("%s: no state named %q in %s", flag, name, displayFile(path))
+		}
+		vs = append(vs, v)
+	}
+	if len(vs) == 0 {
+		return nil, usagef("%s %q names no state: give comma-separated state names", flag, list)
+	}
+	return vs, nil
 }
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }

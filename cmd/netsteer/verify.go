@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math/rand/v2"
-	"strings"
 	"time"
 
 	"github.com/spf13/pflag"
@@ -107,7 +106,7 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	maxFloat := fs.Int("max-float-states", numeric.DefaultMaxFloatStates, "largest network the floating-point check runs on (0: never)")
 	warnMargin := fs.Float64("warn-margin", numeric.DefaultWarnMargin, "warn when the relative margin is below this (0: never)")
 	around := fs.String("around", "", "verify only a part of the network around these states (comma-separated names)")
-	hops := fs.Int("hops", 2, "radius of --around in steps, following edges either way")
+	hops := fs.Int("hops", numeric.DefaultHops, "radius of --around in steps, following edges either way")
 	sample := fs.Int("sample", 0, "verify only the first K states met breadth-first from --around (or the first signal)")
 	modes := fs.Bool("modes", false, "list the modes the signals cannot move (see) and whether they are stable")
 	effort := fs.Bool("effort", false, "control effort from the Gramian: worst-case energy and trace")
@@ -139,7 +138,7 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return usagef("--hops and --sample must not be negative")
 		case !(*warnMargin >= 0):
 			return usagef("--warn-margin must be a number >= 0")
-		case fs.Changed("hops") && *around == "" && *sample == 0:
+		case fs.Changed("hops") && !fs.Changed("around") && *sample == 0:
 			return usagef("--hops needs --around NAMES (or --sample K)")
 		case *table != "trials" && *table != "modes":
 			return usagef("--table %q: want trials or modes", *table)
@@ -197,24 +196,18 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 				}
 			}
 		}
-		if *around != "" || *sample > 0 {
-			req.Part = &numeric.Part{Hops: *hops, Limit: *sample}
-			if *around == "" {
-				req.Part.Hops = numeric.NoLimit
-			}
-			if *sample > 0 && !fs.Changed("hops") {
-				req.Part.Hops = numeric.NoLimit
-			}
-			for _, name := range strings.Split(*around, ",") {
-				if name = strings.TrimSpace(name); name == "" {
-					continue
+		if fs.Changed("around") || *sample > 0 {
+			var centres []int32
+			if fs.Changed("around") {
+				if centres, err = stateList(in.g, "--around", *around, path); err != nil {
+					return err
 				}
-				v, ok := in.g.Lookup(name)
-				if !ok {
-					return usagef("--around: no state named %q in %s", name, displayFile(path))
-				}
-				req.Part.Centres = append(req.Part.Centres, v)
 			}
+			var radius *int
+			if fs.Changed("hops") {
+				radius = hops
+			}
+			req.Part = numeric.NewPart(centres, radius, *sample)
 		}
 		if e.StderrIsTTY {
 			req.Progress = func(p numeric.Progress) {
