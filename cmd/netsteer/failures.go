@@ -95,7 +95,7 @@ Example:
 			}
 			r.File = path
 			finish(&r.Timings, in, start)
-			if err := of.write(e, textout.Failures{R: r, Costed: in.table != nil}); err != nil {
+			if err := of.write(e, textout.Failures{R: r, Costed: in.table != nil, DetailHint: "--detail K works out more, --all every one"}); err != nil {
 				return err
 			}
 			if !r.Survives() {

@@ -41,7 +41,7 @@ func (p Place) Text(w io.Writer, o Options) error {
 	dev, devs := r.Device, r.Device+"s"
 	nd := pl.Devices.Len()
 	if r.Robust != nil {
-		t.robustPlacement(r.File, dev, r.Property, r.Robust)
+		t.robustPlacement(r.File, dev, r.Property, r.Robust, p.Costed)
 		t.blank()
 		t.p("  ", "Without the loss of a device or link:")
 	}
