@@ -39,11 +39,9 @@ func (o Options) max() int {
 	return o.Max
 }
 
-// Caution closes every structural text report.
-const Caution = `Structural result: it holds for almost all parameter values, not for every
-one. Use it as a screening step; it does not replace dynamic studies, safety
-analysis, local codes or licensed engineering review.
-`
+// Caution closes every structural text report, wrapped to the report's
+// width like the rest of it.
+const Caution = "Structural result: it holds for almost all parameter values, not for every one. Use it as a screening step; it does not replace dynamic studies, safety analysis, local codes or licensed engineering review."
 
 // tw writes a report: wrapped paragraphs and capped name lists.
 type tw struct {
@@ -101,7 +99,7 @@ func (t *tw) names(s structural.States, detail bool) string {
 }
 
 func (t *tw) done() error {
-	t.w.WriteString("\n" + Caution)
+	t.w.WriteString("\n" + words.Wrap(Caution, t.o.width(), "", ""))
 	return t.w.Flush()
 }
 
