@@ -8,6 +8,8 @@ import (
 	"strings"
 
 	"github.com/spf13/pflag"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // Exit statuses, grep's convention.
@@ -155,7 +157,7 @@ func run(e *env, args []string) int {
 	fs.SortFlags = false
 	help := fs.BoolP("help", "h", false, "show this help")
 	runFn := c.flags(e, fs)
-	err := fs.Parse(args[1:])
+	err := parseOnce(fs, args[1:])
 	if *help || errors.Is(err, pflag.ErrHelp) {
 		fmt.Fprint(e.Stdout, c.usage)
 		fmt.Fprintf(e.Stdout, "\nOptions:\n%s", fs.FlagUsages())
@@ -181,6 +183,62 @@ func run(e *env, args []string) int {
 	return exitError
 }
 
+// parseOnce parses args into fs, refusing an option that takes one value
+// given twice: pflag would keep the last silently. Repeatable options
+// (lists such as --transform) are left alone.
+func parseOnce(fs *pflag.FlagSet, args []string) error {
+	var rep error
+	orig := map[*pflag.Flag]pflag.Value{}
+	fs.VisitAll(func(f *pflag.Flag) {
+		if _, many := f.Value.(pflag.SliceValue); many || f.Value.Type() == "count" {
+			return
+		}
+		orig[f] = f.Value
+		f.Value = &onceValue{Value: f.Value, flag: f, rep: &rep}
+	})
+	err := fs.Parse(args)
+	for f, v := range orig {
+		f.Value = v // the help shows the options as registered
+	}
+	if rep != nil {
+		return rep
+	}
+	return err
+}
+
+// onceValue wraps the value of a single-value option and records a
+// second setting.
+type onceValue struct {
+	pflag.Value
+	flag  *pflag.Flag
+	first string
+	set   bool
+	rep   *error
+}
+
+func (o *onceValue) Set(s string) error {
+	if o.set {
+		name := "--" + o.flag.Name
+		if o.flag.Shorthand != "" {
+			name = "-" + o.flag.Shorthand + "/" + name
+		}
+		if o.IsBoolFlag() {
+			*o.rep = usagef("%s given twice", name)
+		} else {
+			*o.rep = usagef("%s given twice (%q, then %q): it takes one value", name, o.first, s)
+		}
+		return *o.rep
+	}
+	o.set, o.first = true, s
+	return o.Value.Set(s)
+}
+
+// IsBoolFlag keeps a boolean option boolean.
+func (o *onceValue) IsBoolFlag() bool {
+	b, ok := o.Value.(interface{ IsBoolFlag() bool })
+	return ok && b.IsBoolFlag()
+}
+
 // oneLine keeps a message on one line.
 func oneLine(msg string) string {
 	return strings.NewReplacer("\r\n", " ", "\n", " ", "\r", " ").Replace(msg)
@@ -192,6 +250,26 @@ func oneArg(args []string) (string, error) {
 		return "", usagef("want one network file, got %d arguments", len(args))
 	}
 	return args[0], nil
+}
+
+// stateList looks up the comma-separated state names a flag gives; a list
+// naming no state is a usage error.
+func stateList(g *structural.Network, flag, list, path string) ([]int32, error) {
+	var vs []int32
+	for _, name := range strings.Split(list, ",") {
+		if name = strings.TrimSpace(name); name == "" {
+			continue
+		}
+		v, ok := g.Lookup(name)
+		if !ok {
+			return nil, usagef("%s: no state named %q in %s", flag, name, displayFile(path))
+		}
+		vs = append(vs, v)
+	}
+	if len(vs) == 0 {
+		return nil, usagef("%s %q names no state: give comma-separated state names", flag, list)
+	}
+	return vs, nil
 }
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }

@@ -41,7 +41,7 @@ Example:
   netsteer drivers testdata/plant/heating.edges
   netsteer drivers --roles testdata/plant/heating.edges
   netsteer drivers -o drivers.json big.edges.gz
-  netsteer drivers --targets rooms.txt testdata/plant/heating.edges
+  netsteer drivers --targets testdata/plant/heating-rooms.txt testdata/plant/heating.edges
 `,
 	flags: func(e *env, fs *pflag.FlagSet) func([]string) error {
 		var nf netFlags

@@ -40,8 +40,8 @@ state loss, with --state-losses) breaks it, 1 when one does or the design
 fails as it stands, 2 on error.
 
 Example:
-  netsteer failures testdata/plant/heating.edges --inputs design.txt
-  netsteer failures --state-losses --node-table testdata/plant/heating-nodes.csv -o losses.json plant.edges --inputs design.txt
+  netsteer failures testdata/plant/heating.edges --inputs testdata/plant/heating-completed.txt
+  netsteer failures --state-losses --node-table testdata/plant/heating-nodes.csv -o losses.json testdata/plant/heating.edges --inputs testdata/plant/heating-completed.txt
 `,
 	flags: func(e *env, fs *pflag.FlagSet) func([]string) error {
 		var nf netFlags
@@ -95,7 +95,7 @@ Example:
 			}
 			r.File = path
 			finish(&r.Timings, in, start)
-			if err := of.write(e, textout.Failures{R: r, Costed: in.table != nil}); err != nil {
+			if err := of.write(e, textout.Failures{R: r, Costed: in.table != nil, DetailHint: "--detail K works out more, --all every one"}); err != nil {
 				return err
 			}
 			if !r.Survives() {

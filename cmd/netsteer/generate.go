@@ -1,6 +1,9 @@
 package main
 
 import (
+	"bufio"
+	"io"
+	"os"
 	"strings"
 
 	"github.com/spf13/pflag"
@@ -19,7 +22,8 @@ var generateCmd = &command{
 Generates a directed network and writes it as an edge list ("u v": u acts
 on v) with a node table beside it (FILE less its extension, plus
 .nodes.csv) that lists all N states, isolated ones included; read the two
-back with --node-table. A .mtx FILE is written as Matrix Market instead,
+back with --node-table. An existing file there that netsteer did not write
+is not overwritten unless --output-node-table names it. A .mtx FILE is written as Matrix Market instead,
 whose size line keeps N. A .gz FILE is gzip-compressed. States are named
 1..N. The same --seed gives the same network on every machine.
 
@@ -102,6 +106,9 @@ func generateFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if err := nw.check(); err != nil {
 			return err
 		}
+		if err := nw.sideTableFree(); err != nil {
+			return err
+		}
 		format, err := sf()
 		if err != nil {
 			return err
@@ -149,6 +156,37 @@ func (n *netOut) check() error {
 		return usagef("the node table would overwrite %s", n.output)
 	}
 	return nil
+}
+
+// writtenTableHeader is the header of the node tables netwrite writes
+// (WriteNodeTable, WriteIntNodeTable): names and isolated marks only.
+const writtenTableHeader = "node,isolated"
+
+// sideTableFree refuses to write the node table beside the edge list
+// over a file of that name that netsteer did not write: -o names the
+// network file only, and a node table there is most likely the user's own
+// (costs, allowed states). One that holds only the names and isolated
+// marks netsteer writes (its header says so) is replaced, so that a
+// command can be rerun; --output-node-table naming the file overwrites
+// any.
+func (n *netOut) sideTableFree() error {
+	nt := n.nodeTablePath()
+	if nt == "" || n.nodeTable != "" {
+		return nil
+	}
+	f, err := os.Open(nt)
+	if err != nil {
+		if _, lerr := os.Lstat(nt); lerr != nil {
+			return nil // nothing there
+		}
+	} else {
+		line, _ := bufio.NewReaderSize(io.LimitReader(f, 256), 256).ReadString('\n')
+		f.Close()
+		if strings.TrimRight(line, "\r\n") == writtenTableHeader {
+			return nil
+		}
+	}
+	return usagef("%s exists and is not a node table netsteer wrote: choose another -o, or give --output-node-table %s to overwrite it", nt, nt)
 }
 
 func (n *netOut) format() netwrite.Format {

@@ -226,18 +226,6 @@ func (p *pictureFlags) options(g *structural.Network) (render.Options, error) {
 	return opt, nil
 }
 
-// needsLayout reports whether the view asked for will be laid out by the
-// layout program for a network of n states.
-func (p *pictureFlags) needsLayout(n int) bool {
-	switch p.kind() {
-	case render.Whole, render.Around, render.Components:
-		return true
-	case render.Auto:
-		return n <= p.maxNodes
-	}
-	return false
-}
-
 // describeView words a refused view for the terminal, with the flags
 // that draw what works.
 func describeView(err error) error {

@@ -28,8 +28,9 @@ there (forced), or lists the states that could take its place at the same
 cost (--alternatives bounds the list). --rank-effort ranks these equally
 cheap placements by control effort (the worst-case input energy from the
 Gramian, Pasqualetti, Zampieri & Bullo 2014) on random samples of the
-parameters, or on the model's own numbers with --weights; dense work, up to
-1000 states.
+parameters, or on the model's own numbers with --weights, over the infinite
+horizon when A is stable and over --horizon T otherwise (an unstable A
+without --horizon is refused); dense work, up to 1000 states.
 
 --strong places for strong structural controllability instead: the
 system works for every value of the couplings of the stated class (see
@@ -60,7 +61,7 @@ and the output names the states or components that block.
 Example:
   netsteer %[1]s testdata/plant/heating.edges
   netsteer %[1]s --node-table testdata/plant/heating-nodes.csv --roles testdata/plant/heating.edges
-  netsteer %[1]s --rank-effort --seed 3 testdata/plant/heating.edges
+  netsteer %[1]s --rank-effort --horizon 5 --seed 3 testdata/plant/heating.edges
   netsteer %[1]s --survive device --spares testdata/plant/heating.edges
 `
 

@@ -112,7 +112,7 @@ Example:
 			if err := render.Precheck(opt.View, l.g.N(), l.g.Edges(), opt); err != nil {
 				return describeView(err)
 			}
-			if f != render.FormatDOT && pf.needsLayout(l.g.N()) {
+			if f != render.FormatDOT && opt.ViewFor(l.g.N()).Graph() {
 				// Before the analysis, which may take long.
 				if _, err := render.FindLayoutProgram(); err != nil {
 					return describeView(err)

@@ -82,6 +82,9 @@ Example:
 			if *pdf != "" && *output == "-" {
 				return usagef("--pdf prints the page from its file: give -o FILE.html")
 			}
+			if fileout.SamePath(*pdf, *output) {
+				return usagef("--pdf %s and -o %s name the same file: the PDF would replace the page it is printed from", *pdf, *output)
+			}
 			pf.nodeTable = nf.nodeTable
 			if err := pf.check(); err != nil {
 				return err

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math/rand/v2"
-	"strings"
 	"time"
 
 	"github.com/spf13/pflag"
@@ -68,7 +67,8 @@ multiplicity and the states its left eigenvector lives on; the others carry
 an error bound. The pair is stabilizable when every such mode is stable
 (negative real part; magnitude below 1 with --discrete). With --outputs: the
 modes the outputs cannot see, detectability, and the four parts of the
-Kalman decomposition. --effort measures how hard the inputs must work
+Kalman decomposition; --format csv --table modes writes the modes as CSV
+instead of the trials. --effort measures how hard the inputs must work
 (Pasqualetti, Zampieri & Bullo, IEEE TCNS 1(1), 2014): the Gramian W over
 --horizon (infinite for a stable A), the worst-case energy 1/lambda_min(W)
 to reach a unit state, and trace(W). A model's numbers are only as good as
@@ -106,13 +106,13 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 	maxFloat := fs.Int("max-float-states", numeric.DefaultMaxFloatStates, "largest network the floating-point check runs on (0: never)")
 	warnMargin := fs.Float64("warn-margin", numeric.DefaultWarnMargin, "warn when the relative margin is below this (0: never)")
 	around := fs.String("around", "", "verify only a part of the network around these states (comma-separated names)")
-	hops := fs.Int("hops", 2, "radius of --around in steps, following edges either way")
+	hops := fs.Int("hops", numeric.DefaultHops, "radius of --around in steps, following edges either way")
 	sample := fs.Int("sample", 0, "verify only the first K states met breadth-first from --around (or the first signal)")
 	modes := fs.Bool("modes", false, "list the modes the signals cannot move (see) and whether they are stable")
 	effort := fs.Bool("effort", false, "control effort from the Gramian: worst-case energy and trace")
 	horizon := fs.Float64("horizon", 0, "finite horizon of the Gramian: a time, or whole steps with --discrete (default: infinite)")
 	discrete := fs.Bool("discrete", false, "read the model as x(k+1) = A x(k) + B u(k): stable means |lambda| < 1")
-	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes")
+	table := fs.String("table", "trials", "with --format csv: which table to write, trials or modes (modes needs --modes)")
 	var sf strongFlags
 	sf.register(fs, "show the strong structural verdict (every value of the couplings) beside the generic one")
 	var tf targetsFlag
@@ -138,10 +138,14 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return usagef("--hops and --sample must not be negative")
 		case !(*warnMargin >= 0):
 			return usagef("--warn-margin must be a number >= 0")
-		case fs.Changed("hops") && *around == "" && *sample == 0:
+		case fs.Changed("hops") && !fs.Changed("around") && *sample == 0:
 			return usagef("--hops needs --around NAMES (or --sample K)")
 		case *table != "trials" && *table != "modes":
 			return usagef("--table %q: want trials or modes", *table)
+		case fs.Changed("table") && of.format != "csv":
+			return usagef("--table chooses a CSV table: it goes with --format csv (text and JSON show every table)")
+		case *table == "modes" && !*modes:
+			return usagef("--table modes needs --modes")
 		}
 		if err := sf.check(); err != nil {
 			return err
@@ -192,24 +196,18 @@ func verifyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 				}
 			}
 		}
-		if *around != "" || *sample > 0 {
-			req.Part = &numeric.Part{Hops: *hops, Limit: *sample}
-			if *around == "" {
-				req.Part.Hops = numeric.NoLimit
-			}
-			if *sample > 0 && !fs.Changed("hops") {
-				req.Part.Hops = numeric.NoLimit
-			}
-			for _, name := range strings.Split(*around, ",") {
-				if name = strings.TrimSpace(name); name == "" {
-					continue
+		if fs.Changed("around") || *sample > 0 {
+			var centres []int32
+			if fs.Changed("around") {
+				if centres, err = stateList(in.g, "--around", *around, path); err != nil {
+					return err
 				}
-				v, ok := in.g.Lookup(name)
-				if !ok {
-					return usagef("--around: no state named %q in %s", name, displayFile(path))
-				}
-				req.Part.Centres = append(req.Part.Centres, v)
 			}
+			var radius *int
+			if fs.Changed("hops") {
+				radius = hops
+			}
+			req.Part = numeric.NewPart(centres, radius, *sample)
 		}
 		if e.StderrIsTTY {
 			req.Progress = func(p numeric.Progress) {

@@ -210,6 +210,21 @@ func SameFile(out string, inputs ...string) string {
 	return ""
 }
 
+// SamePath reports whether a and b name one file: the same file when both
+// exist, else the same absolute path once cleaned (a file about to be
+// written twice). "-" and "" name no file.
+func SamePath(a, b string) bool {
+	if a == "-" || a == "" || b == "-" || b == "" {
+		return false
+	}
+	if SameFile(a, b) != "" {
+		return true
+	}
+	pa, errA := filepath.Abs(a)
+	pb, errB := filepath.Abs(b)
+	return errA == nil && errB == nil && pa == pb
+}
+
 // The registry of temporary files being written, removed on SIGINT or
 // SIGTERM (see signal.go).
 var temps = struct {

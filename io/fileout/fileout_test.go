@@ -50,3 +50,34 @@ func TestWriteErrors(t *testing.T) {
 		t.Errorf("after the failures the directory holds %d entries, want 2 (no temporary files left)", len(ents))
 	}
 }
+
+// TestSamePath checks SamePath on names of one file spelled differently,
+// existing or not, and on different files.
+func TestSamePath(t *testing.T) {
+	dir := t.TempDir()
+	t.Chdir(dir)
+	if err := os.WriteFile("a.html", nil, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.Symlink("a.html", "link.html"); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		a, b string
+		want bool
+	}{
+		{"a.html", "a.html", true},
+		{"a.html", "./a.html", true},
+		{"a.html", filepath.Join(dir, "a.html"), true},
+		{"link.html", "a.html", true},       // one file, by the symbolic link
+		{"new.pdf", "sub/../new.pdf", true}, // neither exists yet
+		{"new.pdf", "new.html", false},
+		{"a.html", "new.html", false},
+		{"-", "-", false},
+		{"", "", false},
+	} {
+		if got := SamePath(c.a, c.b); got != c.want {
+			t.Errorf("SamePath(%q, %q) = %v, want %v", c.a, c.b, got, c.want)
+		}
+	}
+}

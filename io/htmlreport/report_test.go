@@ -301,7 +301,7 @@ func TestFirstScreenWords(t *testing.T) {
 			t.Errorf("card %d: %q %q, want %q %q", i, r.Answers[i].Topic, r.Answers[i].Word, w.topic, w.word)
 		}
 	}
-	if h := r.Answers[2].Headline; !strings.HasPrefix(h, "Confirmed: controllability "+strconv.Itoa(dim)+" of 48") {
+	if h := r.Answers[2].Headline; !strings.HasPrefix(h, "Controllability "+strconv.Itoa(dim)+" of 48") {
 		t.Errorf("numeric card says %q", h)
 	}
 }

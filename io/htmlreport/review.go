@@ -276,7 +276,7 @@ func (p *builder) placeCard(q string, pl *analysis.PlaceResult) Answer {
 		return a
 	}
 	a.Word = fmt.Sprintf("%s %s", num(pl.DeviceCount), words.Plural(pl.DeviceCount, dev, dev+"s"))
-	a.Headline = fmt.Sprintf("%s in place, %s new, total cost of the new %s: see the %ss table.",
+	a.Headline = fmt.Sprintf("%s in place, %s new at a total cost of %s: see the %ss table.",
 		num(pl.Existing.Len()), num(pl.Added.Len()), p.cost(pl.Cost), dev)
 	forced := 0
 	for _, r := range pl.Roles {
@@ -312,10 +312,10 @@ func (p *builder) numericCard(n *Numeric) Answer {
 	}
 	if ok {
 		a.OK, a.Word = Yes(), "Confirmed"
-		a.Headline = "Confirmed: " + strings.Join(parts, ", ") + ", as the structure predicts."
+		a.Headline = capital(strings.Join(parts, ", ")) + ", as the structure predicts."
 	} else {
 		a.OK, a.Word = No(), "Not confirmed"
-		a.Headline = "Not confirmed: " + strings.Join(parts, ", ") + " falls short of the structural dimension; see the numeric check."
+		a.Headline = capital(strings.Join(parts, ", ")) + ": the sampled dimension falls short of the structural one; see the numeric check."
 	}
 	a.Facts = []Fact{{"Design checked", n.What}, {"Seed", strconv.FormatUint(n.Seed, 10)}, {"Trials", num(n.Trials)}}
 	return a

@@ -153,7 +153,23 @@ type View struct {
 }
 
 // Graph reports whether the view is a graph laid out by Graphviz.
-func (v *View) Graph() bool { return v.Kind == Whole || v.Kind == Around || v.Kind == Components }
+func (v *View) Graph() bool { return v.Kind.Graph() }
+
+// Graph reports whether views of kind k are graphs laid out by Graphviz.
+func (k Kind) Graph() bool { return k == Whole || k == Around || k == Components }
+
+// ViewFor returns the kind of view Select draws for a network of n
+// states: o.View, or for Auto the choice by size (Whole up to MaxNodes
+// states, Control above).
+func (o *Options) ViewFor(n int) Kind {
+	switch {
+	case o.View != Auto:
+		return o.View
+	case n > o.maxNodes():
+		return Control
+	}
+	return Whole
+}
 
 // ViewEdge is one edge between drawn states.
 type ViewEdge struct {
@@ -203,16 +219,14 @@ func Select(in *Input, opt Options) (*View, error) {
 		return nil, errors.New("render: no network")
 	}
 	in.prep()
-	kind := opt.View
+	kind := opt.ViewFor(g.N())
 	chosen := ""
-	if kind == Auto {
-		kind = Whole
-		if g.N() > opt.maxNodes() {
-			kind = Control
-			chosen = fmt.Sprintf("chosen for %s states: more than %s are not drawn one by one", num(g.N()), num(opt.maxNodes()))
-		} else {
-			chosen = fmt.Sprintf("chosen for %s states: up to %s are drawn one by one", num(g.N()), num(opt.maxNodes()))
-		}
+	switch {
+	case opt.View != Auto:
+	case kind == Control:
+		chosen = fmt.Sprintf("chosen for %s states: more than %s are not drawn one by one", num(g.N()), num(opt.maxNodes()))
+	default:
+		chosen = fmt.Sprintf("chosen for %s states: up to %s are drawn one by one", num(g.N()), num(opt.maxNodes()))
 	}
 	var v *View
 	var err error

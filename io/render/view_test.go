@@ -265,3 +265,31 @@ func TestLargeStemCut(t *testing.T) {
 		}
 	}
 }
+
+// TestViewForMatchesSelect checks that Options.ViewFor, which a command
+// asks before any analysis whether a layout program will be needed, gives
+// the kind Select then draws, for each view asked and on both sides of
+// MaxNodes (the heating plant has 48 states).
+func TestViewForMatchesSelect(t *testing.T) {
+	in := heatingDrivers(t)
+	n := in.Net.N()
+	c := lookup(t, in.Net, "supply.header_temp")
+	for _, max := range []int{10, n - 1, n, 200} {
+		for _, kind := range []Kind{Auto, Whole, Around, Components, Control} {
+			opt := Options{View: kind, MaxNodes: max, Centres: c, Hops: 1}
+			v, err := Select(in, opt)
+			if err != nil {
+				continue // refused (too large to draw one by one)
+			}
+			if got := opt.ViewFor(n); got != v.Kind {
+				t.Errorf("view %v, MaxNodes %d: ViewFor = %v, Select drew %v", kind, max, got, v.Kind)
+			}
+			if opt.ViewFor(n).Graph() != v.Graph() {
+				t.Errorf("view %v, MaxNodes %d: ViewFor(n).Graph() = %v, the view drawn %v", kind, max, opt.ViewFor(n).Graph(), v.Graph())
+			}
+		}
+	}
+	if (&Options{MaxNodes: n}).ViewFor(n) != Whole || (&Options{MaxNodes: n - 1}).ViewFor(n) != Control {
+		t.Error("Auto: want Whole up to MaxNodes states, Control above")
+	}
+}

@@ -113,7 +113,7 @@ func (c Check) Text(w io.Writer, o Options) error {
 	for _, p := range props {
 		if p.Completion != nil {
 			t.blank()
-			c.completion(t, p)
+			t.completion(p.Property, p.Completion, c.Costed)
 		}
 		targets = targets || p.Targets != nil
 	}
@@ -170,11 +170,12 @@ func (c Check) details(t *tw, p *analysis.PropertyResult, n int) {
 	}
 }
 
-func (c Check) completion(t *tw, p *analysis.PropertyResult) {
-	w := duals[p.Property]
-	pl := p.Completion
+// completion writes the cheapest completion of a failing design, with
+// where its costs come from.
+func (t *tw) completion(p structural.Property, pl *placement.Placement, costed bool) {
+	w := duals[p]
 	source := "every device costs 1"
-	if c.Costed {
+	if costed {
 		source = "costs and allowed states from the node table"
 	}
 	if pl.Feasible {

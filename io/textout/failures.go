@@ -16,6 +16,9 @@ import (
 type Failures struct {
 	R      *analysis.FailuresResult
 	Costed bool
+	// DetailHint says how to have more entries worked out in full (for
+	// the command line, the flag that does it).
+	DetailHint string
 }
 
 // Value returns the result, for JSON.
@@ -29,11 +32,18 @@ func (f Failures) Text(w io.Writer, o Options) error {
 	for _, a := range r.Assessments() {
 		f.answer(t, a)
 	}
+	judged := false
 	for _, a := range r.Assessments() {
-		f.details(t, a)
+		if a.Intact.Holds {
+			f.details(t, a)
+			judged = true
+		}
+	}
+	if !judged {
+		return t.done()
 	}
 	t.blank()
-	t.p("  ", "Classes after Commault & Dion (IEEE TAC 53(6), 2008): essential = its loss alone breaks the design; useful = it matters once some other devices are lost too; useless = in no minimal working sub-design. Each claim is the verdict of Lin's test on the design less the loss.")
+	t.p("  ", "Classes after Commault, Dion & Trinh (IEEE TAC 53(6), 2008): essential = its loss alone breaks the design; useful = it matters once some other devices are lost too; useless = in no minimal working sub-design. Each claim is the verdict of Lin's test on the design less the loss.")
 	return t.done()
 }
 
@@ -42,7 +52,10 @@ func (f Failures) answer(t *tw, a *failure.Assessment) {
 	r := f.R
 	n := a.Intact.Signals
 	if !a.Intact.Holds {
-		t.p("  ", "%s: NOT %s with %s as it stands (dimension %d of %d): fix the design first (see check).", displayFile(r.File), w.adj, count(n, w.signal, w.signals), a.Intact.Dimension, r.Nodes)
+		t.p("  ", "%s: NOT %s with %s as it stands (dimension %d of %d): fix the design first (see check); single losses are judged on a design that works.", displayFile(r.File), w.adj, count(n, w.signal, w.signals), a.Intact.Dimension, r.Nodes)
+		if a.Completion != nil {
+			t.completion(a.Property, a.Completion, f.Costed)
+		}
 		return
 	}
 	var spf []string
@@ -67,11 +80,19 @@ func (f Failures) answer(t *tw, a *failure.Assessment) {
 		plural(a.EssentialDevices+len(a.Links)+len(a.States), "is a single point of failure", "are single points of failure"))
 	shown := 0
 	for _, d := range a.Devices {
-		if d.Class != failure.Essential || shown == t.o.max() && !t.o.All {
+		if d.Class != failure.Essential {
 			continue
 		}
+		if shown == t.o.max() && !t.o.All {
+			t.p("  ", "(%d more essential %s%s)", a.EssentialDevices-shown, w.signals, hint(t.o))
+			break
+		}
 		shown++
-		t.p("  ", "Losing %s %d (%s) %s%s", w.signal, d.Number, t.names(d.Touches, false), f.effect(t, d.Unreached, d.Witness, a.Property), fixText(d.Replacement, w.device))
+		fix := fixText(d.Replacement, w.device)
+		if d.Replacement == nil {
+			fix = "; replacement not worked out."
+		}
+		t.p("  ", "Losing %s %d (%s) %s%s", w.signal, d.Number, t.names(d.Touches, false), f.effectCount(t, d.Unreached.Len(), d.Unreached, d.Dilation, d.Witness, a.Property), fix)
 	}
 	for i, l := range a.Links {
 		if i == t.o.max() && !t.o.All {
@@ -82,12 +103,19 @@ func (f Failures) answer(t *tw, a *failure.Assessment) {
 		if l.Unreached != nil {
 			un = *l.Unreached
 		}
-		t.p("  ", "Losing the link %s -> %s %s%s", quote(r.Network().Name(l.From)), quote(r.Network().Name(l.To)), f.effectCount(t, l.UnreachedCount, un, l.Dilation, l.Witness, a.Property), fixText(l.Fix, w.device))
+		fix := fixText(l.Fix, w.device)
+		if l.Fix == nil {
+			fix = "; fix not worked out."
+		}
+		t.p("  ", "Losing the link %s -> %s %s%s", quote(r.Network().Name(l.From)), quote(r.Network().Name(l.To)), f.effectCount(t, l.UnreachedCount, un, l.Dilation, l.Witness, a.Property), fix)
 	}
-}
-
-func (f Failures) effect(t *tw, unreached structural.States, dil *structural.Dilation, p structural.Property) string {
-	return f.effectCount(t, unreached.Len(), unreached, dil != nil, dil, p)
+	if brief(a) > 0 {
+		s := "Replacements, fixes, dilations and the states behind each count are worked out for the worst entries of each list only"
+		if f.DetailHint != "" {
+			s += " (" + f.DetailHint + ")"
+		}
+		t.p("  ", "%s.", s)
+	}
 }
 
 func (f Failures) effectCount(t *tw, k int, unreached structural.States, dilation bool, dil *structural.Dilation, p structural.Property) string {
@@ -111,6 +139,30 @@ func (f Failures) effectCount(t *tw, k int, unreached structural.States, dilatio
 		parts = append(parts, s)
 	}
 	return strings.Join(parts, " and ")
+}
+
+// brief counts the entries given without their details (beyond the
+// request's Detail): essential devices without a replacement, links
+// without a fix, states without the states behind their count or their
+// dilation.
+func brief(a *failure.Assessment) int {
+	k := 0
+	for _, d := range a.Devices {
+		if d.Class == failure.Essential && d.Replacement == nil {
+			k++
+		}
+	}
+	for _, l := range a.Links {
+		if l.Fix == nil {
+			k++
+		}
+	}
+	for _, s := range a.States {
+		if s.UnreachedCount > 0 && s.Unreached == nil || s.Dilation && s.Witness == nil {
+			k++
+		}
+	}
+	return k
 }
 
 func fixText(x *failure.Fix, device string) string {
@@ -199,11 +251,15 @@ func (f Failures) CSV(w io.Writer) error {
 
 // robustPlacement writes a placement that survives one failure: the
 // answer first, then how sure it is.
-func (t *tw) robustPlacement(file, device string, p structural.Property, rp *failure.RobustPlacement) {
+func (t *tw) robustPlacement(file, device string, p structural.Property, rp *failure.RobustPlacement, costed bool) {
 	w := duals[p]
 	devs := device + "s"
 	if !rp.Feasible {
-		s := fmt.Sprintf("%s: no placement the node table allows keeps the network %s after the loss of %s", displayFile(file), w.adj, strings.Replace(rp.Survive.String(), "any ", "any one ", 1))
+		which := "no placement"
+		if costed {
+			which = "no placement the node table allows"
+		}
+		s := fmt.Sprintf("%s: %s keeps the network %s after the loss of %s", displayFile(file), which, w.adj, strings.Replace(rp.Survive.String(), "any ", "any one ", 1))
 		if rp.BlockingDevices.Len() > 0 {
 			s += fmt.Sprintf(": losing the %s on %s breaks it whatever else is placed", device, t.names(rp.BlockingDevices, false))
 		}

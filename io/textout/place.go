@@ -11,6 +11,7 @@ import (
 	"github.com/netsteer/netsteer/io/netwrite"
 	"github.com/netsteer/netsteer/structural"
 	"github.com/netsteer/netsteer/structural/analysis"
+	"github.com/netsteer/netsteer/structural/numeric"
 )
 
 // Place is the report of analysis.Place.
@@ -41,7 +42,7 @@ func (p Place) Text(w io.Writer, o Options) error {
 	dev, devs := r.Device, r.Device+"s"
 	nd := pl.Devices.Len()
 	if r.Robust != nil {
-		t.robustPlacement(r.File, dev, r.Property, r.Robust)
+		t.robustPlacement(r.File, dev, r.Property, r.Robust, p.Costed)
 		t.blank()
 		t.p("  ", "Without the loss of a device or link:")
 	}
@@ -246,9 +247,14 @@ func (p Place) rankingText(t *tw) {
 		if c.Swap != nil {
 			what = quote(g.Name(c.Swap.From)) + " -> " + quote(g.Name(c.Swap.To))
 		}
-		energy := "infinite (a direction cannot be reached)"
-		if !math.IsInf(c.WorstCaseEnergy, 0) && !math.IsNaN(c.WorstCaseEnergy) {
-			energy = fmt.Sprintf("%.3g", c.WorstCaseEnergy)
+		energy := fmt.Sprintf("%.3g", c.WorstCaseEnergy)
+		if math.IsInf(c.WorstCaseEnergy, 0) || math.IsNaN(c.WorstCaseEnergy) {
+			q, tr := c.Conditioning()
+			why := fmt.Sprintf("its smallest eigenvalue is zero within rounding in trial %d", tr)
+			if q > 0 {
+				why = fmt.Sprintf("smallest/largest eigenvalue %.2g in trial %d, below the rounding level %.2g", q, tr, numeric.RoundingLevel(g.N()))
+			}
+			energy = "too large to compute: the Gramian is numerically singular (" + why + "; ill-conditioned)"
 		}
 		t.row(fmt.Sprintf("  %3d. %-36s ", c.Rank, what), "worst-case energy %s, trace %.3g", energy, c.GramianTrace)
 	}

@@ -61,8 +61,15 @@ func (t *tw) strongDetails(p structural.Property, s *strong.Result) {
 		if limit < len(wt.Entries) {
 			t.ip("        ", "(%d more entries%s)", len(wt.Entries)-limit, hint(t.o))
 		}
-		for _, e := range wt.SignalEntries {
+		slimit := len(wt.SignalEntries)
+		if !t.o.All {
+			slimit = min(slimit, 10*t.o.max())
+		}
+		for _, e := range wt.SignalEntries[:slimit] {
 			t.ip("        ", "%s %d on %s = %d", w.signal, e.Signal, quote(g.NameOf(e.State)), e.Value)
+		}
+		if slimit < len(wt.SignalEntries) {
+			t.ip("        ", "(%d more %s entries%s)", len(wt.SignalEntries)-slimit, w.signal, hint(t.o))
 		}
 		minimal := ""
 		if wt.Minimal {

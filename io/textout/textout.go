@@ -40,11 +40,9 @@ func (o Options) max() int {
 	return o.Max
 }
 
-// Caution closes every structural text report without a strong answer.
-const Caution = `Structural result: it holds for almost all parameter values, not for every
-one. Use it as a screening step; it does not replace dynamic studies, safety
-analysis, local codes or licensed engineering review.
-`
+// Caution closes every structural text report without a strong answer,
+// wrapped to the report's width like the rest of it.
+const Caution = "Structural result: it holds for almost all parameter values, not for every one. Use it as a screening step; it does not replace dynamic studies, safety analysis, local codes or licensed engineering review."
 
 // StrongCaution closes a report with a strong answer: the generic answers
 // beside it hold for almost all values, the strong one for every value of
@@ -114,7 +112,7 @@ func (t *tw) done() error {
 		t.p("", "%s", StrongCaution)
 		return t.w.Flush()
 	}
-	t.w.WriteString("\n" + Caution)
+	t.w.WriteString("\n" + words.Wrap(Caution, t.o.width(), "", ""))
 	return t.w.Flush()
 }
 

@@ -41,6 +41,9 @@ func (v Verify) headline(p *numeric.PropertyResult, n int) string {
 		verdict = "NOT " + w.adj
 	}
 	s := fmt.Sprintf("%s %s: exact dimension %d of %d", subject, verdict, p.SampledDimension, n)
+	if pt := r.Part; pt != nil {
+		s = fmt.Sprintf("on the part made of %s (%d of %d states), %s", pt.Describe(), pt.Nodes, r.Nodes, s)
+	}
 	switch {
 	case p.SampledDimension > p.Dimension:
 		s += fmt.Sprintf(", above the structural prediction %d. This cannot happen; please report it as a bug.", p.Dimension)

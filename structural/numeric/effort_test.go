@@ -345,3 +345,30 @@ func TestEffortBlockGramian(t *testing.T) {
 		}
 	}
 }
+
+// TestRankedDesignConditioning checks that Conditioning picks the trial
+// with the smallest ratio of the Gramian's extreme eigenvalues (worked by
+// hand from the figures given), a non-positive smallest eigenvalue
+// counting as zero.
+func TestRankedDesignConditioning(t *testing.T) {
+	for _, c := range []struct {
+		name     string
+		efforts  []*Effort
+		ratio    float64
+		trial    int
+		singular bool
+	}{
+		{"none", nil, math.Inf(1), 0, false},
+		{"well conditioned", []*Effort{{GramianMin: 1, GramianMax: 4}, {GramianMin: 2, GramianMax: 4}}, 0.25, 1, false},
+		{"tiny second", []*Effort{{GramianMin: 1, GramianMax: 4}, {GramianMin: 1.4e-13, GramianMax: 1}}, 1.4e-13, 2, true},
+		{"negative", []*Effort{{GramianMin: 1e-20, GramianMax: 1}, {GramianMin: -3e-33, GramianMax: 1}}, 0, 2, true},
+	} {
+		r, tr := RankedDesign{Efforts: c.efforts}.Conditioning()
+		if r != c.ratio || tr != c.trial {
+			t.Errorf("%s: Conditioning = %g, %d; want %g, %d", c.name, r, tr, c.ratio, c.trial)
+		}
+		if got := r <= RoundingLevel(48); got != c.singular {
+			t.Errorf("%s: singular within rounding = %v, want %v", c.name, got, c.singular)
+		}
+	}
+}

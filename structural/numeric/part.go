@@ -29,6 +29,26 @@ type Part struct {
 	Limit int
 }
 
+// DefaultHops is the radius of a part around named centres when neither
+// a radius nor a number of states bounds it.
+const DefaultHops = 2
+
+// NewPart returns the part grown from centres (nil: the states of the
+// first signal) that keeps at most limit states (0: no bound) within hops
+// steps. hops nil means no radius was asked for: a part bounded by its
+// number of states, or grown from the first signal, then has no bound on
+// the distance, and one around named centres reaches DefaultHops steps.
+func NewPart(centres []int32, hops *int, limit int) *Part {
+	p := &Part{Centres: centres, Hops: NoLimit, Limit: limit}
+	switch {
+	case hops != nil:
+		p.Hops = *hops
+	case limit <= 0 && len(centres) > 0:
+		p.Hops = DefaultHops
+	}
+	return p
+}
+
 // PartResult describes the part verified. Its states are the states of
 // the part's own network (Result.Network): state i of the part is
 // States.At(i) of the whole network.

@@ -1,6 +1,7 @@
 package numeric
 
 import (
+	"reflect"
 	"slices"
 	"testing"
 )
@@ -71,5 +72,34 @@ func TestSubnetworks(t *testing.T) {
 	}
 	if dropped != 1 || rd.Len() != 1 || len(rd.Signal(0)) != 1 || sub.Name(rd.Signal(0)[0]) != "dosing" || rw[0][0] != 2 || rd.Number(0) != 2 {
 		t.Errorf("RestrictDesign: %v %v dropped %d number %d", rd.Signals(), rw, dropped, rd.Number(0))
+	}
+}
+
+// TestNewPart checks the radius NewPart gives each combination of named
+// centres, a radius and a number of states (the rules stated in its doc
+// comment: no radius asked means no bound on the distance, except around
+// named centres without a bound on the number of states).
+func TestNewPart(t *testing.T) {
+	one, zero := 1, 0
+	for _, c := range []struct {
+		name    string
+		centres []int32
+		hops    *int
+		limit   int
+		want    Part
+	}{
+		{"around", []int32{3}, nil, 0, Part{Centres: []int32{3}, Hops: DefaultHops}},
+		{"around with hops", []int32{3}, &one, 0, Part{Centres: []int32{3}, Hops: 1}},
+		{"around with hops 0", []int32{3}, &zero, 0, Part{Centres: []int32{3}, Hops: 0}},
+		{"around with a sample", []int32{3}, nil, 5, Part{Centres: []int32{3}, Hops: NoLimit, Limit: 5}},
+		{"around with both", []int32{3}, &one, 5, Part{Centres: []int32{3}, Hops: 1, Limit: 5}},
+		{"sample", nil, nil, 5, Part{Hops: NoLimit, Limit: 5}},
+		{"sample with hops", nil, &one, 5, Part{Hops: 1, Limit: 5}},
+		{"first signal, whole piece", nil, nil, 0, Part{Hops: NoLimit}},
+	} {
+		got := NewPart(c.centres, c.hops, c.limit)
+		if !reflect.DeepEqual(*got, c.want) {
+			t.Errorf("%s: NewPart = %+v, want %+v", c.name, *got, c.want)
+		}
 	}
 }

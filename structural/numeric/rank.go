@@ -75,6 +75,26 @@ type RankedDesign struct {
 	Efforts []*Effort `json:"trials"`
 }
 
+// Conditioning returns the smallest ratio λ_min/λ_max of the trials'
+// Gramians (0 when rounding made λ_min negative) and the 1-based trial it
+// comes from (0 without trials). At or
+// below RoundingLevel the Gramian is singular within rounding and the
+// worst-case energy is +Inf: too large to tell from floating-point noise,
+// not proof that a direction cannot be reached.
+func (r RankedDesign) Conditioning() (ratio float64, trial int) {
+	ratio = math.Inf(1)
+	for i, e := range r.Efforts {
+		q := max(e.GramianMin/e.GramianMax, 0) // rounding can make it negative
+		if e.GramianMax <= 0 || math.IsNaN(q) {
+			q = 0
+		}
+		if q < ratio {
+			ratio, trial = q, i+1
+		}
+	}
+	return ratio, trial
+}
+
 // MarshalJSON leaves an infinite energy out.
 func (r RankedDesign) MarshalJSON() ([]byte, error) {
 	type plain RankedDesign
