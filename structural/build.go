@@ -2,6 +2,7 @@ package structural
 
 import (
 	"errors"
+	"math"
 	"runtime"
 	"slices"
 
@@ -265,11 +266,16 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	for u := 0; u < n; u++ {
 		lo, hi := outPtr[u], outPtr[u+1]
 		outPtr[u] = q
+		entries := 0 // of the edge at q-1
 		for k := lo; k < hi; k++ {
 			if k > lo && outAdj[k] == outAdj[k-1] {
 				merged++
+				entries++
 				if outW != nil {
 					outW[q-1] += outW[k]
+					if x := outW[q-1]; math.IsInf(x, 0) || math.IsNaN(x) {
+						return nil, &WeightError{From: g.names.Name(int32(u)), To: g.names.Name(outAdj[k]), Sum: x, Entries: entries}
+					}
 				}
 				continue
 			}
@@ -277,8 +283,12 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 				loops++
 			}
 			outAdj[q] = outAdj[k]
+			entries = 1
 			if outW != nil {
 				outW[q] = outW[k]
+				if x := outW[q]; math.IsInf(x, 0) || math.IsNaN(x) {
+					return nil, &WeightError{From: g.names.Name(int32(u)), To: g.names.Name(outAdj[k]), Sum: x, Entries: 1}
+				}
 			}
 			q++
 		}

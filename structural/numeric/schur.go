@@ -1,6 +1,8 @@
 package numeric
 
 import (
+	"math"
+
 	"gonum.org/v1/gonum/lapack"
 	"gonum.org/v1/gonum/lapack/gonum"
 )
@@ -22,6 +24,13 @@ var impl gonum.Implementation
 // then the multishift QR algorithm (Dhseqr). No balancing: a diagonal
 // similarity would change the singular values the margin measures.
 func newSchur(a []float64, n int) (*schurForm, error) {
+	// LAPACK gives no meaningful answer for non-finite entries (and the
+	// block structure read from its eigenvalues would index out of range).
+	for _, x := range a[:n*n] {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, errorf("an entry of A is not a finite number")
+		}
+	}
 	s := &schurForm{n: n, wr: make([]float64, n), wi: make([]float64, n)}
 	tau := make([]float64, n-1)
 	work := make([]float64, 1)
