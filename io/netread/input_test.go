@@ -244,6 +244,27 @@ func TestTables(t *testing.T) {
 	if err != nil || in.Format != EdgeList || in.Network.Edges() != 1 {
 		t.Errorf("columns, JSON-like content: %v", err)
 	}
+	// Content that announces another format is not read as a table, by
+	// columns or by a separator.
+	for _, c := range []struct{ in, title string }{
+		{"%%MatrixMarket matrix coordinate pattern general\n3 3 2\n2 1\n3 2\n", "Matrix Market"},
+		{"*Vertices 2\n1 a\n2 b\n*Arcs\n1 2\n", "Pajek"},
+		{"digraph { a -> b }\n", "DOT"},
+		{"<?xml version=\"1.0\"?>\n<graphml/>\n", "GraphML"},
+		{"graph [ directed 1 ]\n", "GML"},
+		{"{\"nodes\": [], \"links\": []}\n", "node-link JSON"},
+	} {
+		for _, opt := range []Options{{Columns: pos(1, 2)}, {Separator: Tab}} {
+			_, err := Read(strings.NewReader(c.in), "x.txt", opt)
+			if err == nil || !strings.Contains(err.Error(), "x.txt: the content is "+c.title+", not an edge list or table; columns and separators apply only") {
+				t.Errorf("%s with %+v: got %v", c.title, opt, err)
+			}
+		}
+		in, err := Read(strings.NewReader(c.in), "x.txt", Options{Format: EdgeList, Columns: pos(1, 2)})
+		if err == nil && in.Format != EdgeList {
+			t.Errorf("%s forced to edges: read as %s", c.title, in.Format)
+		}
+	}
 	_, err = Read(strings.NewReader("s,t\na,b\n"), "x.txt", Options{Format: DOT, Columns: names("s", "t")})
 	if err == nil || !strings.Contains(err.Error(), "x.txt: columns and separators apply to edge lists and tables; this is read as dot") {
 		t.Errorf("got %v", err)

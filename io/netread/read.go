@@ -68,11 +68,12 @@ func errorf(file string, line int, format string, args ...any) *Error {
 
 // Options control reading.
 type Options struct {
-	// Format forces a format. Empty means: an edge list or table when
-	// Columns or Separator is set; else by content when the content
+	// Format forces a format. Empty means: by content when the content
 	// says (a Matrix Market banner, a DOT graph, GraphML, GML, Pajek or
-	// node-link JSON), else by the file name's extension (looking through
-	// a .gz suffix; see FormatOf), else an edge list.
+	// node-link JSON; with Columns or Separator set, such content is an
+	// error), else an edge list or table when Columns or Separator is
+	// set, else by the file name's extension (looking through a .gz
+	// suffix; see FormatOf), else an edge list.
 	Format Format
 	// Build is passed to structural.Builder.Build.
 	Build structural.BuildOptions
@@ -172,6 +173,25 @@ func ParseFormat(s string) (Format, error) {
 	return "", fmt.Errorf("netread: unknown format %q (want edges, mtx, dot, graphml, gml, pajek or json)", s)
 }
 
+// formatTitle names a format in messages.
+func formatTitle(f Format) string {
+	switch f {
+	case MatrixMarket:
+		return "Matrix Market"
+	case DOT:
+		return "DOT"
+	case GraphML:
+		return "GraphML"
+	case GML:
+		return "GML"
+	case Pajek:
+		return "Pajek"
+	case NodeLinkJSON:
+		return "node-link JSON"
+	}
+	return string(f)
+}
+
 // Open opens path for one of the io readers: "-" is stdin (os.Stdin when
 // stdin is nil) and is named "stdin" in messages. what says what the file
 // should be, for the message about a directory ("network file", say). A
@@ -223,17 +243,27 @@ func Read(r io.Reader, file string, opt Options) (*Input, error) {
 		br.Discard(len(utf8BOM))
 	}
 	in := &Input{Format: opt.Format}
-	if in.Format == "" && (opt.Columns != nil || opt.Separator != DetectSeparator) {
-		in.Format = EdgeList // columns or a separator say it is a table
-	}
+	table := opt.Columns != nil || opt.Separator != DetectSeparator
 	if in.Format == "" {
 		p, _ := br.Peek(sniffBytes)
 		in.Format = Sniff(p)
-		if in.Format == "" {
+		if in.Format == NodeLinkJSON && table && !jsonObjectStart(p) {
+			in.Format = "" // a table whose first field starts with '{'
+		}
+		if in.Format != "" && table {
+			// The content announces another format: columns and a
+			// separator would misread it, line by line, as a table.
+			return nil, &Error{File: file, Msg: fmt.Sprintf("the content is %s, not an edge list or table; columns and separators apply only to edge lists and tables (force the format \"edges\" to read it as one anyway)", formatTitle(in.Format))}
+		}
+		switch {
+		case in.Format != "":
+		case table:
+			in.Format = EdgeList // columns or a separator say it is a table
+		default:
 			in.Format = FormatOf(file)
 		}
 	}
-	if in.Format != EdgeList && (opt.Columns != nil || opt.Separator != DetectSeparator) {
+	if in.Format != EdgeList && table {
 		return nil, &Error{File: file, Msg: fmt.Sprintf("columns and separators apply to edge lists and tables; this is read as %s", in.Format)}
 	}
 	var res *parsed
