@@ -238,7 +238,27 @@ func TestTables(t *testing.T) {
 		{name: "unterminated", in: "s,t\n\"a,b\n", opt: Options{Columns: names("s", "t")}, line: 2, err: "unterminated quoted field"},
 		{name: "long line", in: "s,t\n" + strings.Repeat("x", maxTableLineBytes+1) + ",b\n", opt: Options{Columns: names("s", "t")}, line: 2, err: "line longer than"},
 	}
+	cases = append(cases,
+		// One field holding another separator is not an isolated state.
+		readCase{name: "tab under semicolon", in: "a\tb\nb\tc\n", opt: Options{Separator: Semicolon}, line: 1,
+			err: `one field "a\tb" holding a tab unquoted, where the separator is semicolon: quote it`},
+		readCase{name: "comma under tab", in: "x\ty\n\"p,q\"\nr,s\n", opt: Options{Separator: Tab}, line: 3,
+			err: `one field "r,s" holding a comma unquoted, where the separator is tab`},
+		readCase{name: "semicolon under whitespace", in: "x y\nr;s\n", opt: Options{Columns: pos(1, 2), Separator: Whitespace}, line: 2,
+			err: `one field "r;s" holding a semicolon unquoted`},
+		// No row reaching the columns is not an edgeless network.
+		readCase{name: "no row reaches", in: "# states\na\n\nb\n", opt: Options{Columns: pos(1, 2)}, line: 2,
+			err: "no row of the file has the 2 fields separated by whitespace an edge needs"},
+		readCase{name: "header only names", in: "s,t\na\nb\n", opt: Options{Columns: names("s", "t")}, line: 2,
+			err: "no row of the file has the 2 fields separated by comma an edge needs"},
+	)
 	runReadCases(t, EdgeList, cases)
+	// A quoted field holding another separator, beside edge rows, is an
+	// isolated state.
+	in0, err := Read(strings.NewReader("a\tb\n\"p,q\"\n"), "x.tsv", Options{Separator: Tab})
+	if err != nil || in0.Network.N() != 3 || in0.Network.Edges() != 1 {
+		t.Errorf("quoted isolated state: %v", err)
+	}
 	// Columns imply a table; given with another format they are refused.
 	in, err := Read(strings.NewReader("{s},t\n{a},b\n"), "x.json", Options{Columns: names("{s}", "t")})
 	if err != nil || in.Format != EdgeList || in.Network.Edges() != 1 {

@@ -591,6 +591,14 @@ func (blk *block) tableLine(line []byte, weights bool) string {
 		if msg := controlMsg(fields[0]); msg != "" {
 			return msg
 		}
+		// A single field declares an isolated state, unless it holds
+		// another separator unquoted: then the separator set is most
+		// likely not the file's.
+		for _, c := range []byte{',', '\t', ';'} {
+			if c != lf.sep && !(lf.sep == ' ' && c == '\t') && hasUnquoted(line, c) {
+				return "one field " + strconv.Quote(clip(fields[0])) + " holding a " + sepName(c) + " unquoted, where the separator is " + sepName(lf.sep) + ": quote it to declare an isolated state, or set the separator to " + sepName(c)
+			}
+		}
 		return blk.addFields(fields, weights)
 	case lf.optWeight && len(fields) > 3:
 		return "want \"source target [weight]\" separated by " + sepName(lf.sep) + ", found " + strconv.Itoa(len(fields)) + " fields (choose columns to read a wider table)"
