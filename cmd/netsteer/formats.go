@@ -5,7 +5,7 @@ const formatsHelp = `Network files
 An edge "u v" means u acts on v: the entry A[v][u] of the state matrix is a
 free nonzero parameter. The format is recognised by the file's content
 (gzip, Matrix Market, DOT), then by its extension; --input-format forces
-it; - reads standard input.
+it (any case); - reads standard input.
 
   edges   one edge per line, "source target [weight]", separated by white
           space or a comma; # and % start comments; quote names holding
@@ -16,7 +16,7 @@ it; - reads standard input.
           an undirected graph's a -- b is a two-way coupling
 
 A self-loop "v v" is a state's own dynamics; repeated edges are merged and
-counted. --self-dynamics gives every state a self-loop; --undirected reads
+counted, and their weights add up. --self-dynamics gives every state a self-loop; --undirected reads
 every edge as a two-way coupling. --node-table FILE adds device costs,
 allowed and existing devices, groups and labels (see the README).
 

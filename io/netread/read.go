@@ -149,8 +149,9 @@ func FormatOf(name string) Format {
 	return EdgeList
 }
 
-// ParseFormat checks a format name given by a user.
+// ParseFormat checks a format name given by a user, in any case.
 func ParseFormat(s string) (Format, error) {
+	s = strings.ToLower(s) // any case: MTX, GraphML
 	for _, f := range Formats {
 		if string(f) == s {
 			return f, nil
@@ -357,8 +358,9 @@ func padded(s []string, n int) []string {
 
 // Gzip bounds. A stream may expand to InflateAllowance bytes freely, and
 // beyond that to MaxInflateRatio times the compressed bytes read so far.
-// Real edge lists compress 3 to 10 times (10^8 edges of integer names, 1.6
-// GB of text, read well within the bound); a stream of blank lines
+// Real edge lists compress 2 to 5 times (a random network of 10^5 states
+// and integer names, 4.7 MB of text: 2.4 times with gzip -9, 2.7 with
+// gzip -1; 10^8 edges read well within the bound); a stream of blank lines
 // compresses a thousand times and is stopped soon after the allowance.
 const (
 	DefaultMaxInflateRatio = 100
@@ -382,7 +384,7 @@ func (g *gzipReader) Read(p []byte) (int, error) {
 	n, err := g.r.Read(p)
 	g.out += int64(n)
 	if g.ratio >= 0 && g.out > inflateAllowance && float64(g.out) > g.ratio*float64(g.raw.Size()) {
-		return 0, &Error{File: g.file, Msg: fmt.Sprintf("gzip: the data expand more than %g times past the first %d MiB (%d MiB from %d KiB so far): refused as a likely decompression bomb; raise the inflation limit to read it",
+		return 0, &Error{File: g.file, Msg: fmt.Sprintf("gzip: the data expand more than %g times past the first %d MiB (%d MiB from %d KiB so far): refused as a likely decompression bomb; raise the bound (MaxInflateRatio; --max-inflate RATIO or none on the command line) to read it",
 			g.ratio, inflateAllowance>>20, g.out>>20, g.raw.Size()>>10)}
 	}
 	if err != nil && err != io.EOF {

@@ -75,7 +75,7 @@ func TestFormatOf(t *testing.T) {
 			t.Errorf("FormatOf(%q) = %q, want %q", c.name, got, c.want)
 		}
 	}
-	for _, s := range []string{"edges", "mtx", "dot", "csv", "gv", "mm"} {
+	for _, s := range []string{"edges", "mtx", "dot", "csv", "gv", "mm", "MTX", "GraphML", "Edges"} {
 		if _, err := ParseFormat(s); err != nil {
 			t.Errorf("ParseFormat(%q): %v", s, err)
 		}
