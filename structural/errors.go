@@ -37,6 +37,11 @@ type WeightError struct {
 	From, To string  // the edge's states
 	Sum      float64 // the weight, the sum of the repeated entries' weights
 	Entries  int     // the entries of the edge added up to Sum, 1 when not repeated
+	// Edge is the index, in the order the edges were added to the
+	// Builder, of the entry that made the sum non-finite (for an
+	// undirected build, of the input edge whose mirror did); -1 when not
+	// known.
+	Edge int64
 }
 
 func (e *WeightError) Error() string {

@@ -70,7 +70,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 	if err != nil {
 		return err
 	}
-	var hd headerState
+	hd := headerState{locate: opt.locate}
 	err = readRows(r, file, b, lf, head, weights, &hd)
 	if err == nil && !lf.plain && !hd.edges && hd.firstIso > 0 {
 		// Every row was a single field: the columns (or the separator)
@@ -446,6 +446,7 @@ type headerState struct {
 	// an edge.
 	firstIso int
 	edges    bool
+	locate   int64 // Options.locate
 }
 
 // check looks for the first non-comment line in blk, unless an earlier
@@ -507,6 +508,9 @@ func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, li
 			continue
 		}
 		hd.edges = true
+		if hd.locate > 0 && int64(b.Edges()) == hd.locate-1 {
+			return true, &Error{File: file, Line: *line + blk.lineOfEdge(e/2, weights), Err: errLocated}
+		}
 		v, err := blk.intern(b, toks[e+1])
 		if err != nil {
 			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)

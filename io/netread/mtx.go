@@ -164,6 +164,9 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 			return nil, errorf(file, lr.line, "diagonal entry (%d, %d) in a skew-symmetric matrix", i+1, j+1)
 		}
 		// A[i][j] != 0: column j acts on row i.
+		if located(b, opt) || expanded && i != j && opt.locate > 0 && int64(b.Edges())+1 == opt.locate-1 {
+			return nil, &Error{File: file, Line: lr.line, Err: errLocated}
+		}
 		if weighted {
 			b.AddWeightedEdge(j, i, w)
 		} else {
@@ -200,7 +203,9 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 	}
 	g, err := b.Build(opt.Build)
 	if err != nil {
-		return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
+		err = &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
+		markEdge(err)
+		return nil, err
 	}
 	return &parsed{g: g}, nil
 }

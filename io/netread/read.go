@@ -46,6 +46,18 @@ type Error struct {
 	// that cannot be opened, say), so that errors.Is(err, fs.ErrNotExist)
 	// works; nil otherwise.
 	Err error
+	// edge is 1 + the index of the edge a *structural.WeightError is
+	// about, when a second pass can find its line; 0 otherwise.
+	edge int64
+}
+
+// errLocated ends a second pass at the edge sought (see Options.locate).
+var errLocated = errors.New("netread: edge located")
+
+// located reports whether edge k (0-based, in the order added to b) is the
+// one opt.locate seeks: the next edge added when b holds k edges.
+func located(b *structural.Builder, opt Options) bool {
+	return opt.locate > 0 && int64(b.Edges()) == opt.locate-1
 }
 
 func (e *Error) Error() string {
@@ -102,6 +114,11 @@ type Options struct {
 	MaxInflateRatio float64
 	// Stdin is what the path "-" reads. nil means os.Stdin.
 	Stdin io.Reader
+	// locate, when > 0, makes the edge-list and Matrix Market readers
+	// stop with errLocated at the line of edge locate-1 (in the order
+	// edges are added to the Builder): a second pass that finds the line
+	// of an edge Build refused.
+	locate int64
 }
 
 // Input is a network as read, with what the file said besides the edges
@@ -227,7 +244,35 @@ func ReadFile(path string, opt Options) (*Input, error) {
 		return nil, err
 	}
 	defer f.Close()
-	return Read(f, name, opt)
+	in, err := Read(f, name, opt)
+	var e *Error
+	if err != nil && path != "-" && errors.As(err, &e) && e.edge > 0 && e.Line == 0 {
+		// An edge whose repeated weights add up to a non-finite number
+		// is found when the network is built, after reading; a second
+		// pass over the file finds its line.
+		e.Line = locateLine(path, opt, e.edge)
+	}
+	return in, err
+}
+
+// locateLine reads path again up to the edge with 1-based index edge and
+// returns its line, or 0.
+func locateLine(path string, opt Options, edge int64) int {
+	f, err := os.Open(path)
+	if err != nil {
+		return 0
+	}
+	defer f.Close()
+	if st, err := f.Stat(); err != nil || !st.Mode().IsRegular() {
+		return 0 // a FIFO or device cannot be read twice
+	}
+	opt.locate = edge
+	_, err = Read(f, path, opt)
+	var e *Error
+	if errors.As(err, &e) && errors.Is(e.Err, errLocated) {
+		return e.Line
+	}
+	return 0
 }
 
 // Read reads a network from r; file names the source in error messages,

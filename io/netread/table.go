@@ -3,6 +3,7 @@ package netread
 import (
 	"bufio"
 	"bytes"
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -632,7 +633,18 @@ func readEdges(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	}
 	g, err := finish(b, file, opt)
 	if err != nil {
+		markEdge(err)
 		return nil, err
 	}
 	return &parsed{g: g}, nil
+}
+
+// markEdge records, in an *Error from Build about a non-finite weight,
+// the edge a second pass can find the line of (see Options.locate).
+func markEdge(err error) {
+	var e *Error
+	var we *structural.WeightError
+	if errors.As(err, &e) && errors.As(err, &we) && we.Edge >= 0 {
+		e.edge = we.Edge + 1
+	}
 }
