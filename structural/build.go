@@ -2,6 +2,7 @@ package structural
 
 import (
 	"errors"
+	"math"
 	"runtime"
 	"slices"
 
@@ -191,6 +192,7 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 		return nil, ErrEmpty
 	}
 	b.names.Release()
+	inputEdges := b.Edges() // the edges added by the caller, before those Build adds
 	if opt.Undirected {
 		// Every edge u -> v, u != v, gains v -> u. The loop runs over a
 		// copy of the segment list, which grows meanwhile.
@@ -238,7 +240,26 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 			w = append(w, sg.w)
 		}
 	}
+	// A repeated edge's weights can add up to a non-finite number only
+	// when the sum of all |weights| is not finite; then (rarely) the
+	// edges as added are kept, to name the entry that overflowed.
+	var kept []segment
+	if b.weighted {
+		total := 0.0
+		for _, sg := range segs {
+			for _, x := range sg.w {
+				total += math.Abs(x)
+			}
+		}
+		if math.IsInf(total, 0) || math.IsNaN(total) {
+			kept = segs
+		}
+	}
 	g := &Network{}
+	weightError := func(u, v int32, sum float64, entries int) error {
+		return &WeightError{From: g.names.Name(u), To: g.names.Name(v), Sum: sum, Entries: entries,
+			Edge: inputEdge(kept, inputEdges, u, v, entries)}
+	}
 	// The in-rows are built from the edges at the same time as the
 	// out-rows, on another core, with the name index.
 	inDone := make(chan struct{})
@@ -265,11 +286,16 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	for u := 0; u < n; u++ {
 		lo, hi := outPtr[u], outPtr[u+1]
 		outPtr[u] = q
+		entries := 0 // of the edge at q-1
 		for k := lo; k < hi; k++ {
 			if k > lo && outAdj[k] == outAdj[k-1] {
 				merged++
+				entries++
 				if outW != nil {
 					outW[q-1] += outW[k]
+					if x := outW[q-1]; math.IsInf(x, 0) || math.IsNaN(x) {
+						return nil, weightError(int32(u), outAdj[k], x, entries)
+					}
 				}
 				continue
 			}
@@ -277,8 +303,12 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 				loops++
 			}
 			outAdj[q] = outAdj[k]
+			entries = 1
 			if outW != nil {
 				outW[q] = outW[k]
+				if x := outW[q]; math.IsInf(x, 0) || math.IsNaN(x) {
+					return nil, weightError(int32(u), outAdj[k], x, 1)
+				}
 			}
 			q++
 		}
@@ -296,6 +326,59 @@ func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	g.selfLoops = loops
 	g.duplicatesMerged = merged
 	return g, nil
+}
+
+// inputEdge returns the index, among the edges the caller added, of the
+// entries-th entry of u -> v in segs (the edges as added, then those Build
+// added: the mirrors of the non-loop input edges when undirected, then
+// self-loops); a mirror gives the input edge it mirrors. It returns -1
+// when segs is nil or the entry is a self-loop Build added.
+func inputEdge(segs []segment, inputEdges int, u, v int32, entries int) int64 {
+	if segs == nil {
+		return -1
+	}
+	k, seen := int64(0), 0
+	found := int64(-1)
+	for _, sg := range segs {
+		for i, a := range sg.src {
+			if a == u && sg.dst[i] == v {
+				if seen++; seen == entries {
+					found = k
+				}
+			}
+			k++
+			if found >= 0 {
+				break
+			}
+		}
+		if found >= 0 {
+			break
+		}
+	}
+	if found < int64(inputEdges) || u == v {
+		if found >= int64(inputEdges) {
+			return -1 // a self-loop of SelfDynamics
+		}
+		return found
+	}
+	// The mirror of the t-th non-loop input edge.
+	t := found - int64(inputEdges)
+	k = 0
+	for _, sg := range segs {
+		for i, a := range sg.src {
+			if k == int64(inputEdges) {
+				return -1
+			}
+			if a != sg.dst[i] {
+				if t == 0 {
+					return k
+				}
+				t--
+			}
+			k++
+		}
+	}
+	return -1
 }
 
 // dedupe drops repeated entries from the sorted rows in place, updating

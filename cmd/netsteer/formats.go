@@ -21,7 +21,7 @@ var inputFormats = []inputFormat{
 	{netread.EdgeList, []string{".edges", ".txt", ".tsv", ".csv"}, `one edge per line, "source target [weight]", separated by white space or a comma; # and % start comments; a line with one name declares an isolated state; quote names holding spaces, commas or quotes CSV-style ("feed pump, north"). Also delimited tables (spreadsheet exports): --columns SOURCE,TARGET[,WEIGHT] by header name or 1-based position, --separator comma, tab, semicolon or whitespace (default: detected). Also any extension not listed below.`},
 	{netread.MatrixMarket, []string{".mtx"}, "Matrix Market coordinate (pattern, real or integer; general, symmetric or skew-symmetric): entry (i, j) is the edge j -> i; states are named 1..N."},
 	{netread.DOT, []string{".dot", ".gv"}, "a DOT digraph: u -> v, chains, subgraphs, node statements, a weight attribute; an undirected graph's a -- b is a two-way coupling; label and group attributes are kept."},
-	{netread.GraphML, []string{".graphml", ".xml"}, "one <graph>: <node id> names a state, <edge source target> follows edgedefault unless its own directed says otherwise; data keys named label and group give labels and groups."},
+	{netread.GraphML, []string{".graphml", ".xml"}, "one <graph>: <node id> names a state, <edge source target> follows edgedefault unless its own directed says otherwise (a graph without edgedefault is refused unless every edge says); data keys named label and group give labels and groups."},
 	{netread.GML, []string{".gml"}, "graph [ directed 1 node [ id 0 label \"pump\" ] edge [ source 0 target 1 ] ], as networkx and igraph write it; without directed 1 the graph is undirected."},
 	{netread.Pajek, []string{".net", ".paj"}, "*Vertices, then *Arcs (*Edges are two-way; *Arcslist and *Edgeslist give several targets a line); states are named by their labels when distinct."},
 	{netread.NodeLinkJSON, []string{".json"}, `node-link JSON as networkx's node_link_data writes it: {"directed": true, "nodes": [{"id": "pump"}], "links": [{"source": "pump", "target": "drum"}]}; without directed the graph is undirected.`},
@@ -33,19 +33,20 @@ An edge "u v" means u acts on v: the entry A[v][u] of the state matrix is a
 free nonzero parameter. The format is recognised by the file's content (a
 Matrix Market banner, digraph {, <?xml or <graphml, graph [, *Vertices, a
 JSON object), then by its extension, else the file is an edge list;
---input-format NAME forces it; - reads standard input. gzip-compressed files
-are recognised by their content (--max-inflate bounds their expansion).
+--input-format NAME forces it (any case); - reads standard input.
+gzip-compressed files are recognised by their content (--max-inflate bounds
+their expansion).
 
 `
 
 const formatsOutro = `
 In GraphML, GML and JSON every node an edge names must be declared. In DOT,
 GraphML, GML and JSON edge weights come from the attribute --weight-key
-names (default weight). A self-loop "v v" is a state's own dynamics; repeated edges are
-merged and counted. --self-dynamics gives every state a self-loop;
---undirected reads every edge as a two-way coupling. --node-table FILE adds
-device costs, allowed and existing devices, groups and labels (see the
-README).
+names (default weight). A self-loop "v v" is a state's own dynamics;
+repeated edges are merged and counted, and their weights add up.
+--self-dynamics gives every state a self-loop; --undirected reads every edge
+as a two-way coupling. --node-table FILE adds device costs, allowed and
+existing devices, groups and labels (see the README).
 
 Bad input stops with one line "FILE:LINE: what is wrong" and exit status 2.
 `

@@ -23,7 +23,7 @@ type outFlags struct {
 
 func (f *outFlags) register(fs *pflag.FlagSet) {
 	fs.StringVar(&f.format, "format", "", "output format: text, json, csv, or the network with the answer as attributes: graphml or nodelink (default: from -o's extension, else text)")
-	fs.StringVarP(&f.output, "output", "o", "-", "write the result to this file (- for standard output)")
+	fs.StringVarP(&f.output, "output", "o", "-", "write the result to this file (- for standard output; a name ending in .gz is gzip-compressed)")
 	fs.BoolVar(&f.all, "all", false, "list every state in the text report (long lists are capped otherwise)")
 }
 
@@ -32,7 +32,9 @@ func (f *outFlags) register(fs *pflag.FlagSet) {
 // extension is a usage error.
 func (f *outFlags) resolve() error {
 	ext := ""
-	name := strings.ToLower(f.output)
+	// A .gz output is compressed (see write); the extension before it
+	// says the format.
+	name := strings.TrimSuffix(strings.ToLower(f.output), ".gz")
 	switch {
 	case strings.HasSuffix(name, ".nodelink.json"):
 		ext = "nodelink"
@@ -80,35 +82,52 @@ type report interface {
 // write prints r in the chosen format to the chosen output through fileout.
 func (f *outFlags) write(e *env, r report) error {
 	return fileout.Write(f.output, e.Stdout, func(w io.Writer) error {
-		bw := bufio.NewWriterSize(w, 1<<16)
-		var err error
-		switch f.format {
-		case "json":
-			err = textout.JSON(bw, r.Value())
-		case "csv":
-			err = r.CSV(bw)
-		case "graphml", "nodelink":
-			an, ok := r.(annotator)
-			if !ok {
-				return usagef("--format %s: this command's answer is not a network", f.format)
-			}
-			a := an.Annotated()
-			a.AddLabels(f.labels, f.groups)
-			if f.format == "graphml" {
-				err = netwrite.WriteGraphML(bw, a)
-			} else {
-				err = netwrite.WriteNodeLink(bw, a)
-			}
-		default:
-			o := textout.Options{Width: e.Width, All: f.all, MoreHint: "--all lists them"}
-			if f.output != "-" {
-				o.Width = 100
-			}
-			err = r.Text(bw, o)
-		}
-		if err != nil {
-			return err
-		}
-		return bw.Flush()
+		return netwrite.Compressed(f.output, w, func(w io.Writer) error { return f.fill(e, r, w) })
 	})
+}
+
+// fill writes r in the chosen format to w.
+func (f *outFlags) fill(e *env, r report, w io.Writer) error {
+	bw := bufio.NewWriterSize(w, 1<<16)
+	var err error
+	switch f.format {
+	case "json":
+		err = textout.JSON(bw, r.Value())
+	case "csv":
+		err = r.CSV(bw)
+	case "graphml", "nodelink":
+		an, ok := r.(annotator)
+		if !ok {
+			return usagef("--format %s: this command's answer is not a network", f.format)
+		}
+		a := an.Annotated()
+		a.AddLabels(f.labels, f.groups)
+		if f.format == "graphml" {
+			err = netwrite.WriteGraphML(bw, a)
+		} else {
+			err = netwrite.WriteNodeLink(bw, a)
+		}
+	default:
+		o := textout.Options{Width: e.Width, All: f.all, MoreHint: "--all lists them"}
+		if f.output != "-" {
+			o.Width = 100
+		}
+		err = r.Text(bw, o)
+	}
+	if err != nil {
+		return err
+	}
+	return bw.Flush()
+}
+
+// isGzipName reports whether path names a gzip file by its extension.
+func isGzipName(path string) bool { return strings.HasSuffix(strings.ToLower(path), ".gz") }
+
+// refuseGzip refuses a .gz name for an output that is not compressed, so
+// that the file is not plain text under a name that says gzip.
+func refuseGzip(flag, path, why string) error {
+	if !isGzipName(path) {
+		return nil
+	}
+	return usagef("%s %s: this output is not compressed (%s); give a name without .gz", flag, path, why)
 }

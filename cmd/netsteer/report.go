@@ -79,6 +79,9 @@ Example:
 			if *output == "" {
 				return usagef("give the page's file with -o FILE.html")
 			}
+			if err := refuseGzip("-o", *output, "the page is plain HTML, which a browser and --pdf open"); err != nil {
+				return err
+			}
 			if *pdf != "" && *output == "-" {
 				return usagef("--pdf prints the page from its file: give -o FILE.html")
 			}

@@ -1,11 +1,14 @@
 package main
 
 import (
+	"compress/gzip"
 	"fmt"
+	"io"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"runtime"
+	"strings"
 	"testing"
 
 	"github.com/rogpeppe/go-internal/testscript"
@@ -58,6 +61,24 @@ func TestScripts(t *testing.T) {
 			return nil
 		},
 		Cmds: map[string]func(ts *testscript.TestScript, neg bool, args []string){
+			// gunzip FILE.gz decompresses into FILE (compress/gzip, not a
+			// system tool); it fails on a file that is not gzip.
+			"gunzip": func(ts *testscript.TestScript, neg bool, args []string) {
+				if len(args) != 1 || !strings.HasSuffix(args[0], ".gz") {
+					ts.Fatalf("usage: gunzip FILE.gz")
+				}
+				zr, err := gzip.NewReader(strings.NewReader(ts.ReadFile(args[0])))
+				var data []byte
+				if err == nil {
+					data, err = io.ReadAll(zr)
+				}
+				if (err != nil) != neg {
+					ts.Fatalf("gunzip %s: %v", args[0], err)
+				}
+				if err == nil {
+					ts.Check(os.WriteFile(ts.MkAbs(strings.TrimSuffix(args[0], ".gz")), data, 0o644))
+				}
+			},
 			"jsonkeys": func(ts *testscript.TestScript, neg bool, args []string) {
 				if len(args) != 2 {
 					ts.Fatalf("usage: jsonkeys CMD FILE")

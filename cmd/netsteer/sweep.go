@@ -91,6 +91,8 @@ func sweepFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 			return usagef("give --model or --base (one of them)")
 		case *output == "":
 			return usagef("-o FILE is required")
+		case isGzipName(*output):
+			return refuseGzip("-o", *output, "the sweep file is plain CSV, which a rerun reads to resume")
 		case *replicates < 1:
 			return usagef("--replicates must be at least 1")
 		}
@@ -215,6 +217,9 @@ func sweepMergeFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		}
 		if *output == "" {
 			return usagef("-o FILE is required")
+		}
+		if err := refuseGzip("-o", *output, "the merged file is plain CSV"); err != nil {
+			return err
 		}
 		if err := checkPlot(*plotPath, *plotLog); err != nil {
 			return err

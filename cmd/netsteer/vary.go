@@ -36,6 +36,12 @@ Transforms:
   replicate=K  K copies of the whole network (state s of copy j is "s@j"),
                coupled as --coupling says
 
+Edge weights are kept: an edge that stays keeps its weight, and a moved
+edge (swap, rewire) takes its weight along to its new place. Edges the
+transforms add (loops, the couplings of replicate) get weight 1, a value
+of no physical meaning; with a weighted network, a warning says so, and
+the weights of moved edges are warned about likewise.
+
 Example:
   netsteer vary plant.edges --transform swap=10 --seed 3 -o plant-random.edges
   netsteer vary unit.edges --transform replicate=4 --coupling ring --coupling-states outlet -o fleet.edges
@@ -109,9 +115,12 @@ func varyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 				return usagef("%s would overwrite %s, which this command reads", nt, in)
 			}
 		}
-		in, err := nf.load(path, nw.output, false)
+		in, err := nf.load(path, nw.output, true)
 		if err != nil {
 			return err
+		}
+		if in.g.Weighted() {
+			warnWeights(e, ts)
 		}
 		r, err := analysis.Vary(in.g, analysis.VaryRequest{Transforms: ts, Seed: *seed})
 		if err != nil {
@@ -125,5 +134,20 @@ func varyFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		r.Output, r.NodeTable = written.Network, written.NodeTable
 		mtx := written.Format == netwrite.MatrixMarket && !netwrite.NamesAreIndices(r.Variant)
 		return writeSummary(e, format, nw.output == "-", textout.Vary{R: r, IndexedMTX: mtx})
+	}
+}
+
+// warnWeights says which transforms give the variant's weights no meaning
+// of the original's: added edges get weight 1, moved edges keep theirs.
+func warnWeights(e *env, ts []transform.Transform) {
+	for _, t := range ts {
+		switch t.Name {
+		case "loops":
+			e.warn("%s: the self-loops added get weight 1", t)
+		case "replicate":
+			e.warn("%s: the coupling edges between copies get weight 1", t)
+		case "swap", "rewire":
+			e.warn("%s: a moved edge keeps its weight at its new place", t)
+		}
 	}
 }

@@ -18,9 +18,10 @@
 // DOT graph, GraphML, GML, Pajek, node-link JSON), whatever the file is
 // called and on standard input too; otherwise the extension (FormatOf);
 // otherwise an edge list. Gzip-compressed input is recognised by its magic
-// bytes; decompression stops with an error once the data expand more than
-// Options.MaxInflateRatio (default 100) times past the first
-// InflateAllowance bytes (256 MiB), a likely decompression bomb.
+// bytes; past the first InflateAllowance bytes (256 MiB) of decompressed
+// data, decompression stops with an error once the data so far are more
+// than Options.MaxInflateRatio (default 100) times the compressed bytes
+// read so far, a likely decompression bomb.
 //
 // Edge lists. Each line is "source target [weight]", the fields separated
 // by white space or a comma; names holding a space, comma or quote are
@@ -45,7 +46,11 @@
 // header name or 1-based position, Options.Separator sets the separator or
 // leaves it to be detected (see Columns); other columns are ignored.
 // Tables go through the same parallel block parser as edge lists; a line
-// may hold up to 64 KiB.
+// may hold up to 64 KiB. A row with one field declares an isolated state,
+// unless the field holds another separator (comma, tab, semicolon)
+// unquoted; a file in which no row reaches the columns is refused. Content
+// that announces another format (Sniff) is refused with Columns or
+// Separator set, not read as a table.
 //
 // Matrix Market. Coordinate files with pattern, real or integer values and
 // general, symmetric or skew-symmetric symmetry are read; symmetric files
@@ -55,7 +60,9 @@
 // whatever its value: an explicit zero counts as a pattern entry (with
 // Options.Weights its weight is 0). Complex, hermitian and dense array
 // files are refused. The size line must announce exactly the entries that
-// follow, and at most 16 states per entry plus 2^20.
+// follow, and at most 16 states per entry plus 2^20. States are named by
+// their indices, or by the names netsteer's writer records in comment
+// lines ("% state names: ..." then "% state I NAME", I = 1..N in order).
 //
 // DOT. The file holds one graph, parsed with gonum's DOT parser. Edge
 // statements may chain (a -> b -> c) and take subgraphs as operands
@@ -77,7 +84,9 @@
 //
 // GraphML. One <graph>; <node id> elements name the states, <edge source
 // target> elements are directed as the graph's edgedefault says unless
-// their own directed attribute says otherwise; parallel edges are merged
+// their own directed attribute says otherwise (a graph without
+// edgedefault, which GraphML requires, is refused unless every edge says
+// its direction); parallel edges are merged
 // and counted. Data whose key (attr.name) is label or group give labels
 // and groups, the key named Options.WeightKey ("weight") the weights; key
 // defaults apply. Nested graphs and hyperedges are refused. An XML token

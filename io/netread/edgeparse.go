@@ -70,6 +70,20 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 	if err != nil {
 		return err
 	}
+	hd := headerState{locate: opt.locate}
+	err = readRows(r, file, b, lf, head, weights, &hd)
+	if err == nil && !lf.plain && !hd.edges && hd.firstIso > 0 {
+		// Every row was a single field: the columns (or the separator)
+		// do not describe this file.
+		return errorf(file, hd.firstIso, "no row of the file has the %d fields separated by %s an edge needs (this, the first row, has one; so do the others): the columns or the separator do not fit the file", lf.need, sepName(lf.sep))
+	}
+	return err
+}
+
+// readRows reads the rows of readEdgeList in the format lf, after head
+// lines.
+func readRows(r *bufio.Reader, file string, b *structural.Builder, lf *lineFormat, head int, weights bool, hd *headerState) error {
+	var err error
 	// Lines up to the header row (comments, then the header) are read
 	// here; the blocks start after them.
 	line0 := 0
@@ -79,7 +93,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 		}
 		line0++
 	}
-	hd := headerState{done: !lf.plain}
+	hd.done = !lf.plain
 	rd := &blockReader{r: r}
 	newBlock := func(b *structural.Builder) *block {
 		blk := newBlockSized(b, blockBytes)
@@ -101,7 +115,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 		blk := first
 		for {
 			parseBlock(blk, weights)
-			stop, err := mergeBlock(blk, file, b, weights, &line, &hd)
+			stop, err := mergeBlock(blk, file, b, weights, &line, hd)
 			if stop || err != nil {
 				return err
 			}
@@ -154,7 +168,7 @@ func readEdgeList(r *bufio.Reader, file string, b *structural.Builder, opt Optio
 		<-blk.done
 		if err == nil {
 			var stop bool
-			stop, err = mergeBlock(blk, file, b, weights, &line, &hd)
+			stop, err = mergeBlock(blk, file, b, weights, &line, hd)
 			if stop && err == nil {
 				err = errStop
 			}
@@ -425,7 +439,15 @@ func decimalValue(f []byte) (uint32, bool) {
 
 // headerState follows the search for the first non-comment line, which
 // must not be a CSV header (see headerMsg).
-type headerState struct{ done bool }
+type headerState struct {
+	done bool
+	// firstIso is the line of the first row of a table that declares an
+	// isolated state (0: none yet); edges tells whether a row has given
+	// an edge.
+	firstIso int
+	edges    bool
+	locate   int64 // Options.locate
+}
 
 // check looks for the first non-comment line in blk, unless an earlier
 // block held it, and returns an error when that line is a header. line
@@ -480,7 +502,14 @@ func mergeBlock(blk *block, file string, b *structural.Builder, weights bool, li
 			return true, errorf(file, *line+blk.lineOfEdge(e/2, weights), "%v", err)
 		}
 		if toks[e+1] == isoTok {
+			if hd.firstIso == 0 && !blk.lf.plain {
+				hd.firstIso = *line + blk.lineOfEdge(e/2, weights)
+			}
 			continue
+		}
+		hd.edges = true
+		if hd.locate > 0 && int64(b.Edges()) == hd.locate-1 {
+			return true, &Error{File: file, Line: *line + blk.lineOfEdge(e/2, weights), Err: errLocated}
 		}
 		v, err := blk.intern(b, toks[e+1])
 		if err != nil {

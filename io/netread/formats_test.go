@@ -26,18 +26,26 @@ func TestGraphML(t *testing.T) {
 <node id="a"/><node id="b"/><node id="c"/>
 <edge source="a" target="b"/><edge source="a" target="b"/><edge source="b" target="c" directed="true"/><edge source="c" target="c"/>
 </graph></graphml>`, edges: []string{"a>b", "b>a", "b>c", "c>c"}, dups: 2, loops: 1},
-		{name: "weight key renamed", in: graphmlHead + `<graph><node id="a"/><node id="b"/>
+		{name: "weight key renamed", in: graphmlHead + `<graph edgedefault="directed"><node id="a"/><node id="b"/>
 <edge source="a" target="b"><data key="c">7</data></edge></graph></graphml>`, opt: Options{Weights: true, WeightKey: "capacity"}, edges: []string{"a>b=7"}},
-		{name: "edges before nodes, entities", in: graphmlHead + `<graph><edge source="x&amp;y" target="z"/><node id="x&amp;y"/><node id="z"/></graph></graphml>`,
+		{name: "edges before nodes, entities", in: graphmlHead + `<graph edgedefault="directed"><edge source="x&amp;y" target="z"/><node id="x&amp;y"/><node id="z"/></graph></graphml>`,
 			edges: []string{"x&y>z"}},
-		{name: "isolated and foreign elements", in: graphmlHead + `<graph><desc>plant</desc><node id="a"><port name="p"/></node><node id="b"/><edge source="a" target="b"/><node id="lonely"/></graph></graphml>`,
+		{name: "isolated and foreign elements", in: graphmlHead + `<graph edgedefault="directed"><desc>plant</desc><node id="a"><port name="p"/></node><node id="b"/><edge source="a" target="b"/><node id="lonely"/></graph></graphml>`,
 			edges: []string{"a>b"}, nodes: []string{"a", "b", "lonely"}},
 
-		{name: "undeclared node", in: graphmlHead + "<graph>\n<node id=\"a\"/>\n<edge source=\"a\" target=\"b\"/>\n</graph></graphml>", line: 8, err: `edge names node "b", which is never declared`},
+		{name: "undeclared node", in: graphmlHead + "<graph edgedefault=\"directed\">\n<node id=\"a\"/>\n<edge source=\"a\" target=\"b\"/>\n</graph></graphml>", line: 8, err: `edge names node "b", which is never declared`},
 		{name: "twice", in: graphmlHead + "<graph>\n<node id=\"a\"/>\n<node id=\"a\"/></graph></graphml>", line: 8, err: `node "a" declared twice`},
-		{name: "bad weight", in: graphmlHead + "<graph><node id=\"a\"/>\n<edge source=\"a\" target=\"a\"><data key=\"w\">heavy</data></edge></graph></graphml>", opt: Options{Weights: true}, line: 7, err: `weight "heavy" is not a finite number`},
-		{name: "zero weight", in: graphmlHead + "<graph><node id=\"a\"/>\n<edge source=\"a\" target=\"a\"><data key=\"w\">0</data></edge></graph></graphml>", line: 7, err: "weight 0 is no coupling"},
+		{name: "bad weight", in: graphmlHead + "<graph edgedefault=\"directed\"><node id=\"a\"/>\n<edge source=\"a\" target=\"a\"><data key=\"w\">heavy</data></edge></graph></graphml>", opt: Options{Weights: true}, line: 7, err: `weight "heavy" is not a finite number`},
+		{name: "zero weight", in: graphmlHead + "<graph edgedefault=\"directed\"><node id=\"a\"/>\n<edge source=\"a\" target=\"a\"><data key=\"w\">0</data></edge></graph></graphml>", line: 7, err: "weight 0 is no coupling"},
 		{name: "not graphml", in: "<?xml version=\"1.0\"?>\n<svg/>", line: 2, err: "the root element is <svg>"},
+		// Without edgedefault (required by the GraphML schema; networkx
+		// reads such a file as undirected) the edges must say their own
+		// direction.
+		{name: "no edgedefault", in: graphmlHead + "<graph>\n<node id=\"a\"/><node id=\"b\"/>\n<edge source=\"a\" target=\"b\" directed=\"true\"/>\n<edge source=\"b\" target=\"a\"/></graph></graphml>",
+			line: 6, err: `<graph> has no edgedefault, and the <edge> at line 9 no directed attribute`},
+		{name: "no edgedefault, every edge directed or not", in: graphmlHead + `<graph><node id="a"/><node id="b"/><node id="c"/>
+<edge source="a" target="b" directed="true"/><edge source="b" target="c" directed="false"/></graph></graphml>`, edges: []string{"a>b", "b>c", "c>b"}},
+		{name: "no edgedefault, no edges", in: graphmlHead + `<graph><node id="a"/></graph></graphml>`, edges: []string{}, nodes: []string{"a"}},
 		{name: "syntax", in: graphmlHead + "<graph>\n<node id=\"a\">\n</graph>", line: 8, err: "XML: "},
 		{name: "two graphs", in: graphmlHead + "<graph/>\n<graph/></graphml>", line: 7, err: "a second <graph>"},
 		{name: "nested", in: graphmlHead + "<graph><node id=\"a\"><graph/></node></graph></graphml>", line: 6, err: "nested graphs"},

@@ -78,6 +78,7 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 		stack      []string // element names
 		graphs     int
 		undirected bool  // the graph's edgedefault
+		noDefault  int   // the line of a <graph> without edgedefault (0: it has one)
 		inNode     int32 // the node being read, or -1
 		inEdge     bool
 		edgeU      int32
@@ -189,9 +190,19 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 				if graphs > 1 {
 					return fail("a second <graph>; a GraphML file must hold one network")
 				}
+				// edgedefault is required by the GraphML schema
+				// (graphml-structure.xsd, element graph: use="required";
+				// the GraphML Primer, section 2.3: "the default direction
+				// must be specified"). Readers disagree on a file without
+				// it: networkx's read_graphml (GraphMLReader.make_graph,
+				// networkx 3.6) reads it as undirected. So neither way is
+				// picked silently: without it, every edge must carry its
+				// own directed attribute.
 				ed, ok := attr(t, "edgedefault")
 				switch {
-				case !ok || ed == "directed":
+				case !ok:
+					noDefault = line()
+				case ed == "directed":
 				case ed == "undirected":
 					undirected = true
 				default:
@@ -242,6 +253,8 @@ func readGraphML(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 					default:
 						return fail("directed %q: want true or false", clip([]byte(d)))
 					}
+				} else if noDefault > 0 {
+					return nil, errorf(file, noDefault, "<graph> has no edgedefault, and the <edge> at line %d no directed attribute: say edgedefault=\"directed\" or \"undirected\" (GraphML requires it; readers differ on a file without it)", edgeLine)
 				}
 				inEdge, edgeHasW = true, false
 				if k := defaults["weight"]; k != nil {

@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 
 	"github.com/netsteer/netsteer/structural"
@@ -35,6 +36,40 @@ type mtxHeader struct {
 	n        int64  // rows = columns
 	nnz      int64  // stored entries
 	sizeLine int
+	// names are the state names of the comment lines netsteer writes
+	// (see mtxNamesMarker), nil when the file has none; namesLine is the
+	// line of the marker.
+	names     []string
+	namesLine int
+}
+
+// mtxNamesMarker is the comment line after which netsteer's Matrix
+// Market writer (netwrite.WriteMatrixMarket) names the states, one comment
+// line "% state I NAME" each, I = 1..N in order, NAME as in an edge list.
+const mtxNamesMarker = "% state names: state I is the I-th row and column"
+
+// mtxNameLine parses a "% state I NAME" line while names are being read;
+// it returns the name, or a message.
+func mtxNameLine(line []byte, want int) (string, string) {
+	rest, ok := bytes.CutPrefix(bytes.TrimSpace(line), []byte("% state "))
+	if !ok {
+		return "", "want \"% state " + strconv.Itoa(want) + " NAME\" after the state-names line"
+	}
+	num, name, _ := bytes.Cut(rest, []byte(" "))
+	if string(num) != strconv.Itoa(want) {
+		return "", "state name line for " + strconv.Quote(clip(num)) + ", want state " + strconv.Itoa(want) + " (the names go in order)"
+	}
+	f, msg := SplitFields(name)
+	switch {
+	case msg != "":
+		return "", msg
+	case len(f) != 1:
+		return "", "want one name after \"% state " + strconv.Itoa(want) + "\", found " + strconv.Itoa(len(f)) + " (quote a name that holds blanks)"
+	}
+	if msg := NameProblem(f[0]); msg != "" {
+		return "", msg
+	}
+	return f[0], ""
 }
 
 // maxStatesFor returns the most states a file with the given number of
@@ -56,6 +91,18 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 	}
 	n := int(h.n)
 	b := structural.NewIntBuilder(n, 1)
+	if h.names != nil {
+		b = structural.NewBuilder()
+		for i, name := range h.names {
+			v, err := b.Intern([]byte(name))
+			if err != nil {
+				return nil, errorf(file, h.namesLine, "%s", trimStructural(err.Error()))
+			}
+			if int(v) != i {
+				return nil, errorf(file, h.namesLine, "state name %q is given to states %d and %d", clip([]byte(name)), v+1, i+1)
+			}
+		}
+	}
 	expanded := h.symmetry != "general"
 	reserve := h.nnz
 	if expanded && reserve < math.MaxInt64/2 {
@@ -117,6 +164,9 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 			return nil, errorf(file, lr.line, "diagonal entry (%d, %d) in a skew-symmetric matrix", i+1, j+1)
 		}
 		// A[i][j] != 0: column j acts on row i.
+		if located(b, opt) || expanded && i != j && opt.locate > 0 && int64(b.Edges())+1 == opt.locate-1 {
+			return nil, &Error{File: file, Line: lr.line, Err: errLocated}
+		}
 		if weighted {
 			b.AddWeightedEdge(j, i, w)
 		} else {
@@ -140,6 +190,12 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 		return nil, errorf(file, h.sizeLine, "%d states for %d entries: more than %d, which the entries can justify", h.n, count, maxStatesFor(count))
 	}
 	for _, s := range opt.States {
+		if h.names != nil {
+			if !slices.Contains(h.names, s) {
+				return nil, &Error{File: file, Msg: "extra state " + strconv.Quote(clip([]byte(s))) + " is not one of the state names of the file"}
+			}
+			continue
+		}
 		v, err := strconv.Atoi(s)
 		if err != nil || strconv.Itoa(v) != s || v < 1 || int64(v) > h.n {
 			return nil, &Error{File: file, Msg: "extra state " + strconv.Quote(clip([]byte(s))) + " is not an index in 1.." + strconv.FormatInt(h.n, 10)}
@@ -147,7 +203,9 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 	}
 	g, err := b.Build(opt.Build)
 	if err != nil {
-		return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
+		err = &Error{File: file, Msg: trimStructural(err.Error()), Err: err}
+		markEdge(err)
+		return nil, err
 	}
 	return &parsed{g: g}, nil
 }
@@ -213,6 +271,26 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 		if k > 0 && line[mtxFirstNonBlank(line)] != '%' {
 			break
 		}
+		switch {
+		case h.namesLine == 0 && string(bytes.TrimSpace(line)) == mtxNamesMarker:
+			h.namesLine, h.names = lr.line, []string{}
+		case h.namesLine > 0 && h.names != nil && k > 0:
+			if !bytes.HasPrefix(bytes.TrimSpace(line), []byte("% state ")) && len(h.names) > 0 {
+				h.names = append(h.names, "") // the list has ended: closed below
+				continue
+			}
+			if len(h.names) > 0 && h.names[len(h.names)-1] == "" {
+				return h, errorf(file, lr.line, "state name line after the list of names ended")
+			}
+			name, msg := mtxNameLine(line, len(h.names)+1)
+			if msg != "" {
+				return h, errorf(file, lr.line, "%s", msg)
+			}
+			h.names = append(h.names, name)
+		}
+	}
+	if len(h.names) > 0 && h.names[len(h.names)-1] == "" {
+		h.names = h.names[:len(h.names)-1]
 	}
 	h.sizeLine = lr.line
 	if k != 3 {
@@ -238,6 +316,9 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 	}
 	if rows > maxStatesFor(nnz) {
 		return h, errorf(file, lr.line, "%d states for %d entries: more than %d, which the entries can justify", rows, nnz, maxStatesFor(nnz))
+	}
+	if h.names != nil && int64(len(h.names)) != rows {
+		return h, errorf(file, h.namesLine, "%d state names for the %d states of the size line (line %d)", len(h.names), rows, h.sizeLine)
 	}
 	h.n, h.nnz = rows, nnz
 	return h, nil

@@ -2,11 +2,14 @@ package netread
 
 import (
 	"bytes"
+	"errors"
 	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
+
+	"github.com/netsteer/netsteer/structural"
 )
 
 // canalEdges is the network of testdata/canal.*, written out by hand.
@@ -75,7 +78,7 @@ func TestFormatOf(t *testing.T) {
 			t.Errorf("FormatOf(%q) = %q, want %q", c.name, got, c.want)
 		}
 	}
-	for _, s := range []string{"edges", "mtx", "dot", "csv", "gv", "mm"} {
+	for _, s := range []string{"edges", "mtx", "dot", "csv", "gv", "mm", "MTX", "GraphML", "Edges"} {
 		if _, err := ParseFormat(s); err != nil {
 			t.Errorf("ParseFormat(%q): %v", s, err)
 		}
@@ -180,5 +183,46 @@ func TestReadFileErrors(t *testing.T) {
 	_, err := ReadFile(p, Options{})
 	if err == nil || err.Error() != p+":3: row index \"3\" is not an integer in 1..2" {
 		t.Errorf("got %v", err)
+	}
+}
+
+// The weights of a repeated edge that add up beyond the float64 range
+// (1e308 + 1e308 > 1.8e308, IEEE 754 binary64) are refused at the line of
+// the entry that overflowed, found by a second pass over the file; a
+// stream read once has no line to name.
+func TestWeightOverflowLine(t *testing.T) {
+	dir := t.TempDir()
+	edges := "# plant\na b 1e308\nb c 1\n\na b 1e308\na b 1\n"
+	cases := []struct {
+		name, data string
+		opt        Options
+		line       int
+	}{
+		{"x.edges", edges, Options{}, 5},
+		{"x.edges.gz", string(gzipBytes([]byte(edges))), Options{}, 5},
+		{"u.edges", "b a 1e308\nc d 1\na b 1e308\n", Options{Build: structural.BuildOptions{Undirected: true}}, 3},
+		{"x.csv", "from;to;w\na;b;1e308\na;b;1e308\n", Options{Columns: &Columns{Names: []string{"from", "to", "w"}}}, 3},
+		{"s.mtx", "%%MatrixMarket matrix coordinate real symmetric\n3 3 3\n2 1 1e308\n3 2 1\n1 2 1e308\n", Options{}, 5},
+	}
+	for _, c := range cases {
+		path := filepath.Join(dir, c.name)
+		if err := os.WriteFile(path, []byte(c.data), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		opt := c.opt
+		opt.Weights = true
+		_, err := ReadFile(path, opt)
+		var e *Error
+		var we *structural.WeightError
+		if !errors.As(err, &e) || !errors.As(err, &we) {
+			t.Fatalf("%s: got %v, want a weight error", c.name, err)
+		}
+		if e.Line != c.line || !strings.Contains(e.Msg, "add up to +Inf") {
+			t.Errorf("%s: got %q, want line %d", c.name, err, c.line)
+		}
+		_, err = Read(strings.NewReader(c.data), c.name, opt)
+		if !errors.As(err, &e) || e.Line != 0 {
+			t.Errorf("%s from a stream: got %v, want no line", c.name, err)
+		}
 	}
 }

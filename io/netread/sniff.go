@@ -49,6 +49,18 @@ func Sniff(p []byte) Format {
 	return ""
 }
 
+// jsonObjectStart reports whether p opens a JSON object: '{', then blanks,
+// then a member name or the closing brace.
+func jsonObjectStart(p []byte) bool {
+	p = bytes.TrimPrefix(p, []byte(utf8BOM))
+	i := skipBlank(p, 0)
+	if i == len(p) || p[i] != '{' {
+		return false
+	}
+	i = skipBlank(p, i+1)
+	return i == len(p) || p[i] == '"' || p[i] == '}'
+}
+
 func skipBlank(p []byte, i int) int {
 	for i < len(p) && (p[i] == ' ' || p[i] == '\t' || p[i] == '\r' || p[i] == '\n' || p[i] == '\f' || p[i] == '\v') {
 		i++

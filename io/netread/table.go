@@ -3,6 +3,7 @@ package netread
 import (
 	"bufio"
 	"bytes"
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -591,6 +592,14 @@ func (blk *block) tableLine(line []byte, weights bool) string {
 		if msg := controlMsg(fields[0]); msg != "" {
 			return msg
 		}
+		// A single field declares an isolated state, unless it holds
+		// another separator unquoted: then the separator set is most
+		// likely not the file's.
+		for _, c := range []byte{',', '\t', ';'} {
+			if c != lf.sep && !(lf.sep == ' ' && c == '\t') && hasUnquoted(line, c) {
+				return "one field " + strconv.Quote(clip(fields[0])) + " holding a " + sepName(c) + " unquoted, where the separator is " + sepName(lf.sep) + ": quote it to declare an isolated state, or set the separator to " + sepName(c)
+			}
+		}
 		return blk.addFields(fields, weights)
 	case lf.optWeight && len(fields) > 3:
 		return "want \"source target [weight]\" separated by " + sepName(lf.sep) + ", found " + strconv.Itoa(len(fields)) + " fields (choose columns to read a wider table)"
@@ -624,7 +633,18 @@ func readEdges(r *bufio.Reader, file string, opt Options) (*parsed, error) {
 	}
 	g, err := finish(b, file, opt)
 	if err != nil {
+		markEdge(err)
 		return nil, err
 	}
 	return &parsed{g: g}, nil
+}
+
+// markEdge records, in an *Error from Build about a non-finite weight,
+// the edge a second pass can find the line of (see Options.locate).
+func markEdge(err error) {
+	var e *Error
+	var we *structural.WeightError
+	if errors.As(err, &e) && errors.As(err, &we) && we.Edge >= 0 {
+		e.edge = we.Edge + 1
+	}
 }

@@ -75,8 +75,8 @@ func control(g *structural.Network, from []int32, head func(v int32) bool) ([]st
 func FromDrivers(r *analysis.DriversResult) *Annotated {
 	g := r.Network()
 	n := g.N()
-	a := &Annotated{Net: g, Graph: [][2]string{{"question", "fewest independent control signals"},
-		{"driver_count", strconv.Itoa(r.DriverCount)}, {"matching_size", strconv.Itoa(r.MatchingSize)}}}
+	a := &Annotated{Net: g, Graph: []Attr{StringAttr("question", "fewest independent control signals"),
+		IntAttr("driver_count", r.DriverCount), IntAttr("matching_size", r.MatchingSize)}}
 	driver := make([]bool, n)
 	for _, v := range r.Drivers.IDs() {
 		driver[v] = true
@@ -116,10 +116,10 @@ func roleNames(roles []structural.Role) []string {
 func FromCheck(r *analysis.CheckResult) *Annotated {
 	g := r.Network()
 	n := g.N()
-	a := &Annotated{Net: g, Graph: [][2]string{{"question", "is the design structurally controllable (observable)?"}}}
+	a := &Annotated{Net: g, Graph: []Attr{StringAttr("question", "is the design structurally controllable (observable)?")}}
 	for _, p := range r.Properties() {
 		pre := p.Property.String() + "_"
-		a.Graph = append(a.Graph, [2]string{pre + "holds", strconv.FormatBool(p.Holds)}, [2]string{pre + "dimension", strconv.Itoa(p.Dimension)})
+		a.Graph = append(a.Graph, BoolAttr(pre+"holds", p.Holds), IntAttr(pre+"dimension", p.Dimension))
 		sig := make([]string, n)
 		for i, st := range p.Design.Signals() {
 			for _, v := range st {
@@ -210,8 +210,8 @@ func FromPlace(r *analysis.PlaceResult) *Annotated {
 	g := r.Network()
 	n := g.N()
 	pl := r.Placement
-	a := &Annotated{Net: g, Graph: [][2]string{{"question", "cheapest dedicated " + r.Device + "s"},
-		{"feasible", strconv.FormatBool(pl.Feasible)}, {"device_count", strconv.Itoa(r.DeviceCount)}, {"total_cost", pl.Cost.String()}}}
+	a := &Annotated{Net: g, Graph: []Attr{StringAttr("question", "cheapest dedicated "+r.Device+"s"),
+		BoolAttr("feasible", pl.Feasible), IntAttr("device_count", r.DeviceCount), {Name: "total_cost", Type: Double, Value: pl.Cost.String()}}}
 	dev := make([]string, n)
 	cost := make([]float64, n)
 	for i := range cost {

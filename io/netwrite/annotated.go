@@ -56,13 +56,31 @@ func (c *Column) value(i int) (string, bool) {
 	return c.Strings[i], c.Strings[i] != ""
 }
 
+// Attr is one attribute of the whole graph. Value is its text in the
+// form of its Type: "true" or "false", a decimal integer, a decimal
+// number (as strconv or structural.Cost write them), or any string.
+type Attr struct {
+	Name  string
+	Type  Type
+	Value string
+}
+
+// StringAttr, BoolAttr and IntAttr return graph attributes of their type.
+func StringAttr(name, v string) Attr { return Attr{name, String, v} }
+
+// BoolAttr returns a boolean graph attribute.
+func BoolAttr(name string, v bool) Attr { return Attr{name, Bool, strconv.FormatBool(v)} }
+
+// IntAttr returns an integer graph attribute.
+func IntAttr(name string, v int) Attr { return Attr{name, Int, strconv.Itoa(v)} }
+
 // Annotated is a network with the answer to a question as node and edge
 // attributes, for general-purpose graph tools.
 type Annotated struct {
 	Net *structural.Network
 	// Graph holds attributes of the whole graph (the question, the
-	// answer's counts), written as text.
-	Graph [][2]string
+	// answer's verdicts and counts), each written with its type.
+	Graph []Attr
 	Nodes []Column
 	Edges []Column
 }
@@ -97,7 +115,7 @@ func WriteGraphML(w io.Writer, a *Annotated) error {
 	bw.WriteString(xml.Header)
 	bw.WriteString(`<graphml xmlns="http://graphml.graphdrawing.org/xmlns" xmlns:xsi="http://www.w3.org/2001/XMLSchema-instance" xsi:schemaLocation="http://graphml.graphdrawing.org/xmlns http://graphml.graphdrawing.org/xmlns/1.0/graphml.xsd">` + "\n")
 	for i, g := range a.Graph {
-		fmt.Fprintf(bw, `  <key id="g%d" for="graph" attr.name="%s" attr.type="string"/>`+"\n", i, escape(g[0]))
+		fmt.Fprintf(bw, `  <key id="g%d" for="graph" attr.name="%s" attr.type="%s"/>`+"\n", i, escape(g.Name), g.Type.graphml())
 	}
 	for i, c := range a.Nodes {
 		fmt.Fprintf(bw, `  <key id="n%d" for="node" attr.name="%s" attr.type="%s"/>`+"\n", i, escape(c.Name), c.Type.graphml())
@@ -107,7 +125,7 @@ func WriteGraphML(w io.Writer, a *Annotated) error {
 	}
 	bw.WriteString(`  <graph id="G" edgedefault="directed">` + "\n")
 	for i, g := range a.Graph {
-		fmt.Fprintf(bw, `    <data key="g%d">%s</data>`+"\n", i, escape(g[1]))
+		fmt.Fprintf(bw, `    <data key="g%d">%s</data>`+"\n", i, escape(g.Value))
 	}
 	g := a.Net
 	var name []byte
@@ -185,9 +203,13 @@ func WriteNodeLink(w io.Writer, a *Annotated) error {
 		if i > 0 {
 			bw.WriteString(", ")
 		}
-		bw.Write(structural.AppendJSONString(nil, g[0]))
+		bw.Write(structural.AppendJSONString(nil, g.Name))
 		bw.WriteString(": ")
-		bw.Write(structural.AppendJSONString(nil, g[1]))
+		if g.Type == String {
+			bw.Write(structural.AppendJSONString(nil, g.Value))
+		} else {
+			bw.WriteString(g.Value) // true, false or a number
+		}
 	}
 	bw.WriteString("},\n\"nodes\": [")
 	g := a.Net

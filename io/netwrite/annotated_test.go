@@ -218,7 +218,8 @@ h = nx.node_link_graph(json.load(open(sys.argv[1] + "/d.json")))
 for x in (g, h):
     drivers = sorted(n for n, d in x.nodes(data=True) if d.get("driver") is True)
     stems = sum(1 for _, _, d in x.edges(data=True) if d.get("control") == "stem")
-    print(x.number_of_nodes(), x.number_of_edges(), ",".join(drivers), stems)
+    dc = x.graph.get("driver_count")
+    print(x.number_of_nodes(), x.number_of_edges(), ",".join(drivers), stems, type(dc).__name__, dc)
 `
 	out, err := exec.Command(py, "-c", script, dir).CombinedOutput()
 	if err != nil {
@@ -234,8 +235,75 @@ for x in (g, h):
 			stems++
 		}
 	}
-	want := strings.Repeat(strings.Join([]string{strconv.Itoa(g.N()), strconv.Itoa(g.Edges()), strings.Join(slices.Sorted(slices.Values(names)), ","), strconv.Itoa(stems)}, " ")+"\n", 2)
+	want := strings.Repeat(strings.Join([]string{strconv.Itoa(g.N()), strconv.Itoa(g.Edges()), strings.Join(slices.Sorted(slices.Values(names)), ","), strconv.Itoa(stems),
+		"int", strconv.Itoa(r.DriverCount)}, " ")+"\n", 2)
 	if string(out) != want {
 		t.Fatalf("networkx read\n%s\nwant\n%s", out, want)
+	}
+}
+
+// Graph attributes keep their types: a general JSON parser finds booleans
+// and numbers, and the GraphML keys declare boolean, long and double, so
+// that readers (networkx's among them) give back typed values.
+func TestAnnotatedGraphAttrTypes(t *testing.T) {
+	g := demo(t)
+	d, _ := structural.Dedicated(g, []int32{0})
+	r, err := analysis.Check(g, analysis.CheckRequest{Inputs: &d})
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := netwrite.FromCheck(r)
+	a.Graph = append(a.Graph, netwrite.Attr{Name: "total_cost", Type: netwrite.Double, Value: structural.Cost(2500).String()})
+	var b bytes.Buffer
+	if err := netwrite.WriteNodeLink(&b, a); err != nil {
+		t.Fatal(err)
+	}
+	var nl struct {
+		Graph map[string]any `json:"graph"`
+	}
+	if err := json.Unmarshal(b.Bytes(), &nl); err != nil {
+		t.Fatal(err)
+	}
+	p := r.Properties()[0]
+	pre := p.Property.String() + "_"
+	if v, ok := nl.Graph[pre+"holds"].(bool); !ok || v != p.Holds {
+		t.Errorf("JSON %sholds = %#v, want the boolean %v", pre, nl.Graph[pre+"holds"], p.Holds)
+	}
+	if v, ok := nl.Graph[pre+"dimension"].(float64); !ok || v != float64(p.Dimension) {
+		t.Errorf("JSON %sdimension = %#v, want the number %d", pre, nl.Graph[pre+"dimension"], p.Dimension)
+	}
+	if v, ok := nl.Graph["total_cost"].(float64); !ok || v != 2.5 {
+		t.Errorf("JSON total_cost = %#v, want the number 2.5", nl.Graph["total_cost"])
+	}
+	if _, ok := nl.Graph["question"].(string); !ok {
+		t.Errorf("JSON question = %#v, want a string", nl.Graph["question"])
+	}
+	// Our node-link reader takes the typed graph object.
+	if _, err := netread.Read(bytes.NewReader(b.Bytes()), "a.json", netread.Options{}); err != nil {
+		t.Errorf("read back: %v", err)
+	}
+
+	b.Reset()
+	if err := netwrite.WriteGraphML(&b, a); err != nil {
+		t.Fatal(err)
+	}
+	var doc graphml
+	if err := xml.Unmarshal(b.Bytes(), &doc); err != nil {
+		t.Fatal(err)
+	}
+	types := map[string]string{}
+	for _, k := range doc.Keys {
+		if k.For == "graph" {
+			types[k.Name] = k.Type
+		}
+	}
+	want := map[string]string{"question": "string", pre + "holds": "boolean", pre + "dimension": "long", "total_cost": "double"}
+	for k, ty := range want {
+		if types[k] != ty {
+			t.Errorf("GraphML key %s: attr.type %q, want %q", k, types[k], ty)
+		}
+	}
+	if _, err := netread.Read(bytes.NewReader(b.Bytes()), "a.graphml", netread.Options{}); err != nil {
+		t.Errorf("read back: %v", err)
 	}
 }

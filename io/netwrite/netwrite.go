@@ -145,7 +145,9 @@ func WriteIntNodeTable(w io.Writer, n, base int) error {
 // A[v][u] != 0 for every edge u -> v: "pattern" entries, or "real" ones
 // holding the weights. States become their 1-based indices; when the
 // names differ from those indices, comment lines "% state I NAME" (NAME
-// written as in an edge list) record them, so that nothing is lost.
+// written as in an edge list) record them after the line "% state names:
+// state I is the I-th row and column", so that nothing is lost: netread
+// reads them back as the state names.
 func WriteMatrixMarket(w io.Writer, g *structural.Network) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
 	field := "pattern"

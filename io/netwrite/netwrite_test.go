@@ -207,7 +207,18 @@ func TestMatrixMarketKeepsNames(t *testing.T) {
 	}
 	back, err := netread.Read(strings.NewReader(out), "named.mtx", netread.Options{Format: netread.MatrixMarket})
 	if err != nil || back.Network.N() != 3 || back.Network.Edges() != 2 {
-		t.Errorf("read back: %v, want 3 states and 2 edges", err)
+		t.Fatalf("read back: %v, want 3 states and 2 edges", err)
+	}
+	// The names come back, in order, with the edges between them.
+	for i := int32(0); int(i) < g.N(); i++ {
+		if back.Network.Name(i) != g.Name(i) {
+			t.Errorf("state %d read back as %q, want %q", i+1, back.Network.Name(i), g.Name(i))
+		}
+		for _, v := range g.Succ(i) {
+			if !back.Network.HasEdge(i, v) {
+				t.Errorf("edge %s -> %s lost", g.Name(i), g.Name(v))
+			}
+		}
 	}
 	// Integer names equal to the indices need no comments.
 	b := structural.NewIntBuilder(3, 1)

@@ -103,6 +103,23 @@ func gramianExtremes(sf *schurForm, c []float64, m int, s float64) (lo, hi float
 			x[i*n+k], x[k*n+i] = v, v
 		}
 	}
+	var big float64
+	for _, v := range x {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return 0, 0, errorf("the Gramian is beyond floating point (an entry overflowed); scale the model's numbers")
+		}
+		big = math.Max(big, math.Abs(v))
+	}
+	if big == 0 {
+		return 0, 0, nil
+	}
+	// The eigen solver is given the Gramian scaled by a power of two
+	// (exact) to entries of at most 1: its own scaling fails on extreme
+	// magnitudes, as the Gramians of models with huge numbers have.
+	_, e2 := math.Frexp(big)
+	for i := range x {
+		x[i] = math.Ldexp(x[i], -e2)
+	}
 	var es mat.EigenSym
 	if !es.Factorize(mat.NewSymDense(n, x), false) {
 		return 0, 0, errorf("symmetric eigenvalue solver failed on the Gramian")
@@ -112,5 +129,5 @@ func gramianExtremes(sf *schurForm, c []float64, m int, s float64) (lo, hi float
 	for _, v := range vals {
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
-	return lo, hi, nil
+	return math.Ldexp(lo, e2), math.Ldexp(hi, e2), nil
 }

@@ -1,6 +1,8 @@
 package numeric
 
 import (
+	"math"
+
 	"gonum.org/v1/gonum/lapack"
 	"gonum.org/v1/gonum/lapack/gonum"
 )
@@ -22,6 +24,20 @@ var impl gonum.Implementation
 // then the multishift QR algorithm (Dhseqr). No balancing: a diagonal
 // similarity would change the singular values the margin measures.
 func newSchur(a []float64, n int) (*schurForm, error) {
+	// LAPACK gives no meaningful answer for non-finite entries (and the
+	// block structure read from its eigenvalues would index out of range).
+	// Entries so large that their squares overflow would too: the
+	// Householder steps square them (an index out of range inside LAPACK).
+	var ss float64
+	for _, x := range a[:n*n] {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, errorf("an entry of A is not a finite number")
+		}
+		ss += x * x
+	}
+	if math.IsInf(ss, 0) {
+		return nil, errorf("the entries of A are too large for floating point (the sum of their squares overflows); scale the model's numbers")
+	}
 	s := &schurForm{n: n, wr: make([]float64, n), wi: make([]float64, n)}
 	tau := make([]float64, n-1)
 	work := make([]float64, 1)
@@ -40,6 +56,11 @@ func newSchur(a []float64, n int) (*schurForm, error) {
 		work = make([]float64, need)
 	}
 	impl.Dorghr(n, 0, n-1, a, n, tau, work, len(work))
+	for _, x := range h {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, errorf("the Hessenberg form of A overflowed; scale the model's numbers")
+		}
+	}
 	impl.Dhseqr(lapack.EigenvaluesAndSchur, lapack.SchurOrig, n, 0, n-1, h, n, s.wr, s.wi, a, n, work, -1)
 	if need := int(work[0]); need > len(work) {
 		work = make([]float64, need)
