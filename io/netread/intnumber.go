@@ -6,6 +6,7 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"github.com/netsteer/netsteer/matching/bigmem"
 	"github.com/netsteer/netsteer/structural"
 )
 
@@ -36,7 +37,10 @@ import (
 // Memory per edge: a run holds 8 bytes (16 with weights), as the Builder's
 // own segments would, and becomes them; numbering adds the value array (4
 // bytes per value, at most 8 per edge, 0.4 per edge at 10 edges per
-// state) and 16 bytes per state for the sort, all released before Build.
+// state) and 20 bytes per state for the sort and the list of states, all
+// released before Build. At 10^8 edges between 10^7 states: 800 MB of
+// runs (the Builder's edges), 40 MB of values and 200 MB for the sort
+// while numbering, against 2.08 GB that Build and the matching peak at.
 
 // intNumbering enables the parallel numbering; tests switch it off to
 // compare with mergeBlock.
@@ -199,7 +203,7 @@ func numberRuns(b *structural.Builder, runs []*intRun, nv int) error {
 		recs += uint32(r.recs)
 	}
 	// first[v] is 1 + the key of v's first appearance, 0 for none.
-	first := make([]uint32, nv)
+	first := bigmem.Make[uint32](nv, nv)
 	parallelRuns(len(runs), func(i int) {
 		r := runs[i]
 		k, e := 0, 0
@@ -223,7 +227,7 @@ func numberRuns(b *structural.Builder, runs []*intRun, nv int) error {
 			n++
 		}
 	}
-	pairs := make([]uint64, 0, n)
+	pairs := bigmem.Make[uint64](0, n)
 	for v, k := range first {
 		if k != 0 {
 			pairs = append(pairs, uint64(k)<<32|uint64(v))
@@ -231,7 +235,7 @@ func numberRuns(b *structural.Builder, runs []*intRun, nv int) error {
 	}
 	radixSortHigh(pairs)
 	// The states in order; first[v] becomes v's state.
-	vs := make([]uint32, len(pairs))
+	vs := bigmem.Make[uint32](len(pairs), len(pairs))
 	for i, p := range pairs {
 		vs[i] = uint32(p)
 		first[uint32(p)] = uint32(i)
@@ -298,7 +302,7 @@ func radixSortHigh(a []uint64) {
 	if len(a) < 2 {
 		return
 	}
-	tmp := make([]uint64, len(a))
+	tmp := bigmem.Make[uint64](len(a), len(a))
 	src, dst := a, tmp
 	for shift := uint(32); shift < 64; shift += 16 {
 		var count [1<<16 + 1]int

@@ -329,7 +329,7 @@ func Sealed(t *Table) *Interner { return &Interner{t: t} }
 // InternNewInts adds the states named by the canonical decimal forms of
 // vs, in order, as InternInt of each in turn would: the first gets state
 // Len(). None may be interned yet and no two may be equal. Each v must be
-// below 2^31-1; on an error the states before the bad value stay added.
+// below 2^31-1; after an error the Interner must not be used.
 // It grows the arena and offsets once, for inputs numbered in bulk.
 func (b *Interner) InternNewInts(vs []uint32) error {
 	if len(vs) == 0 {
@@ -374,6 +374,10 @@ func (b *Interner) InternNewInts(vs []uint32) error {
 		copy(o, t.off)
 		t.off = o
 	}
+	// The names in order, then the dense slots in a loop of its own: it
+	// misses the cache at every value, and a short loop keeps many misses
+	// in flight.
+	n0 := t.n
 	for _, v := range vs {
 		if int(v) >= len(b.dense) {
 			n := t.n
@@ -382,16 +386,22 @@ func (b *Interner) InternNewInts(vs []uint32) error {
 			}
 			continue
 		}
-		if b.dense[v] != 0 {
-			return fmt.Errorf("names: InternNewInts: %d interned twice", v)
-		}
-		id := int32(t.n)
 		t.n++
 		t.arena = strconv.AppendUint(t.arena, uint64(v), 10)
 		t.off = append(t.off, int64(len(t.arena)))
-		b.dense[v] = id + 1
+	}
+	d := b.dense
+	var seen int32
+	for i, v := range vs {
+		if int(v) < len(d) {
+			seen |= d[v]
+			d[v] = int32(n0+i) + 1
+		}
 	}
 	b.unindexed = true
+	if seen != 0 {
+		return errors.New("names: InternNewInts: a value interned twice")
+	}
 	return nil
 }
 
