@@ -1,6 +1,7 @@
 package netread
 
 import (
+	"bytes"
 	"math/rand/v2"
 	"strconv"
 	"strings"
@@ -63,6 +64,9 @@ func TestIntNumberingMatchesInterning(t *testing.T) {
 		spread := []int{5, 300, 5000, 1 << 20}[trial%4]
 		odd := odds[trial%len(odds)]
 		data := intEdgeList(r, 500+r.IntN(4000), spread, odd)
+		if trial%5 == 4 {
+			data = gzipBytes(data)
+		}
 		opt := Options{Weights: trial%3 != 0}
 		ref, refErr := readWith(data, 0, 0, opt)
 		for _, c := range []struct{ block, workers int }{{1 << 20, 2}, {300, 2}, {301, 3}, {4096, 2}, {2000, 1}} {
@@ -127,4 +131,37 @@ func TestIntNumberingSparseValues(t *testing.T) {
 	if err := sameNetwork(got, want); err != nil {
 		t.Fatal(err)
 	}
+}
+
+// FuzzIntNumbering checks that numbering integer names in parallel and
+// interning them in order give the same network or the same error, on the
+// input repeated over several blocks.
+//
+//	go test -fuzz=FuzzIntNumbering ./io/netread
+func FuzzIntNumbering(f *testing.F) {
+	for _, s := range []string{"1 2\n2 3\n", "0 0 2.5\n7\n3 1\n", "1 2\n007 1\n", "5 6 0\n", "1 2\n2147483647 3\n", "# c\n4 4\n\n9 1,2\n"} {
+		f.Add([]byte(s), uint8(0))
+		f.Add([]byte(s), uint8(1))
+	}
+	f.Fuzz(func(t *testing.T, data []byte, flags uint8) {
+		if len(data) == 0 || len(data) > 4096 {
+			return
+		}
+		block := maxLineBytes + 2
+		in := bytes.Repeat(data, 3*block/len(data)+1)
+		opt := fuzzOptions(EdgeList, flags)
+		defer func(on bool) { intNumbering = on }(intNumbering)
+		intNumbering = false
+		want, wantErr := readWith(in, block, 2, opt)
+		intNumbering = true
+		got, err := readWith(in, block, 2, opt)
+		if (err == nil) != (wantErr == nil) || err != nil && err.Error() != wantErr.Error() {
+			t.Fatalf("error %v, interning in order gives %v", err, wantErr)
+		}
+		if err == nil {
+			if e := sameNetwork(got, want); e != nil {
+				t.Fatal(e)
+			}
+		}
+	})
 }
