@@ -30,9 +30,9 @@ import (
 // are numbered the same way and the rest of the input goes through
 // mergeBlock, so the network is the one mergeBlock alone builds. Values
 // are indexed by an array of 4 bytes per value, allowed only while the
-// largest value is below the number of names read plus 2^20 (at most 4
-// bytes per name, 8 per edge); beyond it (sparse large identifiers) the
-// runs are interned in order as mergeBlock does.
+// largest value is below two per record read (edge or single name) plus
+// 2^20 (at most 8 bytes per edge); beyond it (sparse large identifiers)
+// the runs are interned in order as mergeBlock does.
 //
 // Memory per edge: a run holds 8 bytes (16 with weights), as the Builder's
 // own segments would, and becomes them; numbering adds the value array (4
