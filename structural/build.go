@@ -132,6 +132,12 @@ func (b *Builder) Intern(name []byte) (int32, error) { return b.names.Intern(nam
 // v must be below 2^31-1.
 func (b *Builder) InternInt(v uint32) (int32, error) { return b.names.InternInt(v) }
 
+// InternNewInts adds the states named by the canonical decimal forms of
+// vs, in order, as InternInt of each in turn would, for a reader that
+// numbers integer names in bulk: the first gets state States(). None may
+// be interned yet and no two may be equal; each must be below 2^31-1.
+func (b *Builder) InternNewInts(vs []uint32) error { return b.names.InternNewInts(vs) }
+
 // LookupInt returns the state named by the canonical decimal form of v if
 // the Builder has it in its dense table, as InternInt would, without adding
 // it. It may be called from any number of goroutines while one other

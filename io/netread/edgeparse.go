@@ -8,6 +8,7 @@ import (
 	"math"
 	"runtime"
 	"strconv"
+	"sync/atomic"
 
 	"github.com/netsteer/netsteer/structural"
 )
@@ -23,7 +24,10 @@ import (
 // an earlier block) and its value otherwise (interned in order by
 // InternInt), other names are copied into the block's arena, and any line
 // that is not two or three plain fields goes through the general tokenizer,
-// which produces the error messages.
+// which produces the error messages. While every block holds only
+// canonical decimal names, the merge keeps them as values and numbers the
+// states on all cores at the end instead (intnumber.go), with the same
+// numbering.
 
 // blockBytes is the size of a parse block; it must exceed maxLineBytes.
 var blockBytes = 1 << 20
@@ -51,6 +55,7 @@ type block struct {
 	tok   tokenizer
 	b     *structural.Builder // for LookupInt while parsing; nil in lineOfEdge
 	lf    *lineFormat
+	run   *intRun // the records as values, while integer names are collected
 }
 
 // isoTok in place of an edge's target marks a line that declares an
@@ -137,10 +142,18 @@ func readRows(r *bufio.Reader, file string, b *structural.Builder, lf *lineForma
 	for i := 1; i < nblocks; i++ {
 		free <- newBlock(b)
 	}
+	// Integer names are numbered in parallel at the end (intnumber.go)
+	// while every block holds only them.
+	col := intCollector{on: intNumbering && b.States() == 0}
+	var collecting atomic.Bool
+	collecting.Store(col.on)
 	for i := 0; i < workers; i++ {
 		go func() {
 			for blk := range work {
 				parseBlock(blk, weights)
+				if collecting.Load() && blk.err == nil {
+					blk.run = blk.intRun(weights)
+				}
 				blk.done <- struct{}{}
 			}
 		}()
@@ -166,6 +179,25 @@ func readRows(r *bufio.Reader, file string, b *structural.Builder, lf *lineForma
 	line := line0
 	for blk := range order {
 		<-blk.done
+		if err == nil && col.on {
+			if err = hd.check(blk, file, line); err != nil {
+				close(quit)
+				free <- blk
+				continue
+			}
+			if col.take(blk) {
+				line += blk.lines
+				free <- blk
+				continue
+			}
+			collecting.Store(false)
+			if err = col.flush(b); err != nil {
+				err = errorf(file, line, "%v", err)
+				close(quit)
+				free <- blk
+				continue
+			}
+		}
 		if err == nil {
 			var stop bool
 			stop, err = mergeBlock(blk, file, b, weights, &line, hd)
@@ -180,6 +212,11 @@ func readRows(r *bufio.Reader, file string, b *structural.Builder, lf *lineForma
 	}
 	if err == errStop {
 		err = nil
+	}
+	if err == nil && col.on {
+		if err = col.flush(b); err != nil {
+			err = errorf(file, line, "%v", err)
+		}
 	}
 	return err
 }
@@ -247,6 +284,7 @@ func parseBlock(blk *block, weights bool) {
 	blk.arena = blk.arena[:0]
 	blk.offs = blk.offs[:0]
 	blk.err = nil
+	blk.run = nil
 	data := blk.data
 	for len(data) > 0 {
 		var line []byte

@@ -171,6 +171,21 @@ const maxSharedDense = 1 << 21
 // (eight slots per state plus 2^20) and the table can at least double, so
 // copies stay linear, and reports whether it does.
 func (b *Interner) growDense(v uint32) bool {
+	if !b.extendDense(v) {
+		return false
+	}
+	b.publishDense()
+	return true
+}
+
+// publishDense hands the dense table to LookupInt.
+func (b *Interner) publishDense() {
+	shared := b.dense // readers get their own header: b.dense is reassigned
+	b.denseShared.Store(&shared)
+}
+
+// extendDense is growDense without handing the new table to LookupInt.
+func (b *Interner) extendDense(v uint32) bool {
 	limit := 8*int64(b.t.n) + 1<<20
 	n := max(2*len(b.dense), int(v)+1, 1<<12)
 	if int64(n) > limit {
@@ -193,8 +208,6 @@ func (b *Interner) growDense(v uint32) bool {
 		}
 	}
 	b.overflow = b.overflow[:k]
-	shared := b.dense // readers get their own header: b.dense is reassigned
-	b.denseShared.Store(&shared)
 	return true
 }
 
@@ -312,3 +325,92 @@ type overflowName struct {
 // Sealed returns an Interner over a sealed table that interns nothing more:
 // for networks built on the states of another.
 func Sealed(t *Table) *Interner { return &Interner{t: t} }
+
+// InternNewInts adds the states named by the canonical decimal forms of
+// vs, in order, as InternInt of each in turn would: the first gets state
+// Len(). None may be interned yet and no two may be equal. Each v must be
+// below 2^31-1; after an error the Interner must not be used.
+// It grows the arena and offsets once, for inputs numbered in bulk.
+func (b *Interner) InternNewInts(vs []uint32) error {
+	if len(vs) == 0 {
+		return nil
+	}
+	if b.t.ints {
+		return ErrIntTable
+	}
+	if b.t.n+len(vs) > MaxStates {
+		return fmt.Errorf("names: more than %d states", MaxStates)
+	}
+	digits, maxV := 0, uint32(0)
+	for _, v := range vs {
+		if v >= math.MaxInt32 {
+			return fmt.Errorf("names: InternNewInts: %d out of range", v)
+		}
+		digits += decimalDigits(v)
+		maxV = max(maxV, v)
+	}
+	// The dense table covers what the last InternInt would let it cover.
+	// It is filled while LookupInt does not see it (a new table, or a
+	// copy), so plain writes do not race with lookups.
+	fresh := false
+	if int(maxV) >= len(b.dense) {
+		b.t.n += len(vs)
+		fresh = b.extendDense(maxV)
+		b.t.n -= len(vs)
+		if lim := 8*int64(b.t.n+len(vs)) + 1<<20 - 1; !fresh && lim < int64(maxV) {
+			fresh = b.extendDense(uint32(lim))
+		}
+	}
+	if !fresh {
+		d := bigmem.Make[int32](len(b.dense), len(b.dense))
+		copy(d, b.dense)
+		b.dense = d
+	}
+	defer b.publishDense()
+	t := b.t
+	t.growArena(digits)
+	if need := len(t.off) + len(vs); need > cap(t.off) {
+		o := bigmem.Make[int64](len(t.off), need)
+		copy(o, t.off)
+		t.off = o
+	}
+	// The names in order, then the dense slots in a loop of its own: it
+	// misses the cache at every value, and a short loop keeps many misses
+	// in flight.
+	n0 := t.n
+	for _, v := range vs {
+		if int(v) >= len(b.dense) {
+			n := t.n
+			if b.internOverflow(v); t.n == n {
+				return fmt.Errorf("names: InternNewInts: %d interned twice", v)
+			}
+			continue
+		}
+		t.n++
+		t.arena = strconv.AppendUint(t.arena, uint64(v), 10)
+		t.off = append(t.off, int64(len(t.arena)))
+	}
+	d := b.dense
+	var seen int32
+	for i, v := range vs {
+		if int(v) < len(d) {
+			seen |= d[v]
+			d[v] = int32(n0+i) + 1
+		}
+	}
+	b.unindexed = true
+	if seen != 0 {
+		return errors.New("names: InternNewInts: a value interned twice")
+	}
+	return nil
+}
+
+// decimalDigits returns the length of the decimal form of v.
+func decimalDigits(v uint32) int {
+	d := 1
+	for v >= 10 {
+		v /= 10
+		d++
+	}
+	return d
+}
