@@ -106,9 +106,6 @@ func generateFlags(e *env, fs *pflag.FlagSet) func([]string) error {
 		if err := nw.check(); err != nil {
 			return err
 		}
-		if err := nw.sideTableFree(); err != nil {
-			return err
-		}
 		format, err := sf()
 		if err != nil {
 			return err
@@ -140,6 +137,8 @@ func (n *netOut) register(fs *pflag.FlagSet) {
 	fs.StringVar(&n.nodeTable, "output-node-table", "", "where the node table goes (default: beside the edge list)")
 }
 
+// check refuses -o settings that cannot be written, or would be written
+// over a file that is not the command's own (sideTableFree).
 func (n *netOut) check() error {
 	if n.output == "" {
 		return usagef("-o FILE is required")
@@ -155,7 +154,7 @@ func (n *netOut) check() error {
 	if nt := n.nodeTablePath(); nt != "" && nt == n.output {
 		return usagef("the node table would overwrite %s", n.output)
 	}
-	return nil
+	return n.sideTableFree()
 }
 
 // writtenTableHeader is the header of the node tables netwrite writes
