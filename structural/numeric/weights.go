@@ -20,7 +20,9 @@ const maxExactDigits = 15
 // nearest to it. Otherwise the decimal cannot be recovered from the float64,
 // and the exact binary value of x (an integer times a power of two) is used
 // instead; decimal is false then. A nonzero x never maps to zero: its
-// numerator is below 10^17 < P, and 10 and 2 are invertible.
+// numerator is below 10^17 < P, and 10 and 2 are invertible. x must be
+// finite (FromFloat panics otherwise, as on a programming error: Build
+// refuses non-finite weights and Verify non-finite signal values).
 func FromFloat(f *Field, x float64) (v uint64, decimal bool) {
 	if x == 0 {
 		return 0, true
@@ -117,7 +119,8 @@ func powInt(f *Field, base uint64, e int) uint64 {
 // ExactFromWeights maps the model's own values into f: a[k] is the entry of
 // the edge Out.Adj[k] (nil means every entry is 1), b[j][i] that of signal j
 // at state Signals[j][i] (nil means 1). It returns the number of values
-// whose decimal text could not be recovered (see FromFloat).
+// whose decimal text could not be recovered (see FromFloat). Every value
+// must be finite, as FromFloat requires.
 func ExactFromWeights(p *Pattern, f Field, a []float64, b [][]float64) (*Exact, int) {
 	x := &Exact{F: f, A: make([]uint64, len(p.Out.Adj))}
 	inexact := 0
