@@ -37,3 +37,30 @@ func TestHugeWeightsNoPanic(t *testing.T) {
 		_, _ = numeric.RankDesigns(g, []structural.Design{in}, numeric.RankRequest{Weights: true})
 	}
 }
+
+// Without Modes or Effort, numbers whose squares overflow float64 (IEEE 754
+// binary64: 1e200^2 = 1e400) keep the exact answer, computed over GF(p)
+// with no rounding, and skip the floating-point margin with the reason.
+func TestHugeWeightsKeepExact(t *testing.T) {
+	b := structural.NewBuilder()
+	id := func(s string) int32 { v, _ := b.Intern([]byte(s)); return v }
+	a, c, d := id("a"), id("b"), id("c")
+	b.AddWeightedEdge(a, c, 1e200)
+	b.AddWeightedEdge(c, d, 1e200)
+	b.AddWeightedEdge(d, d, 2)
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	in, _ := structural.NewDesign(g, [][]int32{{a}}, nil)
+	res, err := numeric.Verify(g, numeric.Request{Inputs: &in, Weights: true})
+	if err != nil {
+		t.Fatalf("Verify: %v", err)
+	}
+	r := res.Controllability
+	// A stem a -> b -> c driven at a: dimension 3 for any nonzero numbers
+	// (Lin 1974, a stem is controllable).
+	if r.Trials[0].Dimension != 3 || r.Margin != nil || r.FloatSkipped == "" {
+		t.Errorf("dimension %d, margin %v, float skipped %q: want 3, none, a reason", r.Trials[0].Dimension, r.Margin, r.FloatSkipped)
+	}
+}

@@ -604,6 +604,11 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 			r.FloatSkipped = "the floating-point check is turned off"
 		case n > maxFloat:
 			r.FloatSkipped = fmt.Sprintf("%d states exceed the limit of %d for the floating-point check", n, maxFloat)
+		case req.Weights && !req.Modes && !req.Effort && squaresOverflow(k, system):
+			// The model's own numbers only: sampled values are at most
+			// one in size. Modes and Effort need the floating-point
+			// system, so they stop with the error instead.
+			r.FloatSkipped = "the model's numbers are too large for floating point (the sum of their squares overflows); scale them for the margin"
 		}
 		if r.FloatSkipped != "" {
 			continue
@@ -641,6 +646,23 @@ func verify(g *structural.Network, req *Request, in, out structural.Design, inW,
 		res.Timings.Modes = time.Since(t0).Seconds()
 	}
 	return nil
+}
+
+// squaresOverflow reports whether the sum of the squares of the entries of
+// k's first system (A and B) overflows float64, so that no floating-point
+// check can run on it.
+func squaresOverflow(k *kind, system func(*kind, int) (*Exact, *Real)) bool {
+	_, re := system(k, 0)
+	var ss float64
+	for _, x := range re.A {
+		ss += x * x
+	}
+	for _, s := range re.B {
+		for _, x := range s {
+			ss += x * x
+		}
+	}
+	return math.IsInf(ss, 0)
 }
 
 // verifyModes analyses the stuck modes of every trial's real system, and
