@@ -104,11 +104,18 @@ func (t *tw) selection(file, device string, s *target.Selection, signals bool) {
 	if !signals && s.CostSaved != 0 {
 		saved = fmt.Sprintf("full control: %s, cost %s; %s saved", count(s.FullControl.Count, device, device+"s"), s.FullControl.Cost, s.CostSaved)
 	}
-	head := fmt.Sprintf("%s: %s %s the %s (%s)", displayFile(file), count(s.Count, what, whats), plural(s.Count, "steers", "steer"), count(k, "target", "targets"), saved)
+	verb := plural(s.Count, "steers", "steer")
+	if !s.Proved {
+		verb = "may steer"
+	}
+	head := fmt.Sprintf("%s: %s %s the %s (%s)", displayFile(file), count(s.Count, what, whats), verb, count(k, "target", "targets"), saved)
 	if !signals {
-		head = fmt.Sprintf("%s: %s %s the %s, cost %s (%s)", displayFile(file), count(s.Count, what, whats), plural(s.Count, "steers", "steer"), count(k, "target", "targets"), s.Cost, saved)
+		head = fmt.Sprintf("%s: %s %s the %s, cost %s (%s)", displayFile(file), count(s.Count, what, whats), verb, count(k, "target", "targets"), s.Cost, saved)
 	}
 	t.p("  ", "%s.", head)
+	if !s.Proved {
+		t.p("  ", "NOT PROVED: the design rests on a linking in the time-expanded network alone (the part acting on the targets is too large to sample); check it with verify --targets, or use full control (%d) where proof is needed.", s.FullControl.Count)
+	}
 	met := s.Count <= s.Lower
 	if !signals {
 		met = s.Cost <= s.LowerCost

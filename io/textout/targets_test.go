@@ -58,4 +58,29 @@ func TestTargetTextLinkingIsNoProof(t *testing.T) {
 	if out := strings.Join(strings.Fields(buf.String()), " "); !strings.Contains(out, "not proved minimal, and the exhaustive search stopped at its work limit") {
 		t.Errorf("selection %q", out)
 	}
+
+	// With no sample allowed, the walk's one-signal design has its linking
+	// alone: Select keeps the proved two-signal design (full control of
+	// the tree) and lists the other as a candidate; a selection that is
+	// not proved says so in its first line.
+	sel, err = target.Select(g, target.SelectRequest{Targets: []int32{1, 3}, Mode: target.Signals, WalkDepth: 4,
+		Limits: target.Limits{MaxSampleStates: -1}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	walk := false
+	for _, c := range sel.Candidates {
+		walk = walk || c.Method == "walk_greedy" && c.Found && c.Count == 1 && c.Proof == "dynamic_linking"
+	}
+	if !sel.Proved || sel.Count != 2 || !walk {
+		t.Errorf("no sample: proved %v, %d signals, candidates %+v", sel.Proved, sel.Count, sel.Candidates)
+	}
+	sel.Proved, sel.Count, sel.Proof = false, 1, "dynamic_linking"
+	buf.Reset()
+	w = newTW(&buf, Options{})
+	w.selection("net.edges", "", sel, true)
+	w.w.Flush()
+	if out := strings.Join(strings.Fields(buf.String()), " "); !strings.Contains(out, "1 independent signal may steer the 2 targets") || !strings.Contains(out, "NOT PROVED") {
+		t.Errorf("unproved selection %q", out)
+	}
 }

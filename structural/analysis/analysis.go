@@ -313,13 +313,13 @@ type PlaceResult struct {
 }
 
 // Succeeds reports whether the placement asked is feasible: the strong one
-// when it was asked.
+// when it was asked; for targets, a design proved to steer them.
 func (r *PlaceResult) Succeeds() bool {
 	if r.Robust != nil {
 		return r.Robust.Feasible
 	}
 	if r.Targets != nil {
-		return r.Targets.Feasible
+		return r.Targets.Feasible && r.Targets.Proved
 	}
 	if r.Strong != nil {
 		return r.Strong.Feasible

@@ -101,11 +101,13 @@ type Selection struct {
 	Mode     Mode                `json:"-"`
 	// Targets echoes the targets, in increasing order.
 	Targets structural.States `json:"targets"`
-	// Feasible reports that a design was found and proved (with Proof
-	// "dynamic_linking", by the linking characterisation only; see
-	// Proof). When false, Unreachable and Bottleneck say why, if a proof
-	// of infeasibility was found.
+	// Feasible reports that a design was found. When false, Unreachable
+	// and Bottleneck say why, if a proof of infeasibility was found.
 	Feasible bool `json:"feasible"`
+	// Proved reports that the design is proved to steer the targets: false
+	// only for Proof "dynamic_linking", a design kept on its linking alone
+	// because nothing proved was found.
+	Proved bool `json:"proved"`
 	// Inputs is the design: one signal per actuator in Actuators mode.
 	Inputs structural.Design `json:"inputs"`
 	// Driven lists the states the design drives; in Actuators mode, the
@@ -121,12 +123,12 @@ type Selection struct {
 	// Lower and LowerCost are proved lower bounds on Count and Cost.
 	Lower     int             `json:"lower_bound"`
 	LowerCost structural.Cost `json:"lower_bound_cost"`
-	// Optimal reports that Count (Signals) or Cost (Actuators) is proved
-	// the least possible: it meets the lower bound, or the exact search
-	// finished with every design it passed over judged (see Stopped), or
-	// the targets hold every state that acts on them (then target control
-	// is full control of that part, solved exactly by Drivers or Place).
-	// When false the design is not proved minimal.
+	// Optimal reports that the design is Proved and that Count (Signals) or
+	// Cost (Actuators) is proved the least possible: it meets the lower
+	// bound, or the exact search finished with every design it passed over
+	// judged (see Stopped), or the targets hold every state that acts on
+	// them (then target control is full control of that part, solved exactly
+	// by Drivers or Place). When false the design is not proved minimal.
 	Optimal bool `json:"optimal"`
 	// Method produced the design; Proof says why it steers the targets:
 	// "ancestor_closed" (full control of the closed part that acts on the
@@ -268,9 +270,15 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	}
 	fits := lim.MaxSampleStates >= 0 && r.n <= lim.MaxSampleStates
 	var best *design
+	// A design proved to steer the targets is preferred to any that rests
+	// on a linking alone, however cheaper: the latter is kept only when
+	// nothing is proved, and is listed among the candidates otherwise.
 	better := func(d *design) bool {
 		if best == nil {
 			return true
+		}
+		if dp, bp := d.proof != linkingOnly, best.proof != linkingOnly; dp != bp {
+			return dp
 		}
 		if mode == Actuators && d.cost != best.cost {
 			return d.cost < best.cost
@@ -387,6 +395,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 
 	sel.Feasible = true
 	sel.Method, sel.Proof = best.method, best.proof
+	sel.Proved = best.proof != linkingOnly
 	sel.Unsure, sel.Stopped = o.unsure, o.stopped
 	if o.draws > 0 {
 		sel.FailureBound = failureBound(r.n)
@@ -407,6 +416,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 	if closed && best.method == "full_control" {
 		sel.Optimal = true // target control of a closed set is full control of it
 	}
+	sel.Optimal = sel.Optimal && sel.Proved // nothing unproved is called optimal
 	if mode == Actuators {
 		added := r.toGlobal(best.added)
 		slices.Sort(added)

@@ -338,3 +338,39 @@ func TestSelectStoppedSearchNotOptimal(t *testing.T) {
 		}
 	}
 }
+
+// A design that rests on a linking alone is never called proved or
+// optimal. Here u -> a, a -> t1, a -> b, b -> t2 with only u allowed: full
+// control of the part acting on the targets needs a second driver (t1 or
+// b, both forbidden), so does any dilation-free stem-cycle cover (a serves
+// t1 or b, not both), while one input at u steers t1 and t2, at distances
+// 2 and 3 (k-walk theory, Gao, Liu, D'Souza & Barabási, Nat. Commun.
+// 5:5415, 2014). With sampling switched off the walk's design {u} has only
+// its linking; that it does steer both is checked by the Kalman rank of
+// C·K on real random parameters (gonum/mat), an independent route.
+func TestSelectLinkingOnlyNotProved(t *testing.T) {
+	g := testnet.Network(t, 5, []testnet.Edge{{0, 1}, {1, 3}, {1, 2}, {2, 4}})
+	dev := structural.Devices{Forbidden: []bool{false, true, true, true, true}}
+	req := SelectRequest{Targets: []int32{3, 4}, Mode: Actuators, Devices: dev, WalkDepth: 4, ExactStates: -1,
+		Limits: Limits{MaxSampleStates: -1}}
+	sel, err := Select(g, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sel.Feasible || sel.Proved || sel.Optimal || sel.Proof != "dynamic_linking" || sel.Added.Len() != 1 || sel.Added.IDs()[0] != 0 {
+		t.Fatalf("feasible %v proved %v optimal %v proof %q added %v; %+v", sel.Feasible, sel.Proved, sel.Optimal, sel.Proof, sel.Added.Names(), sel.Candidates)
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	if r := kalmanTargetRank(t, rng, g, [][]int32{{0}}, []int32{3, 4}); r != 2 {
+		t.Errorf("Kalman rank of C·K for {u}: %d, want 2", r)
+	}
+
+	// With sampling on, the same design is proved by a sample.
+	req.Limits = Limits{}
+	if sel, err = Select(g, req); err != nil {
+		t.Fatal(err)
+	}
+	if !sel.Proved || sel.Proof == "dynamic_linking" || sel.Added.Len() != 1 {
+		t.Errorf("sampling on: proved %v, proof %q, added %v", sel.Proved, sel.Proof, sel.Added.Names())
+	}
+}

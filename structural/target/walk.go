@@ -9,6 +9,10 @@ import (
 	"github.com/netsteer/netsteer/structural"
 )
 
+// linkingOnly is the proof of a design that rests on a linking in the
+// dynamic graph alone (see Selection.Proof).
+const linkingOnly = "dynamic_linking"
+
 // walkGreedy builds, from the targets backwards, one walk per target such
 // that no two walks are at the same state at the same depth, and ends each
 // walk on a driver: a linking of size |T| in the dynamic graph, which by
@@ -161,7 +165,7 @@ func walkGreedy(r *region, mode Mode, maxDepth int) (*design, bool) {
 		drivers = append(drivers, s)
 	}
 	slices.Sort(drivers)
-	d := &design{method: "walk_greedy", proof: "dynamic_linking"}
+	d := &design{method: "walk_greedy", proof: linkingOnly}
 	if mode == Actuators {
 		for _, s := range drivers {
 			if !r.dev.Has(s) {
