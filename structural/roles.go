@@ -253,18 +253,7 @@ func (r *NodeRoles) With(role Role) States {
 }
 
 // MarshalJSON writes an object mapping each role to its states' names.
-func (r *NodeRoles) MarshalJSON() ([]byte, error) {
-	b := []byte{'{'}
-	for i, role := range NodeRoleOrder {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = AppendJSONString(b, role.String())
-		b = append(b, ':')
-		b = r.With(role).AppendJSON(b)
-	}
-	return append(b, '}'), nil
-}
+func (r *NodeRoles) MarshalJSON() ([]byte, error) { return marshalVia(r) }
 
 // Edge is an edge u -> v of a network.
 type Edge struct{ From, To int32 }
@@ -296,29 +285,4 @@ func (r *LinkRoles) Role(u, v int32) (Role, bool) {
 
 // MarshalJSON writes an object mapping each role to its edges, each as a
 // [source, target] pair of names.
-func (r *LinkRoles) MarshalJSON() ([]byte, error) {
-	g := r.g
-	b := []byte{'{'}
-	var name []byte
-	for i, role := range LinkRoleOrder {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = AppendJSONString(b, role.String())
-		b = append(b, ':', '[')
-		for k, e := range r.With(role) {
-			if k > 0 {
-				b = append(b, ',')
-			}
-			b = append(b, '[')
-			name = g.AppendName(name[:0], e.From)
-			b = AppendJSONString(b, name)
-			b = append(b, ',')
-			name = g.AppendName(name[:0], e.To)
-			b = AppendJSONString(b, name)
-			b = append(b, ']')
-		}
-		b = append(b, ']')
-	}
-	return append(b, '}'), nil
-}
+func (r *LinkRoles) MarshalJSON() ([]byte, error) { return marshalVia(r) }

@@ -46,23 +46,7 @@ func (s States) Names() []string {
 
 // MarshalJSON writes the states' names as a JSON array of strings; an
 // empty list is [], never null.
-func (s States) MarshalJSON() ([]byte, error) {
-	return s.AppendJSON(make([]byte, 0, 2+12*len(s.ids))), nil
-}
-
-// AppendJSON appends the JSON array of the states' names to b.
-func (s States) AppendJSON(b []byte) []byte {
-	b = append(b, '[')
-	var name []byte
-	for i, v := range s.ids {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		name = s.names.Append(name[:0], v)
-		b = AppendJSONString(b, name)
-	}
-	return append(b, ']')
-}
+func (s States) MarshalJSON() ([]byte, error) { return marshalVia(s) }
 
 // AppendJSONString appends s as a JSON string, escaped as encoding/json
 // escapes it (HTML characters and U+2028/U+2029 included); invalid UTF-8
@@ -223,16 +207,7 @@ func (d Design) Without(i int) Design {
 
 // MarshalJSON writes the design as an array of signals, each the array of
 // the names of its states.
-func (d Design) MarshalJSON() ([]byte, error) {
-	b := []byte{'['}
-	for i, s := range d.signals {
-		if i > 0 {
-			b = append(b, ',')
-		}
-		b = States{ids: s, names: d.names}.AppendJSON(b)
-	}
-	return append(b, ']'), nil
-}
+func (d Design) MarshalJSON() ([]byte, error) { return marshalVia(d) }
 
 // NameOf returns the name of state v of the list's network (any state,
 // not only the listed ones).

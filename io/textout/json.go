@@ -1,19 +1,23 @@
 package textout
 
 import (
-	"encoding/json"
+	"bufio"
 	"io"
+	"reflect"
 )
 
 // JSON writes v as JSON laid out by IndentJSON, with a final newline:
-// what --format json prints.
+// what --format json prints. It streams (see jsonstream.go): memory stays
+// small whatever the size of the output.
 func JSON(w io.Writer, v any) error {
-	b, err := json.Marshal(v)
-	if err != nil {
-		return err
+	bw := bufio.NewWriterSize(w, 1<<16)
+	e := &encoder{w: &indenter{w: bw}}
+	e.value(reflect.ValueOf(v))
+	if e.err != nil {
+		return e.err
 	}
-	_, err = w.Write(append(IndentJSON(b), '\n'))
-	return err
+	bw.WriteByte('\n')
+	return bw.Flush()
 }
 
 // IndentJSON lays out compact JSON one key per line, two spaces a level,
