@@ -7,8 +7,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"runtime"
+	"slices"
 	"strconv"
 	"strings"
+	"sync"
 
 	"github.com/netsteer/netsteer/io/internal/source"
 	"github.com/netsteer/netsteer/io/netread"
@@ -37,7 +40,9 @@ type Row struct {
 	Isolated bool
 }
 
-// Table is a node table.
+// Table is a node table. Its methods that take a network look each row's
+// name up once per network and keep the result: change Rows only before
+// the first of them, and do not call them from several goroutines at once.
 type Table struct {
 	// File names the table in messages.
 	File string
@@ -52,7 +57,39 @@ type Table struct {
 	Size   int64
 
 	columns map[string]bool
-	index   map[string]int
+	index   rowIndex
+
+	// The state of each row in the network last asked about (-1: none),
+	// so that each name is looked up once per network (bound).
+	boundTo *structural.Network
+	state   []int32
+}
+
+// bound returns the state of each row in g (-1 where g has none), looked
+// up once per network, on all cores.
+func (t *Table) bound(g *structural.Network) []int32 {
+	if t.boundTo == g && len(t.state) == len(t.Rows) {
+		return t.state
+	}
+	st := make([]int32, len(t.Rows))
+	workers := min(runtime.GOMAXPROCS(0), max(len(st)/(1<<14), 1))
+	var wg sync.WaitGroup
+	for w := range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := w * len(st) / workers; i < (w+1)*len(st)/workers; i++ {
+				v, ok := g.Lookup(t.Rows[i].Node)
+				if !ok {
+					v = -1
+				}
+				st[i] = v
+			}
+		}()
+	}
+	wg.Wait()
+	t.boundTo, t.state = g, st
+	return st
 }
 
 // The columns a table may have.
@@ -69,7 +106,7 @@ const (
 	colIsolated     = "isolated"
 )
 
-var knownColumns = []string{colNode, colActuatorCost, colCanActuate, colHasActuator,
+var knownColumns = [...]string{colNode, colActuatorCost, colCanActuate, colHasActuator,
 	colSensorCost, colCanSense, colHasSensor, colGroup, colLabel, colIsolated}
 
 // MaxLineBytes bounds a line of a node table: a file without line breaks
@@ -115,7 +152,7 @@ func read(r io.Reader, file string) (*Table, error) {
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true
-	t := &Table{File: file, columns: map[string]bool{}, index: map[string]int{}}
+	t := &Table{File: file, columns: map[string]bool{}}
 	fail := func(line int, format string, args ...any) error {
 		return &netread.Error{File: file, Line: line, Msg: fmt.Sprintf(format, args...)}
 	}
@@ -141,34 +178,45 @@ func read(r io.Reader, file string) (*Table, error) {
 		return nil, csvErr(err)
 	}
 	headLine, _ := cr.FieldPos(0)
-	// Column positions of the known names, -1 when absent.
-	pos := map[string]int{}
-	for _, c := range knownColumns {
-		pos[c] = -1
+	// Column positions of the known names (by their index in
+	// knownColumns), -1 when absent.
+	var pos [len(knownColumns)]int
+	for i := range pos {
+		pos[i] = -1
 	}
+	col := func(name string) int { return slices.Index(knownColumns[:], name) }
 	width := len(header)
 	for i, h := range header {
 		name := strings.ToLower(strings.TrimSpace(h))
 		if i == 0 {
 			name = strings.TrimPrefix(name, "\ufeff")
 		}
-		p, known := pos[name]
+		k := col(name)
 		switch {
 		case name == "":
 			return nil, fail(headLine, "column %d of the header has no name", i+1)
-		case !known:
+		case k < 0:
 			t.Warnings = append(t.Warnings, fmt.Sprintf("%s:%d: unknown column %q ignored (known: %s)",
-				file, headLine, netread.Clip(h), strings.Join(knownColumns, ", ")))
-		case p >= 0:
+				file, headLine, netread.Clip(h), strings.Join(knownColumns[:], ", ")))
+		case pos[k] >= 0:
 			return nil, fail(headLine, "column %q appears twice", name)
 		default:
-			pos[name] = i
+			pos[k] = i
 			t.columns[name] = true
 		}
 	}
-	if pos[colNode] < 0 {
+	if pos[col(colNode)] < 0 {
 		return nil, fail(headLine, "no %q column in the header", colNode)
 	}
+	p := func(name string) int { return pos[col(name)] }
+	pNode, pGroup, pLabel := p(colNode), p(colGroup), p(colLabel)
+	type costCol struct {
+		name string
+		pos  int
+	}
+	costs := []costCol{{colActuatorCost, p(colActuatorCost)}, {colSensorCost, p(colSensorCost)}}
+	bools := []costCol{{colCanActuate, p(colCanActuate)}, {colHasActuator, p(colHasActuator)}, {colCanSense, p(colCanSense)},
+		{colHasSensor, p(colHasSensor)}, {colIsolated, p(colIsolated)}}
 	for {
 		rec, err := cr.Read()
 		if err == io.EOF {
@@ -181,45 +229,41 @@ func read(r io.Reader, file string) (*Table, error) {
 		if len(rec) > width {
 			return nil, fail(line, "%d fields, but the header names %d columns", len(rec), width)
 		}
-		cell := func(col string) string {
-			if p := pos[col]; p >= 0 && p < len(rec) {
+		cell := func(p int) string {
+			if p >= 0 && p < len(rec) {
 				return strings.TrimSpace(rec[p])
 			}
 			return ""
 		}
 		row := Row{Line: line, ActuatorCost: CostScale, SensorCost: CostScale, CanActuate: true, CanSense: true}
-		row.Node = cell(colNode)
+		row.Node = cell(pNode)
 		if row.Node == "" && blank(rec) {
 			continue
 		}
 		if msg := netread.NameProblem(row.Node); msg != "" {
 			return nil, fail(line, "%s", msg)
 		}
-		if prev, dup := t.index[row.Node]; dup {
+		if prev := t.index.find(t.Rows, row.Node); prev >= 0 {
 			return nil, fail(line, "node %q is already listed on line %d", netread.Clip(row.Node), t.Rows[prev].Line)
 		}
-		for _, c := range []struct {
-			col string
-			dst *int64
-		}{{colActuatorCost, &row.ActuatorCost}, {colSensorCost, &row.SensorCost}} {
-			if s := cell(c.col); s != "" {
+		costDst := [...]*int64{&row.ActuatorCost, &row.SensorCost}
+		boolDst := [...]*bool{&row.CanActuate, &row.HasActuator, &row.CanSense, &row.HasSensor, &row.Isolated}
+		for k, c := range costs {
+			if s := cell(c.pos); s != "" {
 				v, ok := parseCost(s)
 				if !ok {
-					return nil, fail(line, "%s %q: want a number from 0 to 1e9 with at most 3 decimals", c.col, netread.Clip(s))
+					return nil, fail(line, "%s %q: want a number from 0 to 1e9 with at most 3 decimals", c.name, netread.Clip(s))
 				}
-				*c.dst = v
+				*costDst[k] = v
 			}
 		}
-		for _, c := range []struct {
-			col string
-			dst *bool
-		}{{colCanActuate, &row.CanActuate}, {colHasActuator, &row.HasActuator}, {colCanSense, &row.CanSense}, {colHasSensor, &row.HasSensor}, {colIsolated, &row.Isolated}} {
-			if s := cell(c.col); s != "" {
+		for k, c := range bools {
+			if s := cell(c.pos); s != "" {
 				v, ok := parseBool(s)
 				if !ok {
-					return nil, fail(line, "%s %q: want yes or no", c.col, netread.Clip(s))
+					return nil, fail(line, "%s %q: want yes or no", c.name, netread.Clip(s))
 				}
-				*c.dst = v
+				*boolDst[k] = v
 			}
 		}
 		if row.HasActuator && !row.CanActuate {
@@ -228,15 +272,20 @@ func read(r io.Reader, file string) (*Table, error) {
 		if row.HasSensor && !row.CanSense {
 			return nil, fail(line, "node %q: has_sensor is yes but can_sense is no", netread.Clip(row.Node))
 		}
-		row.Group = cell(colGroup)
-		row.Label = cell(colLabel)
+		row.Group = cell(pGroup)
+		row.Label = cell(pLabel)
 		for _, c := range []struct{ col, val string }{{colGroup, row.Group}, {colLabel, row.Label}} {
 			if msg := netread.NameProblem(c.val); c.val != "" && msg != "" {
 				return nil, fail(line, "%s: %s", c.col, strings.Replace(msg, "node name", "value", 1))
 			}
 		}
-		t.index[row.Node] = len(t.Rows)
+		if len(t.Rows) == cap(t.Rows) {
+			// Double: append grows large slices by a quarter, copying a
+			// million rows about five times over.
+			t.Rows = slices.Grow(t.Rows, max(len(t.Rows), 256))
+		}
 		t.Rows = append(t.Rows, row)
+		t.index.add(t.Rows, len(t.Rows)-1)
 	}
 	return t, nil
 }
@@ -338,8 +387,9 @@ func (t *Table) States(all bool) []string {
 // in the isolated column. The message names the row and the nearest names
 // of g (edit distance).
 func (t *Table) Check(g *structural.Network) error {
-	for _, r := range t.Rows {
-		if _, ok := g.Lookup(r.Node); ok {
+	st := t.bound(g)
+	for i, r := range t.Rows {
+		if st[i] >= 0 {
 			continue
 		}
 		msg := fmt.Sprintf("node %q is in no edge of the network", netread.Clip(r.Node))
@@ -431,8 +481,8 @@ func editDistance(a, b string, limit int, prev, row []int) int {
 
 // Lookup returns the row of the named state.
 func (t *Table) Lookup(name string) (*Row, bool) {
-	i, ok := t.index[name]
-	if !ok {
+	i := t.index.find(t.Rows, name)
+	if i < 0 {
 		return nil, false
 	}
 	return &t.Rows[i], true
@@ -444,9 +494,10 @@ func (t *Table) Lookup(name string) (*Row, bool) {
 func (t *Table) Isolated(g *structural.Network) []string {
 	var out []string
 	isolated := 0
-	for _, r := range t.Rows {
-		v, ok := g.Lookup(r.Node)
-		if !ok {
+	st := t.bound(g)
+	for i, r := range t.Rows {
+		v := st[i]
+		if v < 0 {
 			continue
 		}
 		linked := false
@@ -493,9 +544,10 @@ func (t *Table) devices(g *structural.Network, get func(*Row) (int64, bool, bool
 	for v := range d.Cost {
 		d.Cost[v] = CostScale
 	}
+	st := t.bound(g)
 	for i := range t.Rows {
-		v, ok := g.Lookup(t.Rows[i].Node)
-		if !ok {
+		v := st[i]
+		if v < 0 {
 			continue
 		}
 		c, can, has := get(&t.Rows[i])
@@ -531,10 +583,17 @@ func (t *Table) Labels(g *structural.Network, fileLabels, fileGroups []string) (
 		if t == nil {
 			return out
 		}
+		var st []int32
 		for i := range t.Rows {
 			r := &t.Rows[i]
-			v, ok := g.Lookup(r.Node)
-			if col(r) == "" || !ok {
+			if col(r) == "" {
+				continue
+			}
+			if st == nil {
+				st = t.bound(g)
+			}
+			v := st[i]
+			if v < 0 {
 				continue
 			}
 			if !copied {
