@@ -170,3 +170,32 @@ func TestIsolatedSummarised(t *testing.T) {
 		t.Errorf("last warning %q, want %q", w[len(w)-1], want)
 	}
 }
+
+// Every row of a long table is found by name (through index growth), and
+// a duplicate far from its first row is caught with both lines.
+func TestLookupManyRows(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("node,actuator_cost\n")
+	const n = 5000
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&b, "s%d,%d\n", i, i%7)
+	}
+	tab, err := Read(strings.NewReader(b.String()), "t.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := 0; i < n; i++ {
+		r, ok := tab.Lookup(fmt.Sprintf("s%d", i))
+		if !ok || r.Line != i+2 || r.ActuatorCost != int64(i%7)*CostScale {
+			t.Fatalf("s%d: %+v, %v", i, r, ok)
+		}
+	}
+	if _, ok := tab.Lookup("s5000"); ok {
+		t.Error("s5000 found")
+	}
+	b.WriteString("s17,1\n")
+	_, err = Read(strings.NewReader(b.String()), "t.csv")
+	if err == nil || err.Error() != `t.csv:5002: node "s17" is already listed on line 19` {
+		t.Errorf("duplicate: %v", err)
+	}
+}
