@@ -65,11 +65,12 @@ func (b *Interner) Release() {
 	b.denseShared.Store(nil)
 }
 
-// Seal completes the table's own hash index and returns the table, which
-// is read-only from then on. It may run on another goroutine than Release.
+// Seal returns the table, which is read-only from then on; names added
+// without the hash index are indexed on the table's first Lookup. It may
+// run on another goroutine than Release.
 func (b *Interner) Seal() *Table {
 	if b.unindexed {
-		b.t.reindex()
+		b.t.stale = true
 		b.unindexed = false
 	}
 	return b.t

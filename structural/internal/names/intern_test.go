@@ -3,6 +3,7 @@ package names
 import (
 	"math/rand/v2"
 	"strconv"
+	"sync"
 	"testing"
 )
 
@@ -123,4 +124,36 @@ func TestInternNewIntsWithLookups(t *testing.T) {
 			t.Fatalf("after: LookupInt(%d) = %d, %v", v, s, ok)
 		}
 	}
+}
+
+// A sealed table whose names were added without its hash index indexes
+// them on the first Lookup, once, even when several goroutines look names
+// up at the same time (run with -race).
+func TestSealedLookupConcurrent(t *testing.T) {
+	b := NewInterner()
+	vs := make([]uint32, 5000)
+	for i := range vs {
+		vs[i] = uint32(3*i + 1)
+	}
+	if err := b.InternNewInts(vs); err != nil {
+		t.Fatal(err)
+	}
+	tab := b.Seal()
+	var wg sync.WaitGroup
+	for w := 0; w < 4; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := w; i < len(vs); i += 4 {
+				if s, ok := tab.Lookup(strconv.Itoa(3*i + 1)); !ok || s != int32(i) {
+					t.Errorf("Lookup(%d) = %d, %v; want %d", 3*i+1, s, ok, i)
+					return
+				}
+			}
+			if _, ok := tab.Lookup("2"); ok {
+				t.Error("Lookup(2) found a state")
+			}
+		}()
+	}
+	wg.Wait()
 }

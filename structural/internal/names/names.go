@@ -3,6 +3,7 @@ package names
 import (
 	"hash/maphash"
 	"strconv"
+	"sync"
 
 	"github.com/netsteer/netsteer/matching/bigmem"
 )
@@ -19,6 +20,12 @@ type Table struct {
 	n     int
 	base  int // for integer tables (arena == nil)
 	ints  bool
+
+	// stale says the hash index lacks names added without it; the first
+	// Lookup after sealing rebuilds it (once: many questions never look a
+	// name up, and the rebuild costs a pass over every name).
+	stale     bool
+	indexOnce sync.Once
 }
 
 // Ints returns a table naming n states by the integers base..base+n-1.
@@ -58,6 +65,9 @@ func (t *Table) Lookup(name string) (int32, bool) {
 			return -1, false
 		}
 		return int32(v - t.base), true
+	}
+	if t.stale {
+		t.indexOnce.Do(t.reindex)
 	}
 	if len(t.table) == 0 {
 		return -1, false
