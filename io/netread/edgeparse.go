@@ -143,8 +143,11 @@ func readRows(r *bufio.Reader, file string, b *structural.Builder, lf *lineForma
 		free <- newBlock(b)
 	}
 	// Integer names are numbered in parallel at the end (intnumber.go)
-	// while every block holds only them.
-	col := intCollector{on: intNumbering && b.States() == 0}
+	// while every block holds only them: plain edge lists only (a table's
+	// rows are checked for their fields by mergeBlock), and not when a
+	// second read looks for the line of an edge (Options.locate), which
+	// mergeBlock counts.
+	col := intCollector{on: intNumbering && b.States() == 0 && lf.plain && hd.locate == 0}
 	var collecting atomic.Bool
 	collecting.Store(col.on)
 	for i := 0; i < workers; i++ {

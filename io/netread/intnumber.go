@@ -28,7 +28,10 @@ import (
 // The first block holding anything else (a name that is not a canonical
 // decimal, an error, a failed read) ends the collection: the runs so far
 // are numbered the same way and the rest of the input goes through
-// mergeBlock, so the network is the one mergeBlock alone builds. Values
+// mergeBlock, so the network is the one mergeBlock alone builds. Tables
+// (Columns, Separator) and the second read that finds an edge's line
+// (Options.locate) are never collected: the checks mergeBlock makes there
+// need it to see every row. Values
 // are indexed by an array of 4 bytes per value, allowed only while the
 // largest value is below two per record read (edge or single name) plus
 // 2^20 (at most 8 bytes per edge); beyond it (sparse large identifiers)

@@ -3,6 +3,7 @@ package netread
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -224,5 +225,47 @@ func TestWeightOverflowLine(t *testing.T) {
 		if !errors.As(err, &e) || e.Line != 0 {
 			t.Errorf("%s from a stream: got %v, want no line", c.name, err)
 		}
+	}
+}
+
+// The checks the in-order reader makes hold for integer-named input of
+// many blocks too (parsed and numbered in parallel): a weight overflow is
+// found at its line, a table whose rows all have one field is refused,
+// and one whose single-field rows follow its edges is read.
+func TestIntegerBlocksKeepChecks(t *testing.T) {
+	defer func(b, w int) { blockBytes, parseWorkers = b, w }(blockBytes, parseWorkers)
+	blockBytes, parseWorkers = 300, 2
+	var sb strings.Builder
+	for i := 0; i < 2000; i++ {
+		fmt.Fprintf(&sb, "%d %d\n", i, i+1)
+	}
+	sb.WriteString("5 6 1e308\n5 6 1e308\n")
+	path := filepath.Join(t.TempDir(), "big.edges")
+	if err := os.WriteFile(path, []byte(sb.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var e *Error
+	if _, err := ReadFile(path, Options{Weights: true}); !errors.As(err, &e) || e.Line != 2002 {
+		t.Errorf("weight overflow: got %v, want line 2002", err)
+	}
+
+	var iso strings.Builder
+	for i := 0; i < 3000; i++ {
+		fmt.Fprintf(&iso, "%d\n", i)
+	}
+	cols := Options{Columns: &Columns{Positions: []int{1, 2}}}
+	if _, err := readWith([]byte(iso.String()), 300, 2, cols); !errors.As(err, &e) || e.Line != 1 {
+		t.Errorf("single-field table: got %v, want a refusal at line 1", err)
+	}
+	var mixed strings.Builder
+	for i := 0; i < 500; i++ {
+		fmt.Fprintf(&mixed, "%d,%d\n", i, i+1)
+	}
+	for i := 0; i < 50; i++ {
+		fmt.Fprintf(&mixed, "lone%d\n", i)
+	}
+	g, err := readWith([]byte(mixed.String()), 300, 2, Options{Separator: Comma})
+	if err != nil || g.Edges() != 500 || g.N() != 551 {
+		t.Errorf("edges then single names: %v, want 500 edges and 551 states", err)
 	}
 }
