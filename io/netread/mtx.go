@@ -5,7 +5,6 @@ import (
 	"bytes"
 	"io"
 	"math"
-	"slices"
 	"strconv"
 
 	"github.com/netsteer/netsteer/structural"
@@ -40,6 +39,7 @@ type mtxHeader struct {
 	// (see mtxNamesMarker), nil when the file has none; namesLine is the
 	// line of the marker.
 	names     []string
+	nameLines []int32 // the line of each name
 	namesLine int
 }
 
@@ -96,13 +96,28 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 		for i, name := range h.names {
 			v, err := b.Intern([]byte(name))
 			if err != nil {
-				return nil, errorf(file, h.namesLine, "%s", trimStructural(err.Error()))
+				return nil, errorf(file, int(h.nameLines[i]), "%s", trimStructural(err.Error()))
 			}
 			if int(v) != i {
-				return nil, errorf(file, h.namesLine, "state name %q is given to states %d and %d", clip([]byte(name)), v+1, i+1)
+				return nil, errorf(file, int(h.nameLines[i]), "state name %q is given to states %d and %d", clip([]byte(name)), v+1, i+1)
 			}
 		}
 	}
+	// Which extra states are among the names: one pass, then the names
+	// are only in the Builder.
+	named := h.names != nil
+	extra := map[string]bool{}
+	if named && len(opt.States) > 0 {
+		for _, s := range opt.States {
+			extra[s] = false
+		}
+		for _, name := range h.names {
+			if _, ok := extra[name]; ok {
+				extra[name] = true
+			}
+		}
+	}
+	h.names, h.nameLines = nil, nil
 	expanded := h.symmetry != "general"
 	reserve := h.nnz
 	if expanded && reserve < math.MaxInt64/2 {
@@ -190,8 +205,8 @@ func readMatrixMarket(r *bufio.Reader, file string, opt Options) (*parsed, error
 		return nil, errorf(file, h.sizeLine, "%d states for %d entries: more than %d, which the entries can justify", h.n, count, maxStatesFor(count))
 	}
 	for _, s := range opt.States {
-		if h.names != nil {
-			if !slices.Contains(h.names, s) {
+		if named {
+			if !extra[s] {
 				return nil, &Error{File: file, Msg: "extra state " + strconv.Quote(clip([]byte(s))) + " is not one of the state names of the file"}
 			}
 			continue
@@ -259,6 +274,7 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 		return h, errorf(file, lr.line, "symmetry %q is not supported; want general, symmetric or skew-symmetric", clip(f[4]))
 	}
 	// Comments, then the size line.
+	ended := false // the list of state names has ended
 	for {
 		line, err = lr.next()
 		if err == io.EOF {
@@ -276,10 +292,10 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 			h.namesLine, h.names = lr.line, []string{}
 		case h.namesLine > 0 && h.names != nil && k > 0:
 			if !bytes.HasPrefix(bytes.TrimSpace(line), []byte("% state ")) && len(h.names) > 0 {
-				h.names = append(h.names, "") // the list has ended: closed below
+				ended = true // any other comment ends the list
 				continue
 			}
-			if len(h.names) > 0 && h.names[len(h.names)-1] == "" {
+			if ended {
 				return h, errorf(file, lr.line, "state name line after the list of names ended")
 			}
 			name, msg := mtxNameLine(line, len(h.names)+1)
@@ -287,10 +303,8 @@ func readMTXHeader(lr *lineReader) (mtxHeader, error) {
 				return h, errorf(file, lr.line, "%s", msg)
 			}
 			h.names = append(h.names, name)
+			h.nameLines = append(h.nameLines, int32(min(lr.line, math.MaxInt32)))
 		}
-	}
-	if len(h.names) > 0 && h.names[len(h.names)-1] == "" {
-		h.names = h.names[:len(h.names)-1]
 	}
 	h.sizeLine = lr.line
 	if k != 3 {

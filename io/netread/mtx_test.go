@@ -86,9 +86,11 @@ func TestMatrixMarket(t *testing.T) {
 		// The state names netsteer's writer records come back.
 		{name: "names", in: gen + "% entry (i, j): state j acts on state i\n% state names: state I is the I-th row and column\n% state 1 pump\n% state 2 \"drum level\"\n% state 3 7\n% other\n3 3 2\n2 1\n3 2\n",
 			opt: Options{States: []string{"7"}}, edges: []string{"pump>drum level", "drum level>7"}, nodes: []string{"7", "drum level", "pump"}},
+		{name: "names, then comments", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n% state 2 b\n% one\n% two\n2 2 1\n2 1\n",
+			edges: []string{"a>b"}, nodes: []string{"a", "b"}},
 		{name: "names too few", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n3 3 1\n1 2\n", line: 2, err: "1 state names for the 3 states of the size line (line 4)"},
 		{name: "names out of order", in: gen + "% state names: state I is the I-th row and column\n% state 2 a\n2 2 1\n1 2\n", line: 3, err: "want state 1 (the names go in order)"},
-		{name: "names twice", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n% state 2 a\n2 2 1\n1 2\n", line: 2, err: "state name \"a\" is given to states 1 and 2"},
+		{name: "names twice", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n% state 2 a\n2 2 1\n1 2\n", line: 4, err: "state name \"a\" is given to states 1 and 2"},
 		{name: "names two fields", in: gen + "% state names: state I is the I-th row and column\n% state 1 a b\n1 1 0\n", line: 3, err: "want one name"},
 		{name: "names after the end", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n% x\n% state 2 b\n2 2 0\n", line: 5, err: "after the list of names ended"},
 		{name: "names extra state", in: gen + "% state names: state I is the I-th row and column\n% state 1 a\n1 1 0\n", opt: Options{States: []string{"1"}}, err: "not one of the state names"},
