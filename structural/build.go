@@ -136,6 +136,7 @@ func (b *Builder) InternInt(v uint32) (int32, error) { return b.names.InternInt(
 // vs, in order, as InternInt of each in turn would, for a reader that
 // numbers integer names in bulk: the first gets state States(). None may
 // be interned yet and no two may be equal; each must be below 2^31-1.
+// After an error the Builder must not be used.
 func (b *Builder) InternNewInts(vs []uint32) error { return b.names.InternNewInts(vs) }
 
 // LookupInt returns the state named by the canonical decimal form of v if
@@ -165,7 +166,8 @@ func (b *Builder) AddEdge(u, v int32) {
 }
 
 // AddWeightedEdge records u -> v with weight w. Once a weighted edge is
-// added, every edge carries a weight (1 for those added without).
+// added, every edge carries a weight (1 for those added without). Build
+// refuses a weight, or a sum of repeated entries, that is not finite.
 func (b *Builder) AddWeightedEdge(u, v int32, w float64) {
 	if !b.weighted {
 		b.weighted = true
@@ -191,7 +193,9 @@ func ones(n, c int) []float64 {
 	return w
 }
 
-// Build returns the Network. The Builder must not be used afterwards.
+// Build returns the Network. The Builder must not be used afterwards. It
+// fails with ErrEmpty for no states and with a *WeightError when the
+// weights of an edge (repeated entries add up) are not a finite sum.
 func (b *Builder) Build(opt BuildOptions) (*Network, error) {
 	n := b.names.Len()
 	if n == 0 {
