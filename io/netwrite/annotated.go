@@ -2,6 +2,7 @@ package netwrite
 
 import (
 	"bufio"
+	"encoding/json"
 	"encoding/xml"
 	"fmt"
 	"io"
@@ -186,6 +187,17 @@ func escape(s string) string {
 	return string(b)
 }
 
+// jsonLiteral reports whether v can be written as a JSON value as it is:
+// true, false, or a finite number in JSON's syntax (a value that is not,
+// such as NaN, is written as a string instead).
+func jsonLiteral(v string) bool {
+	if v == "true" || v == "false" {
+		return true
+	}
+	f, err := strconv.ParseFloat(v, 64)
+	return err == nil && !math.IsInf(f, 0) && json.Valid([]byte(v))
+}
+
 // WriteNodeLink writes a as node-link JSON, the form networkx's
 // node_link_data writes and node_link_graph reads: {"directed": true,
 // "multigraph": false, "graph": {...}, "nodes": [{"id": NAME, attributes},
@@ -205,7 +217,7 @@ func WriteNodeLink(w io.Writer, a *Annotated) error {
 		}
 		bw.Write(structural.AppendJSONString(nil, g.Name))
 		bw.WriteString(": ")
-		if g.Type == String {
+		if g.Type == String || !jsonLiteral(g.Value) {
 			bw.Write(structural.AppendJSONString(nil, g.Value))
 		} else {
 			bw.WriteString(g.Value) // true, false or a number

@@ -253,7 +253,8 @@ func TestAnnotatedGraphAttrTypes(t *testing.T) {
 		t.Fatal(err)
 	}
 	a := netwrite.FromCheck(r)
-	a.Graph = append(a.Graph, netwrite.Attr{Name: "total_cost", Type: netwrite.Double, Value: structural.Cost(2500).String()})
+	a.Graph = append(a.Graph, netwrite.Attr{Name: "total_cost", Type: netwrite.Double, Value: structural.Cost(2500).String()},
+		netwrite.Attr{Name: "bad", Type: netwrite.Double, Value: "NaN"}, netwrite.Attr{Name: "empty", Type: netwrite.Int, Value: ""})
 	var b bytes.Buffer
 	if err := netwrite.WriteNodeLink(&b, a); err != nil {
 		t.Fatal(err)
@@ -274,6 +275,10 @@ func TestAnnotatedGraphAttrTypes(t *testing.T) {
 	}
 	if v, ok := nl.Graph["total_cost"].(float64); !ok || v != 2.5 {
 		t.Errorf("JSON total_cost = %#v, want the number 2.5", nl.Graph["total_cost"])
+	}
+	// A value its type cannot write in JSON stays valid JSON, as a string.
+	if nl.Graph["bad"] != "NaN" || nl.Graph["empty"] != "" {
+		t.Errorf("JSON bad = %#v, empty = %#v, want the strings", nl.Graph["bad"], nl.Graph["empty"])
 	}
 	if _, ok := nl.Graph["question"].(string); !ok {
 		t.Errorf("JSON question = %#v, want a string", nl.Graph["question"])
