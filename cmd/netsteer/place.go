@@ -56,7 +56,8 @@ failures".
 full control (see "netsteer help drivers").
 
 When no placement the node table allows can succeed, the exit status is 1
-and the output names the states or components that block.
+and the output names the states or components that block; with --targets,
+also when the design found is not proved to steer the targets.
 
 Example:
   netsteer %[1]s testdata/plant/heating.edges

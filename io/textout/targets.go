@@ -101,7 +101,10 @@ func (t *tw) selection(file, device string, s *target.Selection, signals bool) {
 		return
 	}
 	saved := fmt.Sprintf("full control needs %d: %d fewer", s.FullControl.Count, s.SignalsSaved)
-	if !signals && s.CostSaved != 0 {
+	switch {
+	case !s.FullControl.Feasible:
+		saved = "full control is impossible with the devices allowed"
+	case !signals && s.CostSaved != 0:
 		saved = fmt.Sprintf("full control: %s, cost %s; %s saved", count(s.FullControl.Count, device, device+"s"), s.FullControl.Cost, s.CostSaved)
 	}
 	verb := plural(s.Count, "steers", "steer")
@@ -114,7 +117,11 @@ func (t *tw) selection(file, device string, s *target.Selection, signals bool) {
 	}
 	t.p("  ", "%s.", head)
 	if !s.Proved {
-		t.p("  ", "NOT PROVED: the design rests on a linking in the time-expanded network alone (the part acting on the targets is too large to sample); check it with verify --targets, or use full control (%d) where proof is needed.", s.FullControl.Count)
+		alt := "full control is impossible with the devices allowed"
+		if s.FullControl.Feasible {
+			alt = fmt.Sprintf("where proof is needed, full control (%d) is proved", s.FullControl.Count)
+		}
+		t.p("  ", "NOT PROVED: the design rests on a linking in the time-expanded network alone (no sample of it finished within the size and work limits); judge it with check --targets and --inputs; %s.", alt)
 	}
 	met := s.Count <= s.Lower
 	if !signals {

@@ -75,12 +75,12 @@ func TestTargetTextLinkingIsNoProof(t *testing.T) {
 	if !sel.Proved || sel.Count != 2 || !walk {
 		t.Errorf("no sample: proved %v, %d signals, candidates %+v", sel.Proved, sel.Count, sel.Candidates)
 	}
-	sel.Proved, sel.Count, sel.Proof = false, 1, "dynamic_linking"
+	sel.Proved, sel.Count, sel.Proof, sel.Optimal = false, 1, "dynamic_linking", false
 	buf.Reset()
 	w = newTW(&buf, Options{})
 	w.selection("net.edges", "", sel, true)
 	w.w.Flush()
-	if out := strings.Join(strings.Fields(buf.String()), " "); !strings.Contains(out, "1 independent signal may steer the 2 targets") || !strings.Contains(out, "NOT PROVED") {
+	if out := strings.Join(strings.Fields(buf.String()), " "); !strings.Contains(out, "1 independent signal may steer the 2 targets") || !strings.Contains(out, "NOT PROVED") || strings.Contains(out, "Optimal:") {
 		t.Errorf("unproved selection %q", out)
 	}
 }

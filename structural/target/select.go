@@ -189,9 +189,9 @@ type Selection struct {
 //     the exact answer (and with every state a target, today's answer);
 //   - the stem–cycle cover (see stemCycleCover), proved by Lin's theorem
 //     on a subnetwork;
-//   - the walk greedy after Gao et al. 2014 (see walkGreedy), proved by
-//     the dynamic-graph linking and, where the region fits the sample
-//     limit, confirmed on a sample;
+//   - the walk greedy after Gao et al. 2014 (see walkGreedy), suggested
+//     by a dynamic-graph linking and proved only when a sample of the
+//     part it reaches confirms it;
 //   - up to the exact limits, a branch-and-bound search over the designs
 //     (Actuators: sets of new devices by cost; Signals: the fewest k such
 //     that k signals driving every state of R steer the targets, since
@@ -318,7 +318,9 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 		note := ""
 		if !ok {
 			note = "a walk met no allowed state"
-		} else if fits {
+		} else if lim.MaxSampleStates >= 0 {
+			// Judged on the part the design reaches, which can fit a
+			// sample where the whole region does not.
 			switch o.judgeWithin(d.signals, confirmWork) {
 			case proved:
 				d.proof = "sampled_rank"
@@ -334,9 +336,10 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 		}
 		consider("walk_greedy", d, ok, note)
 	}
-	if best == nil && fits && mode == Actuators {
+	if (best == nil || best.proof == linkingOnly) && fits && mode == Actuators {
 		// Every allowed state driven: the most any design can do. A sample
-		// proves it (then the pruning below thins it), a bound refutes it.
+		// proves it (then the pruning below thins it), a bound refutes it;
+		// also tried when the best so far rests on a linking alone.
 		var all []int32
 		for v := int32(0); int(v) < r.n; v++ {
 			if r.dev.Allowed(v) && !r.dev.Has(v) {
@@ -353,6 +356,7 @@ func Select(g *structural.Network, req SelectRequest) (*Selection, error) {
 		case refuted:
 			consider("all_allowed", nil, false, "a proved upper bound refutes even every allowed state driven")
 			sel.Infeasible = true
+			best = nil // an unproved design cannot do better than all of them
 		default:
 			consider("all_allowed", nil, false, "neither proved nor refuted")
 		}

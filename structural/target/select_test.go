@@ -374,3 +374,30 @@ func TestSelectLinkingOnlyNotProved(t *testing.T) {
 		t.Errorf("sampling on: proved %v, proof %q, added %v", sel.Proved, sel.Proof, sel.Added.Names())
 	}
 }
+
+// A region too large to sample whole can hold a design whose own part is
+// small: 2100 sources feed u, and u -> a -> t1, a -> b -> t2 with only u
+// allowed (as in TestSelectLinkingOnlyNotProved). The walk's design {u}
+// reaches 5 states, where a sample proves it (k-walk theory, Gao, Liu,
+// D'Souza & Barabási, Nat. Commun. 5:5415, 2014: distances 2 and 3).
+func TestSelectProvesSmallPartOfLargeRegion(t *testing.T) {
+	const k = 2100
+	u, a, t1, b, t2 := int32(k), int32(k+1), int32(k+2), int32(k+3), int32(k+4)
+	var es []testnet.Edge
+	for x := int32(0); x < k; x++ {
+		es = append(es, testnet.Edge{x, u})
+	}
+	es = append(es, testnet.Edge{u, a}, testnet.Edge{a, t1}, testnet.Edge{a, b}, testnet.Edge{b, t2})
+	g := testnet.Network(t, k+5, es)
+	forbidden := make([]bool, k+5)
+	for v := range forbidden {
+		forbidden[v] = int32(v) != u
+	}
+	sel, err := Select(g, SelectRequest{Targets: []int32{t1, t2}, Mode: Actuators, Devices: structural.Devices{Forbidden: forbidden}, WalkDepth: 4})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sel.Feasible || !sel.Proved || sel.Added.Len() != 1 || sel.Added.IDs()[0] != u {
+		t.Fatalf("feasible %v proved %v proof %q added %v; %+v", sel.Feasible, sel.Proved, sel.Proof, sel.Added.Names(), sel.Candidates)
+	}
+}

@@ -15,9 +15,10 @@ const linkingOnly = "dynamic_linking"
 
 // walkGreedy builds, from the targets backwards, one walk per target such
 // that no two walks are at the same state at the same depth, and ends each
-// walk on a driver: a linking of size |T| in the dynamic graph, which by
-// the theorem of Murota & Poljak (1990) means the targets are steered (see
-// dynamicLinking). A driver ends every walk that passes it, each at its
+// walk on a driver: a linking of size |T| in the dynamic graph (see
+// dynamicLinking), which suggests that the targets are steered (the rank
+// equals the largest linking, after Murota & Poljak 1990, is not proved
+// here): the design is proved only when a sample confirms it. A driver ends every walk that passes it, each at its
 // own depth (input copy (driver, depth)), which is where target control
 // saves on full control: one driver can serve many targets.
 //
