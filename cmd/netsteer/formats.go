@@ -19,7 +19,7 @@ type inputFormat struct {
 
 var inputFormats = []inputFormat{
 	{netread.EdgeList, []string{".edges", ".txt", ".tsv", ".csv"}, `one edge per line, "source target [weight]", separated by white space or a comma; # and % start comments; a line with one name declares an isolated state; quote names holding spaces, commas or quotes CSV-style ("feed pump, north"). Also delimited tables (spreadsheet exports): --columns SOURCE,TARGET[,WEIGHT] by header name or 1-based position, --separator comma, tab, semicolon or whitespace (default: detected). Also any extension not listed below.`},
-	{netread.MatrixMarket, []string{".mtx"}, "Matrix Market coordinate (pattern, real or integer; general, symmetric or skew-symmetric): entry (i, j) is the edge j -> i; states are named 1..N."},
+	{netread.MatrixMarket, []string{".mtx"}, "Matrix Market coordinate (pattern, real or integer; general, symmetric or skew-symmetric): entry (i, j) is the edge j -> i; states are named 1..N, or by the \"% state I NAME\" comment lines netsteer writes."},
 	{netread.DOT, []string{".dot", ".gv"}, "a DOT digraph: u -> v, chains, subgraphs, node statements, a weight attribute; an undirected graph's a -- b is a two-way coupling; label and group attributes are kept."},
 	{netread.GraphML, []string{".graphml", ".xml"}, "one <graph>: <node id> names a state, <edge source target> follows edgedefault unless its own directed says otherwise (a graph without edgedefault is refused unless every edge says); data keys named label and group give labels and groups."},
 	{netread.GML, []string{".gml"}, "graph [ directed 1 node [ id 0 label \"pump\" ] edge [ source 0 target 1 ] ], as networkx and igraph write it; without directed 1 the graph is undirected."},

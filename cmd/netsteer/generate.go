@@ -151,6 +151,9 @@ func (n *netOut) check() error {
 	if n.format() == netwrite.MatrixMarket && n.nodeTable != "" {
 		return usagef("--output-node-table goes with an edge list; a Matrix Market file keeps N in its size line")
 	}
+	if err := refuseGzip("--output-node-table", n.nodeTable, "the node table is plain CSV"); err != nil {
+		return err
+	}
 	if nt := n.nodeTablePath(); nt != "" && nt == n.output {
 		return usagef("the node table would overwrite %s", n.output)
 	}

@@ -82,6 +82,9 @@ Example:
 			if err := refuseGzip("-o", *output, "the page is plain HTML, which a browser and --pdf open"); err != nil {
 				return err
 			}
+			if err := refuseGzip("--pdf", *pdf, "Chromium writes the PDF as it is"); err != nil {
+				return err
+			}
 			if *pdf != "" && *output == "-" {
 				return usagef("--pdf prints the page from its file: give -o FILE.html")
 			}
