@@ -49,7 +49,10 @@ func ParseFormat(s string) (Format, error) {
 // the path less its .gz and extension, plus ".nodes.csv" (net.edges.gz ->
 // net.nodes.csv).
 func NodeTablePath(path string) string {
-	base := strings.TrimSuffix(path, ".gz")
+	base := path
+	if strings.HasSuffix(strings.ToLower(base), ".gz") {
+		base = base[:len(base)-3] // as Compressed, in any case
+	}
 	if ext := filepath.Ext(base); ext != "" && !strings.ContainsAny(ext, `/\`) {
 		base = strings.TrimSuffix(base, ext)
 	}

@@ -161,7 +161,7 @@ func TestEdgeWriter(t *testing.T) {
 func TestNodeTablePath(t *testing.T) {
 	for in, want := range map[string]string{
 		"net.edges": "net.nodes.csv", "d/net.edges.gz": "d/net.nodes.csv", "net": "net.nodes.csv",
-		"a.b/net": "a.b/net.nodes.csv", "x.txt": "x.nodes.csv",
+		"a.b/net": "a.b/net.nodes.csv", "x.txt": "x.nodes.csv", "g.edges.GZ": "g.nodes.csv",
 	} {
 		if got := NodeTablePath(in); got != want {
 			t.Errorf("NodeTablePath(%q) = %q, want %q", in, got, want)
