@@ -245,13 +245,22 @@ func inNeighbourCSRT(g *Network, inputs [][]int32) *matching.CSR {
 }
 
 // dilationWitness grows the alternating tree of the first unmatched row of
-// b (states are rows 0..n-1, columns n.. are inputs).
+// b (states are rows 0..n-1, columns n.. are inputs) that has a feed at
+// all, else of the first unmatched row: a state with neither in-neighbour
+// nor signal is reported unreached already, and the tree of a fed one
+// shows the states that share too few feeds, whichever maximum matching
+// was found.
 func dilationWitness(g *Network, b *matching.CSR, m *matching.Matching, n int, design Design) *Dilation {
 	root := int32(-1)
 	for r := 0; r < b.Rows; r++ {
 		if m.RowMate[r] < 0 {
-			root = int32(r)
-			break
+			if root < 0 {
+				root = int32(r)
+			}
+			if b.Ptr[r+1] > b.Ptr[r] {
+				root = int32(r)
+				break
+			}
 		}
 	}
 	rowSeen := make([]bool, b.Rows)
