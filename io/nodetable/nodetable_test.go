@@ -199,3 +199,41 @@ func TestLookupManyRows(t *testing.T) {
 		t.Errorf("duplicate: %v", err)
 	}
 }
+
+// A table of many rows is bound to a network on several goroutines: each
+// row's costs land on its own state (run with -race).
+func TestDevicesManyRows(t *testing.T) {
+	const n = 40000
+	b := structural.NewBuilder()
+	var tb strings.Builder
+	tb.WriteString("node,actuator_cost,can_actuate\n")
+	prev := int32(-1)
+	for i := 0; i < n; i++ {
+		v, _ := b.Intern([]byte(fmt.Sprintf("s%d", i)))
+		if prev >= 0 {
+			b.AddEdge(prev, v)
+		}
+		prev = v
+		// Rows in reverse order, so that row and state numbers differ.
+		j := n - 1 - i
+		fmt.Fprintf(&tb, "s%d,%d,%s\n", j, j%7, map[bool]string{true: "no", false: "yes"}[j%5 == 0])
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tab, err := Read(strings.NewReader(tb.String()), "t.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := tab.Check(g); err != nil {
+		t.Fatal(err)
+	}
+	d := tab.Actuators(g)
+	for i := 0; i < n; i++ {
+		v, _ := g.Lookup(fmt.Sprintf("s%d", i))
+		if d.Cost[v] != structural.Cost(i%7*CostScale) || d.Allowed(v) != (i%5 != 0) {
+			t.Fatalf("s%d: cost %v allowed %v", i, d.Cost[v], d.Allowed(v))
+		}
+	}
+}
