@@ -38,6 +38,9 @@ type Row struct {
 	// Isolated says the state is meant to exist even when no edge of the
 	// network names it (the isolated column).
 	Isolated bool
+	// Target marks a state that must be steerable (observable) in target
+	// control (the target column).
+	Target bool
 }
 
 // Table is a node table. Its methods that take a network look each row's
@@ -104,10 +107,11 @@ const (
 	colGroup        = "group"
 	colLabel        = "label"
 	colIsolated     = "isolated"
+	colTarget       = "target"
 )
 
 var knownColumns = [...]string{colNode, colActuatorCost, colCanActuate, colHasActuator,
-	colSensorCost, colCanSense, colHasSensor, colGroup, colLabel, colIsolated}
+	colSensorCost, colCanSense, colHasSensor, colGroup, colLabel, colIsolated, colTarget}
 
 // MaxLineBytes bounds a line of a node table: a file without line breaks
 // (/dev/zero, say) fails after this many bytes.
@@ -216,7 +220,7 @@ func read(r io.Reader, file string) (*Table, error) {
 	}
 	costs := []costCol{{colActuatorCost, p(colActuatorCost)}, {colSensorCost, p(colSensorCost)}}
 	bools := []costCol{{colCanActuate, p(colCanActuate)}, {colHasActuator, p(colHasActuator)}, {colCanSense, p(colCanSense)},
-		{colHasSensor, p(colHasSensor)}, {colIsolated, p(colIsolated)}}
+		{colHasSensor, p(colHasSensor)}, {colIsolated, p(colIsolated)}, {colTarget, p(colTarget)}}
 	for {
 		rec, err := cr.Read()
 		if err == io.EOF {
@@ -247,7 +251,7 @@ func read(r io.Reader, file string) (*Table, error) {
 			return nil, fail(line, "node %q is already listed on line %d", netread.Clip(row.Node), t.Rows[prev].Line)
 		}
 		costDst := [...]*int64{&row.ActuatorCost, &row.SensorCost}
-		boolDst := [...]*bool{&row.CanActuate, &row.HasActuator, &row.CanSense, &row.HasSensor, &row.Isolated}
+		boolDst := [...]*bool{&row.CanActuate, &row.HasActuator, &row.CanSense, &row.HasSensor, &row.Isolated, &row.Target}
 		for k, c := range costs {
 			if s := cell(c.pos); s != "" {
 				v, ok := parseCost(s)
@@ -525,6 +529,20 @@ func (t *Table) Isolated(g *structural.Network) []string {
 // maxIsolatedNamed bounds the isolated states Isolated names one by one; a
 // generated network's table can list thousands.
 const maxIsolatedNamed = 10
+
+// Targets returns the states of g whose rows say target=yes, in
+// increasing order; rows naming no state of g are skipped.
+func (t *Table) Targets(g *structural.Network) []int32 {
+	st := t.bound(g)
+	var out []int32
+	for i := range t.Rows {
+		if t.Rows[i].Target && st[i] >= 0 {
+			out = append(out, st[i])
+		}
+	}
+	slices.Sort(out)
+	return out
+}
 
 // Actuators returns the actuator facts of the table for the states of g,
 // in CostScale units; states the table does not list cost 1 (CostScale)
