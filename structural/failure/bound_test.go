@@ -35,44 +35,6 @@ func leafNet(t *testing.T, rng *rand.Rand, n int, p float64) *structural.Network
 	return testnet.Network(t, n, es)
 }
 
-// bruteRest is the least cost of the undecided states' devices over every
-// completion of decided (at most maxMult units per state, existing
-// devices kept) that survives the loss of any one device unit, judged by
-// Lin's theorem (survivesBrute); false when none does.
-func bruteRest(m testnet.Masks, g *structural.Network, p structural.Property, dev structural.Devices, decided []int8, maxMult int) (structural.Cost, bool) {
-	n := g.N()
-	mult := make([]int, n)
-	best, ok := structural.Cost(0), false
-	var rec func(v int, c structural.Cost)
-	rec = func(v int, c structural.Cost) {
-		if ok && c >= best {
-			return
-		}
-		if v == n {
-			if survivesBrute(m, g, p, failure.AnyDevice, mult) {
-				best, ok = c, true
-			}
-			return
-		}
-		if decided[v] >= 0 {
-			mult[v] = int(decided[v])
-			rec(v+1, c)
-			return
-		}
-		lo, hi := 0, maxMult
-		if dev.Has(int32(v)) {
-			lo = 1
-		}
-		for k := lo; k <= hi; k++ {
-			mult[v] = k
-			extra := k - lo
-			rec(v+1, c+structural.Cost(extra)*dev.CostOf(int32(v)))
-		}
-	}
-	rec(0, 0)
-	return best, ok
-}
-
 // The lower bounds of the exact search for the device threat (two units
 // in every source component, plus the leaf bound: the states whose only
 // in-neighbour is one same state compete for it) never exceed the least
@@ -126,7 +88,9 @@ func TestDeviceBoundAgainstBruteForce(t *testing.T) {
 				t.Fatalf("trial %d: bounds %v/%v, then %v/%v", trial, leaf, sum, l2, s2)
 			}
 		}
-		opt, ok := bruteRest(testnet.MasksOf(g), g, p, dev, decided, maxMult)
+		// The least cost of the undecided states' devices over every
+		// completion of decided that survives the loss of any one unit.
+		opt, ok := bruteRobust(testnet.MasksOf(g), g, p, failure.AnyDevice, dev, maxMult, nil, decided)
 		if ok {
 			checked++
 			if leaf > opt || sum > opt {

@@ -42,8 +42,9 @@ func survivesBrute(m testnet.Masks, g *structural.Network, p structural.Property
 
 // bruteRobust searches every multiset of devices allowed by dev (at most
 // maxMult per state, existing ones kept) for the cheapest that survives,
-// restricted to multisets at least floor (nil: none).
-func bruteRobust(m testnet.Masks, g *structural.Network, p structural.Property, t failure.Threat, dev structural.Devices, maxMult int, floor []int) (structural.Cost, bool) {
+// restricted to multisets at least floor (nil: none) and, where fixed[v]
+// >= 0 (nil: nowhere), to fixed[v] units on v, which the cost leaves out.
+func bruteRobust(m testnet.Masks, g *structural.Network, p structural.Property, t failure.Threat, dev structural.Devices, maxMult int, floor []int, fixed []int8) (structural.Cost, bool) {
 	n := g.N()
 	mult := make([]int, n)
 	best, ok := structural.Cost(0), false
@@ -56,6 +57,12 @@ func bruteRobust(m testnet.Masks, g *structural.Network, p structural.Property, 
 			if survivesBrute(m, g, p, t, mult) {
 				best, ok = c, true
 			}
+			return
+		}
+		if fixed != nil && fixed[v] >= 0 {
+			mult[v] = int(fixed[v])
+			rec(v+1, c)
+			mult[v] = 0
 			return
 		}
 		lo, hi := 0, maxMult
@@ -127,7 +134,7 @@ func TestRobustAgainstBruteForce(t *testing.T) {
 			dev = testnet.RandomDevices(rng, n, 4, 0.15, 0.15)
 		}
 		m := testnet.MasksOf(g)
-		opt, ok := bruteRobust(m, g, p, threat, dev, maxMult, nil)
+		opt, ok := bruteRobust(m, g, p, threat, dev, maxMult, nil, nil)
 		for _, exactStates := range []int{0, -1} {
 			rp, err := failure.Robust(g, failure.RobustRequest{Property: p, Survive: threat, Devices: dev, Spares: spares, ExactStates: exactStates})
 			if err != nil {
@@ -201,7 +208,7 @@ func TestRobustAgainstBruteForce(t *testing.T) {
 				for _, v := range rp.Step.Base.IDs() {
 					base[v] = 1
 				}
-				add, ok2 := bruteRobust(m, g, p, threat, dev, maxMult, base)
+				add, ok2 := bruteRobust(m, g, p, threat, dev, maxMult, base, nil)
 				s := rp.Step
 				if ok2 {
 					add -= s.BaseCost
@@ -240,7 +247,7 @@ func TestRobustStar(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	opt, _ := bruteRobust(testnet.MasksOf(g), g, structural.Controllability, failure.AnyDevice, structural.Devices{}, 2, nil)
+	opt, _ := bruteRobust(testnet.MasksOf(g), g, structural.Controllability, failure.AnyDevice, structural.Devices{}, 2, nil, nil)
 	if rp.Cost != 6*structural.Unit || opt != rp.Cost || rp.LowerBound != rp.Cost || !rp.Optimal || rp.Spares.Len() != 1 {
 		t.Fatalf("star: %s cost %v bound %v optimal %v spares %v; brute force %v", rp.Method, rp.Cost, rp.LowerBound, rp.Optimal, rp.Spares.IDs(), opt)
 	}
