@@ -125,3 +125,42 @@ func TestOrderedBlocks(t *testing.T) {
 		t.Errorf("err %v after %d writes, want %v after 10", err, writes, boom)
 	}
 }
+
+// AppendJSONString escapes as encoding/json does (HTML escaping on):
+// every single byte, every pair of bytes from a set of awkward ones
+// (quotes, backslash, controls, HTML characters, the bytes of U+2028,
+// U+FFFD and of invalid UTF-8), and random strings built from them.
+func TestAppendJSONStringMatchesEncodingJSON(t *testing.T) {
+	check := func(s string) {
+		t.Helper()
+		want, err := json.Marshal(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := AppendJSONString([]byte("x"), s); !bytes.Equal(got[1:], want) {
+			t.Fatalf("%q: got %s, want %s", s, got[1:], want)
+		}
+		if got := AppendJSONString(nil, []byte(s)); !bytes.Equal(got, want) {
+			t.Fatalf("%q as bytes: got %s, want %s", s, got, want)
+		}
+	}
+	for c := 0; c < 256; c++ {
+		check(string([]byte{byte(c)}))
+		check("ab" + string([]byte{byte(c)}) + "cd")
+	}
+	parts := []string{"a", "\"", "\\", "\n", "\r", "\t", "\x00", "\x1f", "<", ">", "&", "\u2028", "\u2029",
+		"\ufffd", "\xe2\x80", "\xff", "\xc3", "ü", "日本", " ", "\x7f"}
+	for _, a := range parts {
+		for _, b := range parts {
+			check(a + b)
+		}
+	}
+	rng := rand.New(rand.NewPCG(7, 8))
+	for range 2000 {
+		var s string
+		for range rng.IntN(12) {
+			s += parts[rng.IntN(len(parts))]
+		}
+		check(s)
+	}
+}

@@ -54,37 +54,51 @@ func (s States) MarshalJSON() ([]byte, error) { return marshalVia(s) }
 func AppendJSONString[T string | []byte](b []byte, s T) []byte {
 	const hex = "0123456789abcdef"
 	b = append(b, '"')
+	run := 0 // s[run:i] is copied as it is
 	for i := 0; i < len(s); {
 		c := s[i]
-		if c < utf8.RuneSelf {
-			switch {
-			case c == '"' || c == '\\':
-				b = append(b, '\\', c)
-			case c == '\n':
-				b = append(b, '\\', 'n')
-			case c == '\r':
-				b = append(b, '\\', 'r')
-			case c == '\t':
-				b = append(b, '\\', 't')
-			case c < 0x20 || c == '<' || c == '>' || c == '&':
-				b = append(b, '\\', 'u', '0', '0', hex[c>>4], hex[c&0xf])
-			default:
-				b = append(b, c)
-			}
+		if jsonPlain[c] {
 			i++
 			continue
 		}
-		r, size := utf8.DecodeRuneInString(string(s[i:min(i+utf8.UTFMax, len(s))]))
-		switch {
-		case r == utf8.RuneError && size == 1:
-			b = append(b, `\ufffd`...)
-		case r == '\u2028' || r == '\u2029':
-			b = append(b, '\\', 'u', '2', '0', '2', hex[r&0xf])
-		default:
-			b = append(b, s[i:i+size]...)
+		if c >= utf8.RuneSelf {
+			r, size := utf8.DecodeRuneInString(string(s[i:min(i+utf8.UTFMax, len(s))]))
+			invalid := r == utf8.RuneError && size == 1
+			if !invalid && r != '\u2028' && r != '\u2029' {
+				i += size // a rune written as it is
+				continue
+			}
+			b = append(b, s[run:i]...)
+			if invalid {
+				b = append(b, `\ufffd`...)
+			} else {
+				b = append(b, '\\', 'u', '2', '0', '2', hex[r&0xf])
+			}
+			i += size
+			run = i
+			continue
 		}
-		i += size
+		b = append(b, s[run:i]...)
+		switch c {
+		case '"', '\\':
+			b = append(b, '\\', c)
+		case '\b':
+			b = append(b, '\\', 'b')
+		case '\f':
+			b = append(b, '\\', 'f')
+		case '\n':
+			b = append(b, '\\', 'n')
+		case '\r':
+			b = append(b, '\\', 'r')
+		case '\t':
+			b = append(b, '\\', 't')
+		default: // control characters and <, >, &
+			b = append(b, '\\', 'u', '0', '0', hex[c>>4], hex[c&0xf])
+		}
+		i++
+		run = i
 	}
+	b = append(b, s[run:]...)
 	return append(b, '"')
 }
 

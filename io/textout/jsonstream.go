@@ -59,11 +59,11 @@ func (e *encoder) value(v reflect.Value) {
 	// Methods as encoding/json finds them: on the value, or on its address
 	// when it has one.
 	if t.Implements(jsonWriterType) && t.Implements(marshalerType) {
-		e.err = v.Interface().(structural.JSONWriter).WriteJSON(e.w)
+		e.stream(v.Interface().(structural.JSONWriter))
 		return
 	}
 	if t.Kind() != reflect.Pointer && v.CanAddr() && reflect.PointerTo(t).Implements(jsonWriterType) && reflect.PointerTo(t).Implements(marshalerType) {
-		e.err = v.Addr().Interface().(structural.JSONWriter).WriteJSON(e.w)
+		e.stream(v.Addr().Interface().(structural.JSONWriter))
 		return
 	}
 	if t.Implements(marshalerType) || t.Implements(textMarshalerType) ||
@@ -98,6 +98,18 @@ func (e *encoder) value(v reflect.Value) {
 	default:
 		e.marshal(v)
 	}
+}
+
+// stream writes a value that writes itself: laid out by itself, on all
+// cores, when the indenter is between values outside an array of scalars
+// (where the value begins at the indenter's depth), else compact through
+// the indenter.
+func (e *encoder) stream(x structural.JSONWriter) {
+	if d, ok := e.w.(*indenter); ok && d.between() {
+		e.err = x.WriteJSONIndent(d.w, d.depth)
+		return
+	}
+	e.err = x.WriteJSON(e.w)
 }
 
 // marshal writes v by encoding/json, through its address when it has one
@@ -289,6 +301,11 @@ type indenter struct {
 	esc    bool // after a backslash in a string
 	opened byte // '{' or '[' just written, its layout not yet decided
 }
+
+// between reports whether a value written now begins at d.depth, laid
+// out with nothing pending: not inside a string, an array of scalars, or a
+// container whose layout waits on its first element.
+func (d *indenter) between() bool { return !d.inStr && d.flat == 0 && d.opened == 0 }
 
 func (d *indenter) newline() {
 	d.w.WriteByte('\n')

@@ -143,3 +143,65 @@ func TestJSONStreamMatchesMarshal(t *testing.T) {
 		}
 	}
 }
+
+// Values that lay themselves out (structural.JSONWriter) write the bytes
+// IndentJSON gives their compact JSON, at several depths and with many
+// blocks of states and edges formatted on all cores: role lists, states
+// and designs of a network of 40,000 states, a seventh of them with names
+// that need escaping, and empty ones.
+func TestJSONWritersLayOutAsIndentJSON(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 10))
+	const n = 40000
+	b := structural.NewBuilder()
+	id := make([]int32, n)
+	for v := range id {
+		name := fmt.Sprintf("s%d", v)
+		if v%7 == 0 {
+			name = fmt.Sprintf("<q\"%d\\\b\u2028>", v)
+		}
+		id[v], _ = b.Intern([]byte(name))
+	}
+	for e := 0; e < 3*n; e++ {
+		b.AddEdge(id[rng.IntN(n)], id[rng.IntN(n)])
+	}
+	g, err := b.Build(structural.BuildOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := structural.NewDesign(g, [][]int32{id[:3], id[3:4], {}, id[5:9000]}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	empty, err := structural.NewDesign(g, nil, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	type deep struct {
+		Links *structural.LinkRoles `json:"links"`
+		Inner struct {
+			Nodes  *structural.NodeRoles `json:"nodes"`
+			States structural.States     `json:"states"`
+			None   structural.States     `json:"none"`
+		} `json:"inner"`
+	}
+	var v deep
+	v.Links, v.Inner.Nodes = structural.EdgeRoles(g), structural.StateRoles(g)
+	v.Inner.States, v.Inner.None = g.States(id[:20000]), g.States(nil)
+	for k, x := range []any{v.Links, v.Inner.Nodes, v.Inner.States, d, empty, v,
+		struct {
+			D structural.Design `json:"d"`
+		}{d}} {
+		var got bytes.Buffer
+		if err := JSON(&got, x); err != nil {
+			t.Fatal(err)
+		}
+		if want := marshalRoute(t, x); !bytes.Equal(got.Bytes(), want) {
+			i := 0
+			for i < min(got.Len(), len(want)) && got.Bytes()[i] == want[i] {
+				i++
+			}
+			t.Errorf("value %d (%T): %d bytes streamed, %d by IndentJSON; first difference at %d: %q", k, x, got.Len(), len(want), i,
+				got.Bytes()[max(i-40, 0):min(i+40, got.Len())])
+		}
+	}
+}
