@@ -148,18 +148,33 @@ func (f *netFlags) load(path, out string, weights bool, extra ...string) (*input
 		opt.MaxInflateRatio = r
 	}
 	in := &input{path: path, digest: map[string][32]byte{}}
+	// The node table is read while the network is (its isolated states
+	// join the network at the end); its errors come first, as the table
+	// is named first.
+	var table chan struct{}
+	var tableErr error
 	if f.nodeTable != "" {
-		t, err := nodetable.ReadFile(f.nodeTable, nodetable.Options{Stdin: f.e.Stdin})
-		if err != nil {
-			return nil, err
+		table = make(chan struct{})
+		go func() {
+			defer close(table)
+			in.table, tableErr = nodetable.ReadFile(f.nodeTable, nodetable.Options{Stdin: f.e.Stdin})
+		}()
+		opt.StatesFrom = func() ([]string, error) {
+			if <-table; tableErr != nil {
+				return nil, tableErr
+			}
+			return in.table.States(f.allowIsolated), nil
 		}
-		in.table = t
-		opt.States = t.States(f.allowIsolated)
 	}
 	start := time.Now()
 	f.e.status("reading %s", displayFile(path))
 	r, err := netread.ReadFile(path, opt)
 	f.e.status("")
+	if table != nil {
+		if <-table; tableErr != nil {
+			return nil, tableErr
+		}
+	}
 	if err != nil {
 		return nil, err
 	}

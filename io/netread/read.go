@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 
 	"github.com/netsteer/netsteer/io/internal/source"
@@ -100,6 +101,11 @@ type Options struct {
 	// States names extra states that exist even with no edge (from a node
 	// table, say). For Matrix Market files they must be indices 1..N.
 	States []string
+	// StatesFrom, when not nil, gives more such states: it is called once,
+	// after the edges are read (before them for Matrix Market files), so
+	// that a caller can read a node table while the network is read. Its
+	// error is returned as it is.
+	StatesFrom func() ([]string, error)
 	// Columns selects the source, target and weight columns of a
 	// delimited table (edge lists only); nil keeps the plain edge-list
 	// format. See Columns.
@@ -312,6 +318,13 @@ func Read(r io.Reader, file string, opt Options) (*Input, error) {
 	if in.Format != EdgeList && table {
 		return nil, &Error{File: file, Msg: fmt.Sprintf("columns and separators apply to edge lists and tables; this is read as %s", in.Format)}
 	}
+	if in.Format == MatrixMarket && opt.StatesFrom != nil {
+		more, err := opt.StatesFrom()
+		if err != nil {
+			return nil, err
+		}
+		opt.States, opt.StatesFrom = append(slices.Clip(opt.States), more...), nil
+	}
 	var res *parsed
 	switch in.Format {
 	case MatrixMarket:
@@ -370,6 +383,13 @@ func readError(file string, line int, err error) *Error {
 
 // finish adds the extra states and builds the network.
 func finish(b *structural.Builder, file string, opt Options) (*structural.Network, error) {
+	if opt.StatesFrom != nil {
+		more, err := opt.StatesFrom()
+		if err != nil {
+			return nil, err
+		}
+		opt.States = append(slices.Clip(opt.States), more...)
+	}
 	for _, s := range opt.States {
 		if _, err := b.Intern([]byte(s)); err != nil {
 			return nil, &Error{File: file, Msg: trimStructural(err.Error()), Err: err}

@@ -269,3 +269,46 @@ func TestIntegerBlocksKeepChecks(t *testing.T) {
 		t.Errorf("edges then single names: %v, want 500 edges and 551 states", err)
 	}
 }
+
+// StatesFrom adds its states as States does, in every format (after the
+// edges; before them in Matrix Market), and its error comes back as it is.
+func TestStatesFromAsStates(t *testing.T) {
+	gen := "%%MatrixMarket matrix coordinate pattern general\n"
+	for _, c := range []struct{ file, in, extra string }{
+		{"n.edges", "a b\nb c\n", "z"},
+		{"n.edges", "10 20\n20 30\n", "7"},
+		{"n.csv", "a,b\nb,c\n", "z"},
+		{"n.mtx", gen + "4 4 1\n2 1\n", "4"},
+		{"n.dot", "digraph { a -> b }", "z"},
+		{"n.graphml", `<graphml><graph edgedefault="directed"><node id="a"/><node id="b"/><edge source="a" target="b"/></graph></graphml>`, "z"},
+		{"n.gml", "graph [ directed 1 node [ id 1 ] node [ id 2 ] edge [ source 1 target 2 ] ]", "z"},
+		{"n.net", "*Vertices 2\n1 \"a\"\n2 \"b\"\n*Arcs\n1 2\n", "z"},
+		{"n.json", `{"directed": true, "nodes": [{"id": "a"}, {"id": "b"}], "links": [{"source": "a", "target": "b"}]}`, "z"},
+	} {
+		want, err := readNet(strings.NewReader(c.in), c.file, Options{States: []string{c.extra}})
+		if err != nil {
+			t.Fatalf("%s: %v", c.file, err)
+		}
+		calls := 0
+		got, err := readNet(strings.NewReader(c.in), c.file, Options{StatesFrom: func() ([]string, error) {
+			calls++
+			return []string{c.extra}, nil
+		}})
+		if err != nil {
+			t.Fatalf("%s with StatesFrom: %v", c.file, err)
+		}
+		names := func(g *structural.Network) (out []string) {
+			for v := range g.N() {
+				out = append(out, g.Name(int32(v)))
+			}
+			return out
+		}
+		if calls != 1 || strings.Join(names(got), "|") != strings.Join(names(want), "|") {
+			t.Errorf("%s: %d calls, names %q, want one call and %q", c.file, calls, names(got), names(want))
+		}
+		boom := errors.New("the table failed")
+		if _, err := readNet(strings.NewReader(c.in), c.file, Options{StatesFrom: func() ([]string, error) { return nil, boom }}); err != boom {
+			t.Errorf("%s: error %v, want the table's own", c.file, err)
+		}
+	}
+}
