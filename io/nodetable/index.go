@@ -3,11 +3,15 @@ package nodetable
 import "hash/maphash"
 
 // rowIndex finds a table's rows by name: open addressing over row numbers
-// (no string keys of its own, so a million rows cost 8 MB of int32 slots
-// and nothing for the collector to scan), at most half the slots in use.
+// (no string keys of its own, so a million rows cost 16 MB of slots and
+// nothing for the collector to scan), at most half the slots in use. A
+// slot holds the row and the top 32 bits of its name's hash, which place
+// it (its home slot is the top bits of those) and spare almost every
+// comparison of names.
 type rowIndex struct {
 	seed  maphash.Seed
-	slots []int32 // row + 1; 0 is empty
+	slots []uint64 // hash>>32 << 32 | row + 1; 0 is empty
+	shift uint     // 32 - log2(len(slots))
 	n     int
 }
 
@@ -16,14 +20,15 @@ func (x *rowIndex) find(rows []Row, name string) int {
 	if len(x.slots) == 0 {
 		return -1
 	}
+	tag := maphash.String(x.seed, name) >> 32
 	mask := uint64(len(x.slots) - 1)
-	for h := maphash.String(x.seed, name) & mask; ; h = (h + 1) & mask {
+	for h := tag >> x.shift; ; h = (h + 1) & mask {
 		s := x.slots[h]
 		if s == 0 {
 			return -1
 		}
-		if rows[s-1].Node == name {
-			return int(s - 1)
+		if s>>32 == tag && rows[uint32(s)-1].Node == name {
+			return int(uint32(s) - 1)
 		}
 	}
 }
@@ -32,30 +37,39 @@ func (x *rowIndex) find(rows []Row, name string) int {
 // does not know yet.
 func (x *rowIndex) add(rows []Row, i int) {
 	if 2*(x.n+1) > len(x.slots) {
-		x.grow(rows)
+		x.grow()
 	}
-	x.put(rows[i].Node, i)
+	x.put(maphash.String(x.seed, rows[i].Node)>>32<<32 | uint64(i+1))
 	x.n++
 }
 
-func (x *rowIndex) put(name string, i int) {
+// put stores slot value s at the first free slot from its home.
+func (x *rowIndex) put(s uint64) {
 	mask := uint64(len(x.slots) - 1)
-	h := maphash.String(x.seed, name) & mask
+	h := s >> 32 >> x.shift
 	for x.slots[h] != 0 {
 		h = (h + 1) & mask
 	}
-	x.slots[h] = int32(i + 1)
+	x.slots[h] = s
 }
 
-func (x *rowIndex) grow(rows []Row) {
+func (x *rowIndex) grow() {
 	if len(x.slots) == 0 {
 		x.seed = maphash.MakeSeed()
 	}
 	old := x.slots
-	x.slots = make([]int32, max(2*len(old), 64))
+	n := max(2*len(old), 64)
+	if n > 1<<32 {
+		panic("nodetable: more rows than an index can hold")
+	}
+	x.slots = make([]uint64, n)
+	x.shift = 32
+	for m := n; m > 1; m >>= 1 {
+		x.shift--
+	}
 	for _, s := range old {
 		if s != 0 {
-			x.put(rows[s-1].Node, int(s-1))
+			x.put(s)
 		}
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"runtime"
 	"slices"
 	"strconv"
@@ -130,13 +131,22 @@ func ReadFile(path string, opt Options) (*Table, error) {
 		return nil, err
 	}
 	defer f.Close()
-	return Read(f, name)
+	var size int64
+	if file, ok := f.(*os.File); ok {
+		if st, err := file.Stat(); err == nil && st.Mode().IsRegular() {
+			size = st.Size()
+		}
+	}
+	return read0(f, name, size)
 }
 
 // Read reads a node table from r; file names r in messages.
-func Read(r io.Reader, file string) (*Table, error) {
+func Read(r io.Reader, file string) (*Table, error) { return read0(r, file, 0) }
+
+// read0 is Read of a file of size bytes (0: unknown).
+func read0(r io.Reader, file string, size int64) (*Table, error) {
 	d := source.NewDigest(r)
-	t, err := read(d, file)
+	t, err := read(d, file, size)
 	if err != nil {
 		return nil, err
 	}
@@ -147,7 +157,7 @@ func Read(r io.Reader, file string) (*Table, error) {
 	return t, nil
 }
 
-func read(r io.Reader, file string) (*Table, error) {
+func read(r io.Reader, file string, size int64) (*Table, error) {
 	br := bufio.NewReaderSize(source.LineLimit(r, MaxLineBytes), 1<<16)
 	if bom, _ := br.Peek(3); bytes.Equal(bom, []byte{0xEF, 0xBB, 0xBF}) {
 		br.Discard(3)
@@ -285,8 +295,19 @@ func read(r io.Reader, file string) (*Table, error) {
 		}
 		if len(t.Rows) == cap(t.Rows) {
 			// Double: append grows large slices by a quarter, copying a
-			// million rows about five times over.
-			t.Rows = slices.Grow(t.Rows, max(len(t.Rows), 256))
+			// million rows about five times over. At 1,024 rows, a file
+			// of known size grows once to what the rest of it likely
+			// holds at the density so far, but never beyond a row per 4
+			// bytes (a row of distinct names takes more, past the first
+			// few hundred).
+			more := max(len(t.Rows), 256)
+			if n := len(t.Rows); n == 1024 && size > 0 {
+				if at := cr.InputOffset(); at > 0 {
+					est := int64(float64(size)/float64(at)*float64(n)*1.05) + 256
+					more = max(more, int(min(est, size/4+1))-n)
+				}
+			}
+			t.Rows = slices.Grow(t.Rows, more)
 		}
 		t.Rows = append(t.Rows, row)
 		t.index.add(t.Rows, len(t.Rows)-1)

@@ -3,6 +3,7 @@ package nodetable
 import (
 	"errors"
 	"fmt"
+	"os"
 	"strings"
 	"testing"
 
@@ -234,6 +235,43 @@ func TestDevicesManyRows(t *testing.T) {
 		v, _ := g.Lookup(fmt.Sprintf("s%d", i))
 		if d.Cost[v] != structural.Cost(i%7*CostScale) || d.Allowed(v) != (i%5 != 0) {
 			t.Fatalf("s%d: cost %v allowed %v", i, d.Cost[v], d.Allowed(v))
+		}
+	}
+}
+
+// A file of known size read past the first 1,024 rows (where the rows
+// are sized from the density so far) keeps every row, in order, and a
+// capacity within a row per 4 bytes of the file; a comment-heavy tail
+// does not change the rows.
+func TestReadFileManyRows(t *testing.T) {
+	for _, tail := range []string{"", strings.Repeat("# a long comment line that holds no row at all\n", 3000)} {
+		var b strings.Builder
+		b.WriteString("node,actuator_cost\n")
+		const n = 5000
+		for i := range n {
+			fmt.Fprintf(&b, "s%d,%d\n", i, i%1000)
+			if i == 1500 {
+				b.WriteString(tail)
+			}
+		}
+		path := t.TempDir() + "/t.csv"
+		if err := os.WriteFile(path, []byte(b.String()), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		tab, err := ReadFile(path, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(tab.Rows) != n {
+			t.Fatalf("%d rows, want %d", len(tab.Rows), n)
+		}
+		for i, r := range tab.Rows {
+			if r.Node != fmt.Sprintf("s%d", i) || r.ActuatorCost != int64(i%1000)*CostScale {
+				t.Fatalf("row %d: %+v", i, r)
+			}
+		}
+		if c, limit := cap(tab.Rows), b.Len()/4+1+n; c > limit {
+			t.Errorf("capacity %d for %d rows of a %d-byte file", c, n, b.Len())
 		}
 	}
 }
