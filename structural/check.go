@@ -123,8 +123,8 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 		defer close(reachDone)
 		reached, nR = reach(h, inputs)
 	}()
-	b := inNeighbourCSR(h, inputs)
-	m := h.designMatching(inputs, b)
+	var b *matching.CSR // built only when a search or a failure needs it
+	m := h.designMatching(inputs, &b)
 	<-reachDone
 	var unreached []int32
 	if nR < n {
@@ -138,6 +138,9 @@ func Check(g *Network, p Property, d Design) (*Verdict, error) {
 	vd.Unreached = g.States(unreached)
 	vd.TermRank = m.Size
 	vd.from = m.RowMate
+	if (nR < n || m.Size < n) && b == nil {
+		b = inNeighbourCSR(h, inputs)
+	}
 	if m.Size < n {
 		vd.Dilation = dilationWitness(g, b, m, n, d)
 	}

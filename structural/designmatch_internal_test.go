@@ -33,7 +33,8 @@ func TestWarmDesignMatching(t *testing.T) {
 		}
 		csr := inNeighbourCSR(g, signals)
 		cold := matching.Maximum(csr, inNeighbourCSRT(g, signals))
-		warm := warmStart(g, csr)
+		warm := warmStart(g, csr.Cols)
+		matchSignals(warm, n, signals)
 		matching.Augment(csr, inNeighbourCSRT(g, signals), warm)
 		if warm.Size != cold.Size {
 			t.Fatalf("network %d: warm start %d, from nothing %d", it, warm.Size, cold.Size)

@@ -69,11 +69,14 @@ func Dimension(g *Network, p Property, d Design) (int, error) {
 		defer close(reachDone)
 		reached, nR = reach(h, d.signals)
 	}()
-	b := inNeighbourCSR(h, d.signals)
-	m := h.designMatching(d.signals, b)
+	var b *matching.CSR
+	m := h.designMatching(d.signals, &b)
 	<-reachDone
 	if nR == n && m.Size == n {
 		return n, nil
+	}
+	if b == nil {
+		b = inNeighbourCSR(h, d.signals)
 	}
 	return dimension(h, d.signals, reached, nR, b, m)
 }
