@@ -145,7 +145,13 @@ func (g *Network) Matching() *matching.Matching {
 // Components returns the strongly connected components, computed once.
 // They are shared and must not be modified.
 func (g *Network) Components() *Components {
-	g.compOnce.Do(func() { g.comps = scc(&g.out, nil, nil) })
+	g.compOnce.Do(func() {
+		if g.Edges() >= fbEdges {
+			g.comps = forwardBackward(&g.out, &g.in)
+		} else {
+			g.comps = scc(&g.out, nil, nil)
+		}
+	})
 	return g.comps
 }
 
