@@ -406,7 +406,7 @@ func testAugmentLongPath(t *testing.T) {
 	m.RowMate[n-1] = -1
 	m.ColMate[0] = -1
 	m.Size = n - 1
-	m.Size += augment(g, gt, m)
+	m.Size += augment(g, gt, m, nil)
 	if err := checkMatching(g, m); err != nil {
 		t.Fatal(err)
 	}

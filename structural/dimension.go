@@ -2,7 +2,6 @@ package structural
 
 import (
 	"math"
-	"slices"
 
 	"github.com/netsteer/netsteer/matching"
 )
@@ -281,15 +280,15 @@ func dimension(g *Network, inputs [][]int32, inR []bool, nR int, b *matching.CSR
 // restrictedMatching returns a maximum matching of the part of b on the
 // reached states (rows of R, columns of R and the inputs), from m, a maximum
 // matching of b: m itself when no row of R is matched to an unreached
-// state, else m without those pairs, completed by augmenting paths in the
-// restricted graph (a few, as the unreached part is closed under
-// in-neighbours and meets R only along its edges into R).
+// state, else m without those pairs, completed by augmenting paths that
+// avoid the unreached states' columns (a few, as the unreached part is
+// closed under in-neighbours and meets R only along its edges into R; the
+// rows of unreached states have no other columns, so they stay free).
 func restrictedMatching(g *Network, inputs [][]int32, b *matching.CSR, m *matching.Matching, inR []bool) *matching.Matching {
 	n := int32(len(inR))
-	outside := func(c int32) bool { return c >= 0 && c < n && !inR[c] }
 	dropped := false
 	for w, c := range m.RowMate {
-		if inR[w] && outside(c) {
+		if c >= 0 && c < n && !inR[c] && inR[w] {
 			dropped = true
 			break
 		}
@@ -297,27 +296,9 @@ func restrictedMatching(g *Network, inputs [][]int32, b *matching.CSR, m *matchi
 	if !dropped {
 		return m
 	}
-	r := &matching.CSR{Rows: b.Rows, Cols: b.Cols, Ptr: make([]int64, b.Rows+1)}
-	for w := int32(0); w < n; w++ {
-		k := int64(0)
-		if inR[w] {
-			for _, c := range b.Row(w) {
-				if !outside(c) {
-					k++
-				}
-			}
-		}
-		r.Ptr[w+1] = r.Ptr[w] + k
-	}
-	r.Adj = make([]int32, 0, r.Ptr[n])
-	for w := int32(0); w < n; w++ {
-		if inR[w] {
-			for _, c := range b.Row(w) {
-				if !outside(c) {
-					r.Adj = append(r.Adj, c)
-				}
-			}
-		}
+	without := make([]bool, b.Cols)
+	for c := range n {
+		without[c] = !inR[c]
 	}
 	mr := &matching.Matching{RowMate: make([]int32, b.Rows), ColMate: make([]int32, b.Cols)}
 	for i := range mr.ColMate {
@@ -325,32 +306,12 @@ func restrictedMatching(g *Network, inputs [][]int32, b *matching.CSR, m *matchi
 	}
 	for w, c := range m.RowMate {
 		mr.RowMate[w] = -1
-		if c >= 0 && inR[w] && !outside(c) {
+		if c >= 0 && !without[c] {
 			mr.RowMate[w], mr.ColMate[c] = c, int32(w)
 			mr.Size++
 		}
 	}
-	// The transpose, as inNeighbourCSRT builds it: the out-rows of the
-	// reached states restricted to R, then the inputs' rows.
-	t := &matching.CSR{Rows: b.Cols, Cols: b.Rows, Ptr: make([]int64, b.Cols+1)}
-	t.Adj = make([]int32, 0, len(r.Adj))
-	for c := int32(0); c < n; c++ {
-		if inR[c] {
-			for _, w := range g.out.Row(c) {
-				if inR[w] {
-					t.Adj = append(t.Adj, w)
-				}
-			}
-		}
-		t.Ptr[c+1] = int64(len(t.Adj))
-	}
-	for i, in := range inputs {
-		row := slices.Clone(in)
-		slices.Sort(row)
-		t.Adj = append(t.Adj, slices.Compact(row)...)
-		t.Ptr[int(n)+i+1] = int64(len(t.Adj))
-	}
-	matching.Augment(r, t, mr)
+	matching.AugmentWithout(b, inNeighbourCSRT(g, inputs), mr, without)
 	return mr
 }
 
