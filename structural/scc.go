@@ -51,12 +51,7 @@ func sccThrough(g *matching.CSR, mate []int32, skip []bool) *Components {
 
 func scc(g *matching.CSR, mate []int32, skip []bool) *Components {
 	s := newPearce(g, mate, skip)
-	for r := 0; r < s.n; r++ {
-		if s.rindex[r] == 0 {
-			s.from(int32(r))
-		}
-	}
-	return s.finish()
+	return s.rest()
 }
 
 // pearce is the state of Pearce's algorithm on g read through mate and
@@ -177,6 +172,17 @@ func (s *pearce) from(r int32) {
 	s.call, s.stack, s.index, s.c = call, stack, index, c
 }
 
+// rest searches from every state still unvisited, in increasing order, and
+// returns the components.
+func (s *pearce) rest() *Components {
+	for r := 0; r < s.n; r++ {
+		if s.rindex[r] == 0 {
+			s.from(int32(r))
+		}
+	}
+	return s.finish()
+}
+
 // finish numbers the components in completion order, every state being
 // complete, and returns them.
 func (s *pearce) finish() *Components {
@@ -225,12 +231,7 @@ func forwardBackward(out, in *matching.CSR) *Components {
 	queue := s.stack[:0] // its capacity, before Pearce's searches use it
 	fw, nf := bfsBits(out, in, int32(pivot), queue)
 	if nf < n/8 {
-		for r := 0; r < n; r++ {
-			if s.rindex[r] == 0 {
-				s.from(int32(r))
-			}
-		}
-		return s.finish()
+		return s.rest()
 	}
 	bw, _ := bfsBits(in, out, int32(pivot), queue)
 	// The states that do not reach the pivot: no edge leaves them for one
@@ -255,12 +256,7 @@ func forwardBackward(out, in *matching.CSR) *Components {
 	s.c--
 	// The states upstream: every edge from them to a completed state is
 	// seen, so the sources come out as in SCC.
-	for r := 0; r < n; r++ {
-		if s.rindex[r] == 0 {
-			s.from(int32(r))
-		}
-	}
-	return s.finish()
+	return s.rest()
 }
 
 // fbEdges is the size from which a network's components are found by
